@@ -1,0 +1,58 @@
+# copoly build and test entry points. See DEVELOPERS.md.
+SHELL := /bin/bash
+GO ?= go
+GOROOT := $(shell $(GO) env GOROOT)
+WASMEXEC := $(GOROOT)/lib/wasm/go_js_wasm_exec
+PY ?= /usr/bin/python3
+DIST := dist
+
+.PHONY: all wasm site run test vet test-native test-noasm test-wasm test-fixtures test-browser bench clean
+
+all: site
+
+## wasm: build the WebAssembly module and copy the matching wasm_exec.js beside it
+wasm:
+	@mkdir -p $(DIST)
+	GOOS=js GOARCH=wasm $(GO) build -trimpath -ldflags="-s -w" -o $(DIST)/copoly.wasm ./wasm
+	cp "$(GOROOT)/lib/wasm/wasm_exec.js" $(DIST)/wasm_exec.js
+
+## site: the one self-contained offline page, dist/copoly.html
+site: wasm
+	$(GO) run ./site/build -wasm $(DIST)/copoly.wasm -wasmexec $(DIST)/wasm_exec.js -o $(DIST)/copoly.html
+
+## run: build the page and serve dist/ on localhost
+run: site
+	$(GO) run ./site/serve -dir $(DIST)
+
+vet:
+	$(GO) vet ./...
+	GOOS=js GOARCH=wasm $(GO) vet ./...
+
+test-native:
+	$(GO) test -count=1 ./...
+
+test-noasm:
+	$(GO) test -count=1 -tags noasm ./copoly/...
+
+test-wasm:
+	GOOS=js GOARCH=wasm $(GO) test -count=1 -exec="$(WASMEXEC)" ./copoly/... ./wasm/...
+
+## test-fixtures: re-run the scipy scripts that made testdata/ fixtures and compare with the committed files
+test-fixtures:
+	@if [ -x "$(PY)" ] && $(PY) -c 'import scipy' 2>/dev/null; then \
+		$(PY) testdata/skeist_scipy.py --check; \
+	elif [ -n "$$CI" ]; then echo "FAIL: $(PY) with scipy is required in CI (apt-get install -y python3-scipy)"; exit 1; \
+	else echo "*** SKIPPED fixture re-check: $(PY) has no scipy. Install with: apt-get install -y python3-scipy ***"; fi
+
+## test-browser: open dist/copoly.html from file:// in headless Chromium
+test-browser: site
+	COPOLY_HTML=$(abspath $(DIST)/copoly.html) $(GO) test -count=1 -v -run Browser ./site/browsertest/
+
+test: vet test-native test-noasm test-wasm test-fixtures test-browser
+
+## bench: sizes, load time against a bare Go page, and Go benchmarks natively and as js/wasm
+bench: site
+	bash site/bench.sh
+
+clean:
+	rm -rf $(DIST)

@@ -1,0 +1,142 @@
+// The JavaScript API of copoly: every method of the global `copoly` object.
+//
+// This file is the one place where the contract between the page (site/) or a lab script and the
+// WebAssembly module (wasm/) is written down. The bridge in wasm/ implements exactly this; the
+// page and the browser test use exactly this.
+//
+// Conventions (also shown on the page):
+//   M1, M2   monomer 1 and monomer 2; r1 = k11/k12, r2 = k22/k21 (terminal model)
+//   f1       mole fraction of M1 in the unreacted monomer mixture (the feed)
+//   F1       instantaneous mole fraction of M1 units in the copolymer
+//   F1cum    cumulative (average) mole fraction of M1 in the copolymer made so far
+//   X        overall molar conversion of monomer, 0..1
+//
+// Every synchronous method takes one plain object and returns one plain object. Invalid input
+// never throws: it returns a CopolyError naming the offending field. No input can stop the module.
+// Methods that touch storage return a Promise that resolves (never rejects) to a result or a
+// CopolyError.
+
+export interface CopolyError {
+  error: string;   // a sentence for the user, e.g. "r1 = -0.2: a reactivity ratio cannot be negative"
+  field?: string;  // the input field at fault, e.g. "r1", "f1[3]", "conversion[0]", "project.monomer1.molarMass"
+}
+
+export interface Classification {
+  kind: "ideal" | "alternating" | "strongly-alternating" | "block" | "homopolymer-mixture";
+  product: number;        // r1·r2
+  text: string;           // the classification in words, with the numbers behind it
+}
+
+export interface CompositionResult {
+  F1: number[];           // instantaneous copolymer composition for each input f1 (Mayo–Lewis)
+  azeotrope: number | null;  // f1 at which F1 = f1, or null when none lies in (0,1)
+  classification: Classification;
+}
+
+export interface FeedResult {
+  feeds: number[];        // feeds f1 that give targetF1 at low conversion (empty when unreachable)
+  note: string;           // why there are zero, one or several feeds
+  range: [number, number];   // the copolymer compositions reachable with this pair
+}
+
+export interface DriftResult {
+  conversion: number[];     // overall molar conversion X (as requested, or converted from mass)
+  conversionMass?: number[];  // mass conversion at each point (only when both molar masses given)
+  f1: number[];             // unreacted feed f1(X)
+  F1: number[];             // instantaneous copolymer F1(X)
+  F1cum: number[];          // cumulative copolymer F1cum(X)
+  method: "meyer-lowry" | "skeist-ode" | "no-drift";
+  limit: {                  // the conversion limit for the composition tolerance
+    tolerance: number;      // ± tolerance on F1cum around F1(f10) (mole fraction)
+    conversion: number;     // largest X with |F1cum(X) − F1(f10)| ≤ tolerance (1 when never left)
+  };
+  distribution: {           // composition distribution of all the polymer made up to the last conversion
+    edges: number[];        // bins+1 bin edges in instantaneous F1
+    weights: number[];      // fraction of the polymer (by mass when both molar masses are given, else by moles) per bin; sums to 1
+    basis: "mass" | "moles";
+  };
+  exhausted: null | { monomer: 1 | 2; conversion: number };  // a monomer practically used up (f < 1e-6) before the last X
+}
+
+export interface SequenceStats {
+  F1: number;
+  p11: number; p12: number; p21: number; p22: number;
+  dyads: { "11": number; "12": number; "22": number };     // "12" counts 12 and 21 together; sum 1
+  triads: {                     // monomer-centred: 111+112+212 = 1 and 222+221+121 = 1
+    "111": number; "112": number; "212": number;            // "112" counts 112 and 211 together
+    "222": number; "221": number; "121": number;            // "221" counts 221 and 122 together
+  };
+  meanLength1: number;          // number-average run length of M1
+  meanLength2: number;
+  runNumber: number;            // Harwood–Ritchey run number: runs per 100 units
+  randomness: number;           // B = p12 + p21 (1 random, 2 alternating, → 0 blocky)
+}
+
+export interface SequenceResult extends SequenceStats {
+  runLengths: {                 // run-length distributions at this feed
+    length: number[];           // 1, 2, ... n
+    number1: number[]; weight1: number[];   // number and weight fraction of M1 runs of each length
+    number2: number[]; weight2: number[];
+  };
+  batch?: SequenceStats & { conversion: number };  // averaged over all polymer made from f1 (as f10) up to `conversion`
+}
+
+export interface ChainsResult {
+  samples: string[];            // each chain as a string of "1" and "2", e.g. "1122121..."
+}
+
+export interface Monomer { name: string; molarMass: number; source: string }
+export interface RatioPair { monomer1: string; monomer2: string; r1: number; r2: number; temperature: string; source: string }
+
+export interface Project {
+  format: "copoly-project";     // our own schema name
+  version: 1;
+  name: string;
+  monomer1: { name: string; molarMass: number };   // molarMass in g/mol (0 = not given)
+  monomer2: { name: string; molarMass: number };
+  r1: number;
+  r2: number;
+  ratioSource: string;          // where r1 and r2 come from (free text)
+  f10: number;                  // initial feed for the drift view
+  conversion: number;           // last conversion for the drift view
+  tolerance: number;            // composition tolerance for the conversion limit
+  notes: string;
+  invented?: boolean;           // true for the built-in demo scenario
+  savedAt?: string;             // RFC 3339, set on save
+}
+
+export interface StorageLoad {
+  project: Project | null;      // null when nothing was stored yet
+  storage: "indexeddb" | "unavailable";
+  message?: string;             // e.g. "The stored project was damaged; the previous copy was restored."
+}
+
+export interface Copoly {
+  version: string;
+  composition(a: { r1: number; r2: number; f1: number[] }): CompositionResult | CopolyError;
+  feedFor(a: { r1: number; r2: number; targetF1: number }): FeedResult | CopolyError;
+  drift(a: {
+    r1: number; r2: number; f10: number;
+    conversion: number[];                      // increasing, each in [0,1]
+    basis?: "molar" | "mass";                  // what `conversion` holds; default "molar"; "mass" needs molar masses
+    molarMass1?: number; molarMass2?: number;  // g/mol, both or neither
+    tolerance?: number;                        // default 0.02
+    bins?: number;                             // default 20, 1..200
+  }): DriftResult | CopolyError;
+  sequence(a: { r1: number; r2: number; f1: number; conversion?: number; maxLength?: number }): SequenceResult | CopolyError;
+  chains(a: { r1: number; r2: number; f10: number; count?: number; length?: number; seed?: number }): ChainsResult | CopolyError;
+  library(a?: {}): { monomers: Monomer[]; pairs: RatioPair[] };
+  demoProject(a?: {}): { project: Project };
+  checkProject(a: { project: Project }): { project: Project } | CopolyError;
+  exportProject(a: { project: Project }): { json: string; filename: string } | CopolyError;
+  importProject(a: { json: string }): { project: Project } | CopolyError;
+  loadProject(a?: {}): Promise<StorageLoad | CopolyError>;
+  saveProject(a: { project: Project }): Promise<{ saved: true; storage: "indexeddb"; savedAt: string } | CopolyError>;
+}
+
+declare global {
+  // Defined by the WebAssembly module once it has started.
+  var copoly: Copoly;
+  // Set by the page: resolves once the module is loaded and the first results are drawn.
+  var copolyReady: Promise<void>;
+}
