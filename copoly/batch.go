@@ -1,0 +1,202 @@
+package copoly
+
+import (
+	"fmt"
+	"math"
+)
+
+// ConversionLimit returns the largest overall molar conversion X up to which the cumulative
+// copolymer composition F̄1 of a batch started from f10 stays within ±tolerance of the
+// composition of the first polymer, F1(f10). It returns 1 (or the largest reachable conversion,
+// see [Terminal.Drift]) when the batch never leaves the band. F̄1 moves monotonically with X, so
+// the limit is found by bisection to 1e-10.
+func (m Terminal) ConversionLimit(f10, tolerance float64) (float64, error) {
+	b, err := newBatch(m, f10)
+	if err != nil {
+		return 0, err
+	}
+	if err := checkFinite("tolerance", tolerance); err != nil {
+		return 0, err
+	}
+	if tolerance <= 0 || tolerance > 0.5 {
+		return 0, &InputError{Field: "tolerance", Value: tolerance, Reason: "a composition tolerance must be above 0 and at most 0.5 (mole fraction)", Err: ErrOutOfRange}
+	}
+	if b.still {
+		return 1, nil
+	}
+	start := m.Instantaneous(f10)
+	off := func(x float64) bool {
+		var f [1]float64
+		b.feedAt(f[:], []float64{x})
+		var c float64
+		if x >= b.xmax && b.xmax == 1 {
+			c = f10
+		} else {
+			c = b.cumulative(x, f[0])
+		}
+		return math.Abs(c-start) > tolerance
+	}
+	if !off(b.xmax) {
+		return b.xmax, nil
+	}
+	lo, hi := 0.0, b.xmax
+	for hi-lo > 1e-10 {
+		mid := 0.5 * (lo + hi)
+		if off(mid) {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	return lo, nil
+}
+
+// Histogram is a distribution over bins of copolymer composition.
+type Histogram struct {
+	// Edges holds len(Weights)+1 ascending bin edges in F1.
+	Edges []float64
+	// Weights holds the fraction of the polymer in each bin; they sum to 1.
+	Weights []float64
+	// Basis is "mass" when the weights are mass fractions and "moles" when they are fractions of
+	// the monomer units.
+	Basis string
+}
+
+// MaxBins is the largest number of bins [Terminal.CompositionDistribution] accepts.
+const MaxBins = 200
+
+// distributionSteps is the number of conversion slices the batch is cut into for
+// [Terminal.CompositionDistribution]; each slice is assigned the instantaneous composition at its
+// midpoint (the midpoint rule, error O(1/n²)).
+const distributionSteps = 4000
+
+// CompositionDistribution returns the composition distribution of all the polymer made in a batch
+// from feed f10 up to conversion: each conversion slice dX makes polymer of the instantaneous
+// composition F1(f1(X)), in an amount dX (moles of units), or dX·(F1·M1 + (1 − F1)·M2) by mass
+// when both molar masses are given (molarMass1 = molarMass2 = 0 selects the mole basis).
+// The bins span the compositions made, widened to at least 0.01 around them when the batch does
+// not drift. Chain-to-chain scatter about the instantaneous composition (Stockmayer) is not
+// included: the histogram shows drift only.
+func (m Terminal) CompositionDistribution(f10, conversion float64, bins int, molarMass1, molarMass2 float64) (Histogram, error) {
+	b, err := newBatch(m, f10)
+	if err != nil {
+		return Histogram{}, err
+	}
+	if err := CheckConversion("conversion", conversion); err != nil {
+		return Histogram{}, err
+	}
+	if conversion == 0 {
+		return Histogram{}, &InputError{Field: "conversion", Value: 0, Reason: "no polymer is made at zero conversion", Err: ErrOutOfRange}
+	}
+	if err := b.checkConversions([]float64{conversion}); err != nil {
+		return Histogram{}, err
+	}
+	if bins < 1 || bins > MaxBins {
+		return Histogram{}, &InputError{Field: "bins", Value: float64(bins), Reason: fmt.Sprintf("the number of bins must be between 1 and %d", MaxBins), Err: ErrOutOfRange}
+	}
+	h := Histogram{Basis: "moles"}
+	if molarMass1 != 0 || molarMass2 != 0 {
+		if err := CheckMolarMass("molarMass1", molarMass1); err != nil {
+			return Histogram{}, err
+		}
+		if err := CheckMolarMass("molarMass2", molarMass2); err != nil {
+			return Histogram{}, err
+		}
+		h.Basis = "mass"
+	}
+	xs := make([]float64, distributionSteps)
+	dx := conversion / distributionSteps
+	for i := range xs {
+		xs[i] = (float64(i) + 0.5) * dx
+	}
+	feeds := make([]float64, len(xs))
+	b.feedAt(feeds, xs)
+	comp := feeds // reuse: instantaneous composition per slice
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for i, f := range feeds {
+		comp[i] = m.Instantaneous(f)
+		lo, hi = math.Min(lo, comp[i]), math.Max(hi, comp[i])
+	}
+	if hi-lo < 0.01 {
+		mid := 0.5 * (lo + hi)
+		lo, hi = math.Max(0, mid-0.005), math.Min(1, mid+0.005)
+		if hi-lo < 0.01 { // against an edge
+			if lo == 0 {
+				hi = 0.01
+			} else {
+				lo = 0.99
+			}
+		}
+	}
+	h.Edges = make([]float64, bins+1)
+	for i := range h.Edges {
+		h.Edges[i] = lo + (hi-lo)*float64(i)/float64(bins)
+	}
+	h.Weights = make([]float64, bins)
+	var total float64
+	for _, c := range comp {
+		w := 1.0
+		if h.Basis == "mass" {
+			w = c*molarMass1 + (1-c)*molarMass2
+		}
+		k := int((c - lo) / (hi - lo) * float64(bins))
+		k = min(max(k, 0), bins-1)
+		h.Weights[k] += w
+		total += w
+	}
+	for i := range h.Weights {
+		h.Weights[i] /= total
+	}
+	return h, nil
+}
+
+// MassConversion returns the mass (gravimetric) conversion of a batch from its overall molar
+// conversion X, the starting feed f10, the unreacted feed f1 at X and the monomer molar masses:
+//
+//	Xw = [M1 (f10 − (1 − X) f1) + M2 (f20 − (1 − X) f2)] / (M1 f10 + M2 f20)
+//
+// The numerator is the mass of polymer per mole of monomer charged, from the monomer balance of
+// each monomer. The inputs are not validated; see [Terminal.MolarConversion] for the inverse.
+func MassConversion(conversion, f10, f1, molarMass1, molarMass2 float64) float64 {
+	x := conversion
+	poly := molarMass1*(f10-(1-x)*f1) + molarMass2*((1-f10)-(1-x)*(1-f1))
+	return poly / (molarMass1*f10 + molarMass2*(1-f10))
+}
+
+// MolarConversion returns the overall molar conversion X of a batch from feed f10 at which the
+// mass conversion (see [MassConversion]) equals massConversion. The mass conversion rises
+// monotonically with X, so X is found by bisection to 1e-12. The drift f1(X) comes from
+// [Terminal.Drift].
+func (m Terminal) MolarConversion(massConversion, f10, molarMass1, molarMass2 float64) (float64, error) {
+	b, err := newBatch(m, f10)
+	if err != nil {
+		return 0, err
+	}
+	if err := CheckConversion("massConversion", massConversion); err != nil {
+		return 0, err
+	}
+	if err := CheckMolarMass("molarMass1", molarMass1); err != nil {
+		return 0, err
+	}
+	if err := CheckMolarMass("molarMass2", molarMass2); err != nil {
+		return 0, err
+	}
+	mass := func(x float64) float64 {
+		var f [1]float64
+		b.feedAt(f[:], []float64{x})
+		return MassConversion(x, f10, f[0], molarMass1, molarMass2)
+	}
+	if top := mass(b.xmax); massConversion > top+1e-12 {
+		return 0, &InputError{Field: "massConversion", Value: massConversion, Reason: fmt.Sprintf("this batch stops at a mass conversion of %.4g", top), Err: ErrOutOfRange}
+	}
+	lo, hi := 0.0, b.xmax
+	for hi-lo > 1e-12 {
+		mid := 0.5 * (lo + hi)
+		if mass(mid) < massConversion {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return 0.5 * (lo + hi), nil
+}

@@ -1,0 +1,142 @@
+package copoly
+
+import (
+	"fmt"
+	"unicode"
+)
+
+// Standard atomic weights (g/mol) of the elements in common monomers: the IUPAC abridged
+// (conventional) values, IUPAC Commission on Isotopic Abundances and Atomic Weights,
+// "Standard atomic weights of the elements 2021", Pure Appl. Chem. 2022, 94, 573, Table 2
+// (from memory).
+var atomicWeight = map[string]float64{
+	"H":  1.008,
+	"C":  12.011,
+	"N":  14.007,
+	"O":  15.999,
+	"S":  32.06,
+	"Cl": 35.45,
+	"F":  18.998,
+	"Br": 79.904,
+	"Si": 28.085,
+	"P":  30.974,
+}
+
+// MolarMassOf returns the molar mass in g/mol of a simple formula such as "C8H8" or "C3H3N"
+// (element symbols with optional counts; no brackets), from the standard atomic weights above.
+func MolarMassOf(formula string) (float64, error) {
+	var sum float64
+	r := []rune(formula)
+	if len(r) == 0 {
+		return 0, &FieldError{Field: "formula", Reason: "empty formula", Err: ErrOutOfRange}
+	}
+	for i := 0; i < len(r); {
+		if !unicode.IsUpper(r[i]) {
+			return 0, &FieldError{Field: "formula", Reason: fmt.Sprintf("%q: expected an element symbol at position %d", formula, i+1), Err: ErrOutOfRange}
+		}
+		j := i + 1
+		for j < len(r) && unicode.IsLower(r[j]) {
+			j++
+		}
+		sym := string(r[i:j])
+		w, ok := atomicWeight[sym]
+		if !ok {
+			return 0, &FieldError{Field: "formula", Reason: fmt.Sprintf("%q: no atomic weight for element %q", formula, sym), Err: ErrOutOfRange}
+		}
+		n := 0
+		for j < len(r) && unicode.IsDigit(r[j]) {
+			n = 10*n + int(r[j]-'0')
+			j++
+			if n > 100000 {
+				return 0, &FieldError{Field: "formula", Reason: fmt.Sprintf("%q: count too large", formula), Err: ErrOutOfRange}
+			}
+		}
+		if n == 0 {
+			n = 1
+		}
+		sum += float64(n) * w
+		i = j
+	}
+	return sum, nil
+}
+
+// Monomer is an entry of the built-in monomer list.
+type Monomer struct {
+	Name    string
+	Formula string
+	// MolarMass in g/mol, computed from Formula with the standard atomic weights.
+	MolarMass float64
+	Source    string
+}
+
+// monomerFormulas is the built-in list: common monomers of acrylic, styrenic, vinyl and
+// functional copolymers with their molecular formulas.
+var monomerFormulas = []struct{ name, formula string }{
+	{"styrene", "C8H8"},
+	{"methyl methacrylate", "C5H8O2"},
+	{"methyl acrylate", "C4H6O2"},
+	{"ethyl acrylate", "C5H8O2"},
+	{"n-butyl acrylate", "C7H12O2"},
+	{"2-ethylhexyl acrylate", "C11H20O2"},
+	{"acrylonitrile", "C3H3N"},
+	{"vinyl acetate", "C4H6O2"},
+	{"vinyl chloride", "C2H3Cl"},
+	{"1,3-butadiene", "C4H6"},
+	{"acrylic acid", "C3H4O2"},
+	{"methacrylic acid", "C4H6O2"},
+	{"maleic anhydride", "C4H2O3"},
+	{"N-vinylpyrrolidone", "C6H9NO"},
+	{"2-hydroxyethyl methacrylate", "C6H10O3"},
+	{"acrylamide", "C3H5NO"},
+}
+
+// Monomers returns the built-in monomer list with molar masses computed from the formulas.
+func Monomers() []Monomer {
+	out := make([]Monomer, len(monomerFormulas))
+	for i, e := range monomerFormulas {
+		mm, err := MolarMassOf(e.formula)
+		if err != nil {
+			panic("copoly: bad built-in formula " + e.formula)
+		}
+		out[i] = Monomer{Name: e.name, Formula: e.formula, MolarMass: mm,
+			Source: "molar mass from the formula " + e.formula + " and IUPAC standard atomic weights (2021)"}
+	}
+	return out
+}
+
+// RatioPair is a published pair of terminal-model reactivity ratios.
+type RatioPair struct {
+	Monomer1, Monomer2 string
+	R1, R2             float64
+	// Temperature and conditions as published, or "" when the source gives none.
+	Temperature string
+	Source      string
+}
+
+const (
+	srcHandbook = "Polymer Handbook, 4th ed. (Wiley 1999), Greenley's table of reactivity ratios, ref. %s; read from a transcription of the table, to be checked against the printed table"
+)
+
+// Pairs returns the built-in literature pairs. Values from the handbook table vary between
+// studies by ±20 % or more; each pair names its source, and the page shows it beside the values.
+func Pairs() []RatioPair {
+	h := func(ref string) string { return fmt.Sprintf(srcHandbook, ref) }
+	return []RatioPair{
+		{"styrene", "methyl methacrylate", 0.52, 0.46, "", h("139, 179")},
+		{"styrene", "acrylonitrile", 0.40, 0.04, "", h("60")},
+		{"styrene", "n-butyl acrylate", 0.80, 0.15, "", h("549")},
+		{"styrene", "2-ethylhexyl acrylate", 0.979, 0.292, "bulk, 80 °C", "J. Appl. Polym. Sci. 2004, 92, 3368 (¹H NMR, error-in-variables estimate)"},
+		{"styrene", "methyl acrylate", 0.75, 0.18, "", h("393, 397")},
+		{"styrene", "ethyl acrylate", 0.787, 0.152, "", h("673, 677")},
+		{"styrene", "maleic anhydride", 0.04, 0.02, "", h("483")},
+		{"styrene", "1,3-butadiene", 0.58, 1.35, "", h("418")},
+		{"styrene", "acrylic acid", 0.15, 0.25, "", h("490") + " (listed there as acrylic acid/styrene 0.25/0.15)"},
+		{"methyl methacrylate", "n-butyl acrylate", 1.88, 0.43, "", h("87")},
+		{"methyl methacrylate", "acrylonitrile", 1.322, 0.138, "", h("216")},
+		{"methyl methacrylate", "vinyl acetate", 26, 0.03, "", h("272")},
+		{"vinyl acetate", "vinyl chloride", 0.24, 1.84, "", h("158")},
+		{"acrylonitrile", "vinyl acetate", 4.05, 0.04, "", h("158")},
+		{"acrylonitrile", "n-butyl acrylate", 1.52, 0.75, "", "Jordan, Doughty, Port, J. Appl. Polym. Sci. 1960, 4 (no temperature in the abstract)"},
+		{"acrylamide", "vinyl acetate", 9.28, 0.09, "", "Mukherjee, Chatterjee, Brar, Dutta, Macromolecules 1998, 31, 8455 (Kelen–Tüdős and error-in-variables)"},
+	}
+}
