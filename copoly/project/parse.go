@@ -1,0 +1,170 @@
+package project
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"reflect"
+	"strings"
+
+	"copoly/copoly"
+)
+
+// MaxFileBytes is the largest project file Parse reads. A valid project is far smaller (the
+// notes are limited to MaxNotesBytes); the limit stops a wrong file from using up memory.
+const MaxFileBytes = 1 << 20
+
+// required lists the keys a project file must hold (with a non-null value). The text fields
+// and the optional flags default to "" and false.
+var required = []string{"format", "version", "monomer1", "monomer2", "r1", "r2", "f10", "conversion", "tolerance"}
+
+// Parse reads one project file and validates it.
+//
+// The data must be a single JSON object (surrounding white space allowed, nothing after it)
+// whose "format" is Format. Anything else, including valid JSON of another kind, gives an
+// error wrapping ErrNotProject. A "version" above Version gives an error wrapping
+// ErrNewerVersion. A required key that is missing or null gives ErrMissing, a value of the
+// wrong JSON type ErrWrongType; both name the key ("project.monomer1.molarMass"). Keys this
+// version does not know are ignored. Finally the project must pass Project.Validate.
+func Parse(data []byte) (Project, error) {
+	if len(data) > MaxFileBytes {
+		return Project{}, notProject(fmt.Sprintf("the file holds %d bytes, more than the %d a project can have", len(data), MaxFileBytes))
+	}
+	if len(bytes.TrimSpace(data)) == 0 {
+		return Project{}, notProject("the file is empty")
+	}
+
+	// First pass: the top-level object only, to tell a foreign file from a damaged project.
+	dec := json.NewDecoder(bytes.NewReader(data))
+	var head map[string]json.RawMessage
+	if err := dec.Decode(&head); err != nil {
+		var typeErr *json.UnmarshalTypeError
+		if errors.As(err, &typeErr) {
+			return Project{}, notProject(fmt.Sprintf("the file holds a JSON %s, not an object", typeErr.Value))
+		}
+		return Project{}, notProject("the file is not valid JSON (" + err.Error() + ")")
+	}
+	if head == nil { // the literal null
+		return Project{}, notProject("the file holds a JSON null, not an object")
+	}
+	if _, err := dec.Token(); err != io.EOF {
+		return Project{}, notProject("unexpected data after the end of the project object")
+	}
+
+	var format string
+	if raw, ok := head["format"]; !ok || json.Unmarshal(raw, &format) != nil || format != Format {
+		return Project{}, notProject(`it has no "format": "` + Format + `" entry`)
+	}
+	var version float64
+	if raw := head["version"]; isNull(raw) {
+		return Project{}, missing("project.version")
+	} else if err := json.Unmarshal(raw, &version); err != nil {
+		return Project{}, &copoly.FieldError{Field: "project.version", Reason: "must be a whole number", Err: ErrWrongType}
+	}
+	if err := checkVersion(version); err != nil {
+		// A newer file may be laid out differently: stop before reading the rest.
+		return Project{}, err
+	}
+	for _, key := range required {
+		if isNull(head[key]) {
+			return Project{}, missing("project." + key)
+		}
+	}
+
+	var p Project
+	if err := json.Unmarshal(data, &p); err != nil {
+		var typeErr *json.UnmarshalTypeError
+		if errors.As(err, &typeErr) {
+			return Project{}, &copoly.FieldError{
+				Field:  "project." + typeErr.Field,
+				Reason: fmt.Sprintf("must be %s, not a JSON %s", kindName(typeErr.Type), typeErr.Value),
+				Err:    ErrWrongType,
+			}
+		}
+		return Project{}, notProject("the file is not valid JSON (" + err.Error() + ")")
+	}
+	if err := p.Validate(); err != nil {
+		return Project{}, err
+	}
+	return p, nil
+}
+
+// Marshal validates p and returns it as an indented project file ending in a newline, ready to
+// save or export. Parse(Marshal(p)) gives p back.
+func Marshal(p Project) ([]byte, error) {
+	if err := p.Validate(); err != nil {
+		return nil, err
+	}
+	var buf bytes.Buffer
+	enc := json.NewEncoder(&buf)
+	enc.SetEscapeHTML(false)
+	enc.SetIndent("", "  ")
+	if err := enc.Encode(p); err != nil {
+		return nil, fmt.Errorf("project: encoding %q: %w", p.Name, err)
+	}
+	return buf.Bytes(), nil
+}
+
+// Filename returns a file name for exporting a project called name: ASCII letters and digits
+// of the name in lower case, every other run of characters replaced by one "-", at most 80
+// characters, then ".copoly.json". An empty result becomes "copoly-project.copoly.json".
+func Filename(name string) string {
+	const maxStem = 80
+	var b strings.Builder
+	dash := false
+	for _, r := range strings.ToLower(name) {
+		if b.Len() >= maxStem {
+			break
+		}
+		if ('a' <= r && r <= 'z') || ('0' <= r && r <= '9') {
+			if dash && b.Len() > 0 {
+				b.WriteByte('-')
+			}
+			dash = false
+			b.WriteRune(r)
+			continue
+		}
+		dash = true
+	}
+	stem := strings.TrimRight(b.String(), "-")
+	if len(stem) > maxStem {
+		stem = strings.TrimRight(stem[:maxStem], "-")
+	}
+	if stem == "" {
+		stem = "copoly-project"
+	}
+	return stem + ".copoly.json"
+}
+
+func notProject(why string) error {
+	return &copoly.FieldError{Field: "project", Reason: "not a copoly project file: " + why, Err: ErrNotProject}
+}
+
+func missing(field string) error {
+	return &copoly.FieldError{Field: field, Reason: "is missing", Err: ErrMissing}
+}
+
+// isNull reports whether a raw JSON value is absent or the literal null.
+func isNull(raw json.RawMessage) bool {
+	return len(raw) == 0 || string(bytes.TrimSpace(raw)) == "null"
+}
+
+// kindName names a Go type as the JSON a user would have to write.
+func kindName(t reflect.Type) string {
+	switch t.Kind() {
+	case reflect.Float64, reflect.Float32:
+		return "a number"
+	case reflect.Int, reflect.Int64, reflect.Int32:
+		return "a whole number"
+	case reflect.String:
+		return "text in quotes"
+	case reflect.Bool:
+		return "true or false"
+	case reflect.Struct, reflect.Map:
+		return "an object"
+	default:
+		return "a " + t.String()
+	}
+}

@@ -1,0 +1,217 @@
+package project
+
+import (
+	"bytes"
+	"errors"
+	"reflect"
+	"strings"
+	"testing"
+
+	"copoly/copoly"
+)
+
+// minimal is a hand-written project file with every required key and nothing else; the keys
+// are those of Project in site/copoly.d.ts.
+const minimal = `{"format":"copoly-project","version":1,
+ "monomer1":{"name":"A","molarMass":0},"monomer2":{"name":"B","molarMass":0},
+ "r1":0.5,"r2":2,"f10":0.3,"conversion":0.8,"tolerance":0.05}`
+
+func TestParseRoundTrip(t *testing.T) {
+	saved := Demo()
+	saved.SavedAt = "2026-03-04T05:06:07Z"
+	noMasses := Demo()
+	noMasses.Monomer1.MolarMass, noMasses.Monomer2.MolarMass = 0, 0
+	noMasses.Invented = false
+	tests := []struct {
+		name string
+		p    Project
+	}{
+		{"demo", Demo()},
+		{"saved", saved},
+		{"no molar masses", noMasses},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			data, err := Marshal(tt.p)
+			if err != nil {
+				t.Fatalf("Marshal() error %v", err)
+			}
+			got, err := Parse(data)
+			if err != nil {
+				t.Fatalf("Parse(Marshal(p)) error %v\n%s", err, data)
+			}
+			if !reflect.DeepEqual(got, tt.p) {
+				t.Errorf("Parse(Marshal(p)) = %+v, want %+v", got, tt.p)
+			}
+		})
+	}
+}
+
+func TestParseMinimal(t *testing.T) {
+	p, err := Parse([]byte(minimal))
+	if err != nil {
+		t.Fatalf("Parse(minimal) error %v", err)
+	}
+	// Values as written in the minimal file above.
+	want := Project{Format: Format, Version: 1, Monomer1: Monomer{Name: "A"}, Monomer2: Monomer{Name: "B"}, R1: 0.5, R2: 2, F10: 0.3, Conversion: 0.8, Tolerance: 0.05}
+	if !reflect.DeepEqual(p, want) {
+		t.Errorf("Parse(minimal) = %+v, want %+v", p, want)
+	}
+}
+
+func TestMarshalRefusesInvalid(t *testing.T) {
+	p := Demo()
+	p.R1 = -1
+	if data, err := Marshal(p); err == nil || copoly.Field(err) != "project.r1" {
+		t.Errorf("Marshal(r1 = -1) = %q, %v, want an error for project.r1", data, err)
+	}
+}
+
+func TestParseErrors(t *testing.T) {
+	// replace returns minimal with one substring replaced; it fails the test if old is absent.
+	replace := func(old, new string) string {
+		if !strings.Contains(minimal, old) {
+			t.Fatalf("minimal has no %q", old)
+		}
+		return strings.Replace(minimal, old, new, 1)
+	}
+	tests := []struct {
+		name  string
+		data  string
+		field string
+		err   error
+		text  string // a phrase the message must contain
+	}{
+		// Not a project at all.
+		{name: "empty", data: "", field: "project", err: ErrNotProject, text: "not a copoly project file"},
+		{name: "white space", data: " \n\t", field: "project", err: ErrNotProject, text: "empty"},
+		{name: "not JSON", data: "r1,r2\n0.5,2\n", field: "project", err: ErrNotProject, text: "not valid JSON"},
+		{name: "array", data: `[1,2,3]`, field: "project", err: ErrNotProject, text: "array"},
+		{name: "string", data: `"copoly-project"`, field: "project", err: ErrNotProject, text: "string"},
+		{name: "null", data: `null`, field: "project", err: ErrNotProject, text: "null"},
+		{name: "foreign object", data: `{"name":"package","dependencies":{}}`, field: "project", err: ErrNotProject, text: "not a copoly project file"},
+		{name: "other format", data: replace(`"copoly-project"`, `"something-else"`), field: "project", err: ErrNotProject, text: "format"},
+		{name: "format not text", data: replace(`"copoly-project"`, `7`), field: "project", err: ErrNotProject, text: "format"},
+		{name: "trailing garbage", data: minimal + ` x`, field: "project", err: ErrNotProject, text: "after the end"},
+		{name: "two objects", data: minimal + minimal, field: "project", err: ErrNotProject, text: "after the end"},
+		{name: "truncated", data: minimal[:len(minimal)-10], field: "project", err: ErrNotProject, text: "not valid JSON"},
+		{name: "too large", data: strings.Repeat(" ", MaxFileBytes+1), field: "project", err: ErrNotProject, text: "bytes"},
+
+		// Versions.
+		{name: "newer version", data: replace(`"version":1`, `"version":2`), field: "project.version", err: ErrNewerVersion, text: "made by a newer copoly"},
+		{name: "newer version with new layout", data: `{"format":"copoly-project","version":3,"ratios":[0.5,2]}`, field: "project.version", err: ErrNewerVersion, text: "made by a newer copoly"},
+		{name: "version zero", data: replace(`"version":1`, `"version":0`), field: "project.version", err: ErrNotProject},
+		{name: "version text", data: replace(`"version":1`, `"version":"1"`), field: "project.version", err: ErrWrongType},
+		{name: "version missing", data: replace(`"version":1,`, ``), field: "project.version", err: ErrMissing},
+
+		// Missing required values.
+		{name: "r1 missing", data: replace(`"r1":0.5,`, ``), field: "project.r1", err: ErrMissing, text: "missing"},
+		{name: "r2 null", data: replace(`"r2":2`, `"r2":null`), field: "project.r2", err: ErrMissing},
+		{name: "monomer1 missing", data: replace(`"monomer1":{"name":"A","molarMass":0},`, ``), field: "project.monomer1", err: ErrMissing},
+		{name: "tolerance missing", data: replace(`,"tolerance":0.05`, ``), field: "project.tolerance", err: ErrMissing},
+		{name: "keys are case sensitive", data: replace(`"f10":0.3`, `"F10":0.3`), field: "project.f10", err: ErrMissing},
+
+		// Wrong JSON types.
+		{name: "r1 text", data: replace(`"r1":0.5`, `"r1":"0.5"`), field: "project.r1", err: ErrWrongType, text: "must be a number"},
+		{name: "molar mass text", data: replace(`"molarMass":0}`, `"molarMass":"104"}`), field: "project.monomer1.molarMass", err: ErrWrongType},
+		{name: "monomer2 a number", data: replace(`{"name":"B","molarMass":0}`, `2`), field: "project.monomer2", err: ErrWrongType, text: "object"},
+		{name: "notes a list", data: replace(`"r1":0.5`, `"notes":["a"],"r1":0.5`), field: "project.notes", err: ErrWrongType},
+		{name: "invented text", data: replace(`"r1":0.5`, `"invented":"yes","r1":0.5`), field: "project.invented", err: ErrWrongType},
+
+		// Valid JSON, invalid values (Validate).
+		{name: "r1 negative", data: replace(`"r1":0.5`, `"r1":-0.2`), field: "project.r1", err: copoly.ErrOutOfRange},
+		{name: "f10 zero", data: replace(`"f10":0.3`, `"f10":0`), field: "project.f10", err: copoly.ErrOutOfRange},
+		{name: "molar mass negative", data: replace(`"molarMass":0}`, `"molarMass":-5}`), field: "project.monomer1.molarMass", err: copoly.ErrOutOfRange},
+		{name: "conversion above one", data: replace(`"conversion":0.8`, `"conversion":80`), field: "project.conversion", err: copoly.ErrOutOfRange},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			p, err := Parse([]byte(tt.data))
+			if err == nil {
+				t.Fatalf("Parse() = %+v, nil, want an error for %q", p, tt.field)
+			}
+			if !reflect.DeepEqual(p, Project{}) {
+				t.Errorf("Parse() returned %+v with its error, want the zero Project", p)
+			}
+			if got := copoly.Field(err); got != tt.field {
+				t.Errorf("copoly.Field(Parse()) = %q, want %q (error %q)", got, tt.field, err)
+			}
+			if !errors.Is(err, tt.err) {
+				t.Errorf("Parse() = %v, want an error wrapping %v", err, tt.err)
+			}
+			if !strings.Contains(err.Error(), tt.text) {
+				t.Errorf("Parse() = %q, want a message containing %q", err, tt.text)
+			}
+		})
+	}
+}
+
+func TestParseIgnoresUnknownKeys(t *testing.T) {
+	data := strings.Replace(minimal, `"r1":0.5`, `"colour":"blue","r1":0.5`, 1)
+	if _, err := Parse([]byte(data)); err != nil {
+		t.Errorf("Parse(with an unknown key) = %v, want nil", err)
+	}
+}
+
+func TestFilename(t *testing.T) {
+	// Expected names follow the rule in the Filename doc comment.
+	tests := []struct{ name, want string }{
+		{Demo().Name, "demo-invented-harbour-lane-pilot-lab-styrene-n-butyl-acrylate-binder-trial.copoly.json"},
+		{"", "copoly-project.copoly.json"},
+		{"  ***  ", "copoly-project.copoly.json"},
+		{"../../etc/passwd", "etc-passwd.copoly.json"},
+		{`Run 7: MMA/BA <50 °C> "final"`, "run-7-mma-ba-50-c-final.copoly.json"},
+		{"Poly(ε-caprolactone)", "poly-caprolactone.copoly.json"},
+		{strings.Repeat("ab ", 60), strings.TrimSuffix(strings.Repeat("ab-", 27), "-") + ".copoly.json"},
+	}
+	for _, tt := range tests {
+		if got := Filename(tt.name); got != tt.want {
+			t.Errorf("Filename(%q) = %q, want %q", tt.name, got, tt.want)
+		}
+	}
+}
+
+// FuzzParse checks that Parse never panics, and that whatever it accepts is valid and survives
+// Marshal and Parse unchanged. The seed corpus runs as a normal test.
+func FuzzParse(f *testing.F) {
+	demo, err := Marshal(Demo())
+	if err != nil {
+		f.Fatal(err)
+	}
+	for _, seed := range []string{
+		string(demo), minimal, "", "{}", "[]", "null", `"x"`, "1e999",
+		`{"format":"copoly-project","version":2}`,
+		`{"format":"copoly-project","version":1e400}`,
+		strings.Replace(minimal, `"r1":0.5`, `"r1":"a"`, 1),
+		strings.Replace(minimal, `"name":"A"`, `"name":"\ud800"`, 1),
+		minimal + "}",
+	} {
+		f.Add([]byte(seed))
+	}
+	f.Fuzz(func(t *testing.T, data []byte) {
+		p, err := Parse(data)
+		if err != nil {
+			if copoly.Field(err) == "" {
+				t.Errorf("Parse(%q) error %q names no field", data, err)
+			}
+			return
+		}
+		if err := p.Validate(); err != nil {
+			t.Fatalf("Parse(%q) accepted a project that fails Validate: %v", data, err)
+		}
+		out, err := Marshal(p)
+		if err != nil {
+			t.Fatalf("Marshal(Parse(%q)) error %v", data, err)
+		}
+		again, err := Parse(out)
+		if err != nil {
+			t.Fatalf("Parse(Marshal(Parse(%q))) error %v", data, err)
+		}
+		if !reflect.DeepEqual(again, p) {
+			t.Fatalf("round trip changed the project:\n%+v\n%+v", p, again)
+		}
+		if out2, _ := Marshal(again); !bytes.Equal(out, out2) {
+			t.Fatalf("Marshal is not stable:\n%s\n%s", out, out2)
+		}
+	})
+}

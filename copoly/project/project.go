@@ -1,0 +1,225 @@
+// Package project reads, checks, writes and stores copoly project files.
+//
+// A project is the set of inputs behind one copolymerization study: the two monomers, the
+// reactivity ratios and where they come from, the initial feed, the last conversion and the
+// composition tolerance of the drift view, and free-text notes. It is what the page saves in
+// browser storage and what a user exports to or imports from a file.
+//
+// # File format
+//
+// A project file is one JSON object in copoly's own schema, written by [Marshal] and read by
+// [Parse]:
+//
+//	{
+//	  "format": "copoly-project",
+//	  "version": 1,
+//	  "name": "…",
+//	  "monomer1": {"name": "…", "molarMass": 104.15},
+//	  "monomer2": {"name": "…", "molarMass": 0},
+//	  "r1": 0.8, "r2": 0.15,
+//	  "ratioSource": "…",
+//	  "f10": 0.5, "conversion": 0.95, "tolerance": 0.02,
+//	  "notes": "…",
+//	  "invented": true,
+//	  "savedAt": "2026-01-02T03:04:05Z"
+//	}
+//
+// "format" must be "copoly-project". "version" is [Version]; a file with a larger version was
+// made by a newer copoly and is refused with an error that says so, rather than read wrongly.
+// The same object, with the same keys, is the Project of the JavaScript API (site/copoly.d.ts).
+//
+// # Errors
+//
+// Every error about the content of a project is a [copoly.InputError] or [copoly.FieldError]
+// whose field starts with "project." ("project.r1", "project.monomer1.molarMass"), or is
+// "project" for the file as a whole, so that [copoly.Field] tells the page what to highlight.
+//
+// # Storage
+//
+// [Store] keeps the current project and the previous good copy in any [hackpadfs.FS]: the
+// page uses IndexedDB, the tests an in-memory file system.
+package project
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"time"
+	"unicode/utf8"
+
+	"copoly/copoly"
+)
+
+// Format is the value of the "format" key of every project file.
+const Format = "copoly-project"
+
+// Version is the schema version this package writes and the newest it reads.
+const Version = 1
+
+// Limits on the text fields of a project. They keep a project file small enough to store and
+// to read back quickly; they are a design choice of copoly.
+const (
+	MaxNameLength   = 200     // characters in the project name and in each monomer name
+	MaxSourceLength = 1000    // characters in RatioSource
+	MaxNotesBytes   = 100_000 // bytes (UTF-8) in Notes
+)
+
+// Sentinel errors wrapped by the errors of this package; test for them with errors.Is.
+var (
+	// ErrNotProject reports data that is not a copoly project file at all.
+	ErrNotProject = errors.New("project: not a copoly project file")
+	// ErrNewerVersion reports a project file written by a newer copoly.
+	ErrNewerVersion = errors.New("project: made by a newer copoly")
+	// ErrMissing reports a required key that is absent or null.
+	ErrMissing = errors.New("project: required value missing")
+	// ErrWrongType reports a value of the wrong JSON type, such as text where a number belongs.
+	ErrWrongType = errors.New("project: value has the wrong type")
+	// ErrTooLong reports a text field above its length limit.
+	ErrTooLong = errors.New("project: text too long")
+	// ErrDamaged reports stored projects that can no longer be read.
+	ErrDamaged = errors.New("project: stored project damaged")
+)
+
+// Monomer names one monomer of a project.
+type Monomer struct {
+	// Name is free text, at most MaxNameLength characters.
+	Name string `json:"name"`
+	// MolarMass is in g/mol; 0 means not given. When given it must pass copoly.CheckMolarMass.
+	MolarMass float64 `json:"molarMass"`
+}
+
+// Project is one copolymerization study as saved and exported. Its JSON form is the project
+// file format described in the package documentation.
+type Project struct {
+	Format   string  `json:"format"`  // always Format
+	Version  int     `json:"version"` // always Version when written by this package
+	Name     string  `json:"name"`
+	Monomer1 Monomer `json:"monomer1"`
+	Monomer2 Monomer `json:"monomer2"`
+	// R1 and R2 are the terminal-model reactivity ratios, r1 = k11/k12 and r2 = k22/k21.
+	R1 float64 `json:"r1"`
+	R2 float64 `json:"r2"`
+	// RatioSource says where R1 and R2 come from (free text).
+	RatioSource string `json:"ratioSource"`
+	// F10 is the initial mole fraction of monomer 1 in the feed, 0 < F10 < 1.
+	F10 float64 `json:"f10"`
+	// Conversion is the last overall molar conversion of the drift view, 0 < Conversion ≤ 1.
+	Conversion float64 `json:"conversion"`
+	// Tolerance is the ± tolerance on the cumulative copolymer composition (mole fraction) that
+	// sets the conversion limit, 0 < Tolerance ≤ 0.5.
+	Tolerance float64 `json:"tolerance"`
+	Notes     string  `json:"notes"`
+	// Invented is true for the built-in demo scenario, whose lab and runs do not exist.
+	Invented bool `json:"invented,omitempty"`
+	// SavedAt is the time of the last save in RFC 3339 form, set by Store.Save; "" if never saved.
+	SavedAt string `json:"savedAt,omitempty"`
+}
+
+// Validate reports the first invalid value of p as a *copoly.InputError or *copoly.FieldError
+// whose field is the project key prefixed with "project.", or nil when p is a valid project.
+func (p Project) Validate() error {
+	if p.Format != Format {
+		return &copoly.FieldError{Field: "project.format", Reason: fmt.Sprintf("is %q, not %q: not a copoly project", p.Format, Format), Err: ErrNotProject}
+	}
+	if err := checkVersion(float64(p.Version)); err != nil {
+		return err
+	}
+	if err := checkText("project.name", p.Name, MaxNameLength); err != nil {
+		return err
+	}
+	for _, m := range []struct {
+		field string
+		m     Monomer
+	}{{"project.monomer1", p.Monomer1}, {"project.monomer2", p.Monomer2}} {
+		if err := checkText(m.field+".name", m.m.Name, MaxNameLength); err != nil {
+			return err
+		}
+		// 0 means "not given"; anything else must be a real molar mass.
+		if m.m.MolarMass != 0 {
+			if err := copoly.CheckMolarMass(m.field+".molarMass", m.m.MolarMass); err != nil {
+				return err
+			}
+		}
+	}
+	if err := copoly.CheckRatio("project.r1", p.R1); err != nil {
+		return err
+	}
+	if err := copoly.CheckRatio("project.r2", p.R2); err != nil {
+		return err
+	}
+	if err := checkText("project.ratioSource", p.RatioSource, MaxSourceLength); err != nil {
+		return err
+	}
+	if err := copoly.CheckFraction("project.f10", p.F10); err != nil {
+		return err
+	}
+	if p.F10 == 0 || p.F10 == 1 {
+		return &copoly.InputError{Field: "project.f10", Value: p.F10, Reason: "the initial feed must hold both monomers (0 < f10 < 1)", Err: copoly.ErrOutOfRange}
+	}
+	if err := copoly.CheckConversion("project.conversion", p.Conversion); err != nil {
+		return err
+	}
+	if p.Conversion == 0 {
+		return &copoly.InputError{Field: "project.conversion", Value: p.Conversion, Reason: "the last conversion must be above 0", Err: copoly.ErrOutOfRange}
+	}
+	if math.IsNaN(p.Tolerance) || math.IsInf(p.Tolerance, 0) {
+		return &copoly.InputError{Field: "project.tolerance", Value: p.Tolerance, Reason: "must be a finite number", Err: copoly.ErrNotFinite}
+	}
+	if p.Tolerance <= 0 || p.Tolerance > 0.5 {
+		return &copoly.InputError{Field: "project.tolerance", Value: p.Tolerance, Reason: "the composition tolerance must lie above 0 and at most 0.5", Err: copoly.ErrOutOfRange}
+	}
+	if len(p.Notes) > MaxNotesBytes {
+		return &copoly.FieldError{Field: "project.notes", Reason: fmt.Sprintf("the notes take %d bytes; the limit is %d", len(p.Notes), MaxNotesBytes), Err: ErrTooLong}
+	}
+	if p.SavedAt != "" {
+		if _, err := time.Parse(time.RFC3339, p.SavedAt); err != nil {
+			return &copoly.FieldError{Field: "project.savedAt", Reason: fmt.Sprintf("%q is not a date and time in RFC 3339 form", p.SavedAt), Err: ErrWrongType}
+		}
+	}
+	return nil
+}
+
+// checkVersion accepts only Version, and says so plainly when v comes from a newer copoly.
+func checkVersion(v float64) error {
+	switch {
+	case v == Version:
+		return nil
+	case v > Version:
+		return &copoly.InputError{Field: "project.version", Value: v, Reason: fmt.Sprintf("this project was made by a newer copoly; this copoly reads version %d and older", Version), Err: ErrNewerVersion}
+	default:
+		return &copoly.InputError{Field: "project.version", Value: v, Reason: fmt.Sprintf("unknown project version; this copoly reads version %d", Version), Err: ErrNotProject}
+	}
+}
+
+// checkText reports a text longer than max characters.
+func checkText(field, s string, max int) error {
+	if n := utf8.RuneCountInString(s); n > max {
+		return &copoly.FieldError{Field: field, Reason: fmt.Sprintf("is %d characters long; the limit is %d", n, max), Err: ErrTooLong}
+	}
+	return nil
+}
+
+// Demo returns the built-in demo project. Its lab, trial and runs are invented; Invented is
+// true and the name and notes say so. The molar masses are those of styrene (C8H8) and n-butyl
+// acrylate (C7H12O2) from standard atomic weights.
+func Demo() Project {
+	return Project{
+		Format:      Format,
+		Version:     Version,
+		Name:        "Demo (invented): Harbour Lane pilot lab — styrene/n-butyl acrylate binder trial",
+		Monomer1:    Monomer{Name: "styrene", MolarMass: 104.15},
+		Monomer2:    Monomer{Name: "n-butyl acrylate", MolarMass: 128.17},
+		R1:          0.80,
+		R2:          0.15,
+		RatioSource: "Handbook table value 0.80/0.15 (Polymer Handbook 4th ed., Greenley table), demo only",
+		F10:         0.5,
+		Conversion:  0.95,
+		Tolerance:   0.02,
+		Notes: "Invented demo scenario. Harbour Lane pilot lab, its binder trial and its runs do not exist; " +
+			"nothing here is a measurement. Replace the reactivity ratios with values you have checked " +
+			"for your own conditions before relying on any result.\n\n" +
+			"Safety: styrene and n-butyl acrylate are flammable and harmful; bulk and solution " +
+			"copolymerizations can run away. Follow your local codes, safety data sheets and licensed practice.",
+		Invented: true,
+	}
+}
