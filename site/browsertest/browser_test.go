@@ -1,0 +1,530 @@
+//go:build !js
+
+package browsertest
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"math"
+	"net/url"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"sync"
+	"testing"
+	"time"
+
+	"github.com/chromedp/cdproto/log"
+	"github.com/chromedp/cdproto/network"
+	"github.com/chromedp/cdproto/runtime"
+	"github.com/chromedp/chromedp"
+)
+
+// Time limits. They are generous because a CI machine without a GPU may compile the module
+// slowly; they bound a hung page, they measure nothing (the load time is measured by make bench).
+const (
+	testTimeout  = 3 * time.Minute
+	readyTimeout = 60 * time.Second // from a navigation to window.copolyReady
+	stepTimeout  = 20 * time.Second // from an input to the result or status it causes
+	pollInterval = 50 * time.Millisecond
+
+	// saveSettle is how long the test waits after typing a refused value before it reloads,
+	// so that a page that wrongly saved the refused value would have done so. It is well
+	// above any sensible save delay (common practice, no source).
+	saveSettle = 2 * time.Second
+)
+
+// skipMessage is printed when Chromium is missing outside CI; make test-browser prints it too.
+const skipMessage = "*** BROWSER TEST SKIPPED: install chromium: apt-get install -y chromium ***"
+
+// The styrene (M1) / acrylonitrile (M2) pair: r1 = 0.40, r2 = 0.04, from Polymer Handbook,
+// 4th ed. (Wiley 1999), section II, the free-radical reactivity-ratio table compiled by
+// R. Z. Greenley, entry 0.40 / 0.04.
+const (
+	styreneR1 = 0.40
+	acrylR2   = 0.04
+	// wantAzeotrope is the azeotropic feed f1 = (1 − r2)/(2 − r1 − r2) = 0.96/1.56 = 0.61538…,
+	// the feed with F1 = f1 in the Mayo–Lewis equation (F. R. Mayo, F. M. Lewis, J. Am. Chem. Soc.
+	// 66, 1594 (1944)), as the page prints it to three decimals.
+	wantAzeotrope = "0.615"
+	// wantProduct is r1·r2 = 0.40 × 0.04 = 0.016 printed to three significant digits.
+	wantProduct = "0.0160"
+)
+
+// TestBrowserOfflinePage loads dist/copoly.html from file:// with a fresh browser profile,
+// enters the styrene/acrylonitrile ratios, checks the results, reloads to check that IndexedDB
+// kept the project, and checks that a negative ratio is refused next to its field and never
+// stored. Console errors, uncaught exceptions, browser-log errors and any request other than
+// the page's own file, data: and blob: URLs fail the test.
+func TestBrowserOfflinePage(t *testing.T) {
+	html := pagePath(t)
+	chromium := findChromium(t)
+	pageURL := (&url.URL{Scheme: "file", Path: html}).String()
+
+	w := &watcher{pageURL: pageURL}
+	ctx, stop := startBrowser(t, chromium, w)
+	defer stop()
+	defer screenshot(t, ctx) // runs before stop, also after t.Fatal
+
+	// First visit: a fresh profile, so the page shows its invented demo project.
+	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
+	waitReady(t, ctx)
+	w.check(t, "loading the page")
+	waitUntil(t, ctx, "the demo badge is shown on the first visit", `
+		const b = document.getElementById("demo-badge");
+		if (!b) return "no #demo-badge";
+		if (!b.checkVisibility()) return "#demo-badge is hidden";
+		if (!b.textContent.trim()) return "#demo-badge is empty";
+		return "";`, stepTimeout)
+	checkNoFatalBanner(t, ctx)
+
+	// Enter the pair as a person typing would: each keystroke fires an input event.
+	setInput(t, ctx, "r1", "0.40")
+	setInput(t, ctx, "r2", "0.04")
+	waitText(t, ctx, "out-azeotrope", wantAzeotrope)
+	waitText(t, ctx, "out-product", wantProduct)
+	checkSequenceTable(t, ctx)
+	waitUntil(t, ctx, "#storage-status says the project is saved", `
+		const s = document.getElementById("storage-status");
+		if (!s) return "no #storage-status";
+		const text = s.textContent.trim();
+		if (!/saved/i.test(text) || /(not|un|n't)\s*saved|fail|error|unavailable/i.test(text)) return "#storage-status: " + JSON.stringify(text);
+		return "";`, stepTimeout)
+	status := evalJS[string](t, ctx, `document.getElementById("storage-status").textContent.trim()`)
+	w.check(t, "entering r1 and r2")
+
+	// Reload in the same browser and profile: the project must come back from IndexedDB.
+	run(t, ctx, "reload", chromedp.Reload())
+	waitReady(t, ctx)
+	checkFieldValue(t, ctx, "r1", styreneR1, "after a reload (#storage-status said "+strconv.Quote(status)+" before it)")
+	checkFieldValue(t, ctx, "r2", acrylR2, "after a reload")
+	waitText(t, ctx, "out-azeotrope", wantAzeotrope)
+	checkNoFatalBanner(t, ctx)
+	w.check(t, "reloading the page")
+
+	// A negative reactivity ratio is refused next to its field and never stored.
+	setInput(t, ctx, "r1", "-1")
+	waitUntil(t, ctx, `#r1 is marked aria-invalid="true" after typing -1`, `
+		const r1 = document.getElementById("r1");
+		const v = r1.getAttribute("aria-invalid");
+		return v === "true" ? "" : "aria-invalid=" + JSON.stringify(v);`, stepTimeout)
+	msg := evalJS[string](t, ctx, `(() => {
+		const r1 = document.getElementById("r1");
+		const ids = [r1.getAttribute("aria-errormessage"), r1.getAttribute("aria-describedby")]
+			.filter(Boolean).join(" ").split(/\s+/).filter(Boolean);
+		return ids.map(id => document.getElementById(id))
+			.filter(e => e && e.checkVisibility())
+			.map(e => e.textContent.trim()).filter(Boolean).join(" | ");
+	})()`)
+	switch {
+	case msg == "":
+		t.Errorf("after typing -1 in #r1: no visible error message referenced by its aria-errormessage or aria-describedby")
+	case !strings.Contains(msg, "-1") && !strings.Contains(msg, "−1"):
+		t.Errorf("after typing -1 in #r1: the message %q does not name the value -1", msg)
+	default:
+		t.Logf("error shown for r1 = -1: %q", msg)
+	}
+	checkNoFatalBanner(t, ctx)
+	run(t, ctx, "wait for a save that must not happen", chromedp.Sleep(saveSettle))
+	run(t, ctx, "reload", chromedp.Reload())
+	waitReady(t, ctx)
+	checkFieldValue(t, ctx, "r1", styreneR1, "after typing -1 and reloading (the refused value must not be stored)")
+	checkFieldValue(t, ctx, "r2", acrylR2, "after typing -1 and reloading")
+	if v := evalJS[string](t, ctx, `String(document.getElementById("r1").getAttribute("aria-invalid"))`); v == "true" {
+		t.Errorf(`after reloading, #r1 still has aria-invalid="true"`)
+	}
+	w.check(t, "typing -1 and reloading")
+}
+
+// pagePath returns the page named by COPOLY_HTML, or skips the test when it is unset.
+func pagePath(t *testing.T) string {
+	t.Helper()
+	html := os.Getenv("COPOLY_HTML")
+	if html == "" {
+		t.Skip("COPOLY_HTML is not set; run `make test-browser`, which builds dist/copoly.html and sets it")
+	}
+	if !filepath.IsAbs(html) {
+		t.Fatalf("COPOLY_HTML=%q: want an absolute path", html)
+	}
+	if _, err := os.Stat(html); err != nil {
+		t.Fatalf("COPOLY_HTML: %v (build the page with `make site`)", err)
+	}
+	return html
+}
+
+// findChromium returns the Chromium executable. When there is none it fails the test in CI
+// (env CI set, or COPOLY_REQUIRE_BROWSER=1) and otherwise skips it loudly.
+func findChromium(t *testing.T) string {
+	t.Helper()
+	if fi, err := os.Stat("/usr/bin/chromium"); err == nil && !fi.IsDir() && fi.Mode()&0o111 != 0 {
+		return "/usr/bin/chromium"
+	}
+	if p, err := exec.LookPath("chromium"); err == nil {
+		return p
+	}
+	if os.Getenv("CI") != "" || os.Getenv("COPOLY_REQUIRE_BROWSER") == "1" {
+		t.Fatal("Chromium is required here (CI or COPOLY_REQUIRE_BROWSER=1) but neither /usr/bin/chromium nor chromium on PATH exists; install it with: apt-get install -y chromium")
+	}
+	t.Skip(skipMessage)
+	return ""
+}
+
+// startBrowser starts headless Chromium with a fresh profile directory, which lives as long as
+// the test so that IndexedDB survives reloads, and returns a tab context whose events go to w.
+// stop ends the browser and removes the profile.
+func startBrowser(t *testing.T, chromium string, w *watcher) (ctx context.Context, stop func()) {
+	t.Helper()
+	profile, err := os.MkdirTemp("", "copoly-browsertest-")
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := &tailBuffer{max: 8 << 10}
+	allocCtx, cancelAlloc := chromedp.NewExecAllocator(context.Background(),
+		chromedp.ExecPath(chromium),
+		chromedp.Headless,
+		chromedp.NoSandbox,
+		chromedp.DisableGPU,
+		chromedp.NoFirstRun,
+		chromedp.NoDefaultBrowserCheck,
+		chromedp.Flag("disable-background-networking", true),
+		chromedp.Flag("disable-component-update", true),
+		chromedp.Flag("disable-sync", true),
+		chromedp.Flag("disable-extensions", true),
+		chromedp.Flag("disable-default-apps", true),
+		chromedp.Flag("disable-dev-shm-usage", true),
+		chromedp.WindowSize(1280, 1000),
+		chromedp.UserDataDir(profile),
+		chromedp.CombinedOutput(out),
+	)
+	tabCtx, cancelTab := chromedp.NewContext(allocCtx, chromedp.WithListener(w.listen))
+	ctx, cancelTimeout := context.WithTimeout(tabCtx, testTimeout)
+	stop = func() {
+		cancelTimeout()
+		cancelTab()
+		cancelAlloc()
+		if t.Failed() {
+			t.Logf("last output of Chromium (without its D-Bus complaints):\n%s", withoutDBus(out.String()))
+		}
+		// Chromium's helper processes can write into the profile for a moment after the browser
+		// exits, so retry the removal for a while.
+		for i := 0; ; i++ {
+			err := os.RemoveAll(profile)
+			if err == nil {
+				return
+			}
+			if i == 50 {
+				t.Logf("removing the browser profile: %v", err)
+				return
+			}
+			time.Sleep(100 * time.Millisecond)
+		}
+	}
+	// Start the browser now, without the test timeout: the first Run owns the browser's life.
+	if _, err := chromedp.Run(tabCtx, chromedp.Evaluate[chromedp.Void](`0`)); err != nil {
+		stop()
+		t.Fatalf("starting %s: %v", chromium, err)
+	}
+	return ctx, stop
+}
+
+// watcher collects what the page must never do: console errors, uncaught exceptions, errors in
+// the browser log, and requests to anything but its own file, data: and blob: URLs.
+type watcher struct {
+	pageURL string
+
+	mu       sync.Mutex
+	problems []string
+	reported int
+}
+
+// listen receives every event of the tab, on chromedp's reading goroutine; it must not block.
+func (w *watcher) listen(ev any) {
+	var p string
+	switch ev := ev.(type) {
+	case *runtime.EventConsoleAPICalled:
+		if ev.Type == runtime.ConsoleAPICalledTypeError || ev.Type == runtime.ConsoleAPICalledTypeAssert {
+			p = "console." + string(ev.Type) + ": " + remoteText(ev.Args) + stackPlace(ev.StackTrace)
+		}
+	case *runtime.EventExceptionThrown:
+		d := ev.ExceptionDetails
+		text := d.Text
+		if d.Exception != nil {
+			text += " " + remoteText([]*runtime.RemoteObject{d.Exception})
+		}
+		p = fmt.Sprintf("uncaught exception: %s (%s:%d:%d)", text, d.URL, d.LineNumber+1, d.ColumnNumber+1)
+	case *log.EventEntryAdded:
+		if e := ev.Entry; e.Level == log.EntryLevelError {
+			p = fmt.Sprintf("browser log error (%s): %s %s", e.Source, e.Text, e.URL)
+		}
+	case *network.EventRequestWillBeSent:
+		if u := ev.Request.URL; !w.allowed(u) {
+			p = fmt.Sprintf("network request: %s %s (for %s)", ev.Request.Method, u, ev.DocumentURL)
+		}
+	}
+	if p != "" {
+		w.mu.Lock()
+		w.problems = append(w.problems, p)
+		w.mu.Unlock()
+	}
+}
+
+// allowed reports whether the page may request u: its own file (without a fragment), or data
+// that never leaves the page.
+func (w *watcher) allowed(u string) bool {
+	u, _, _ = strings.Cut(u, "#")
+	return u == w.pageURL || strings.HasPrefix(u, "data:") || strings.HasPrefix(u, "blob:")
+}
+
+// check fails the test with every problem seen since the last check.
+func (w *watcher) check(t *testing.T, during string) {
+	t.Helper()
+	w.mu.Lock()
+	fresh := w.problems[w.reported:]
+	w.reported = len(w.problems)
+	w.mu.Unlock()
+	if len(fresh) > 0 {
+		t.Errorf("while %s, the page did %d thing(s) it must never do:\n\t%s", during, len(fresh), strings.Join(fresh, "\n\t"))
+	}
+}
+
+// remoteText renders console arguments or an exception: values as JSON, objects by description.
+func remoteText(args []*runtime.RemoteObject) string {
+	parts := make([]string, 0, len(args))
+	for _, a := range args {
+		switch {
+		case a == nil:
+		case a.Description != "":
+			parts = append(parts, a.Description)
+		case len(a.Value) > 0:
+			var s string
+			if json.Unmarshal(a.Value, &s) == nil {
+				parts = append(parts, s)
+			} else {
+				parts = append(parts, string(a.Value))
+			}
+		default:
+			parts = append(parts, string(a.Type))
+		}
+	}
+	return strings.Join(parts, " ")
+}
+
+// stackPlace is " (url:line:column)" of the top frame, or "".
+func stackPlace(st *runtime.StackTrace) string {
+	if st == nil || len(st.CallFrames) == 0 {
+		return ""
+	}
+	f := st.CallFrames[0]
+	return fmt.Sprintf(" (%s:%d:%d)", f.URL, f.LineNumber+1, f.ColumnNumber+1)
+}
+
+// run runs a chromedp action and fails the test if it fails.
+func run[T any](t *testing.T, ctx context.Context, what string, a chromedp.Action[T]) T {
+	t.Helper()
+	v, err := chromedp.Run(ctx, a)
+	if err != nil {
+		t.Fatalf("%s: %v", what, err)
+	}
+	return v
+}
+
+// evalJS evaluates a JavaScript expression in the page and decodes its value into T.
+func evalJS[T any](t *testing.T, ctx context.Context, expr string) T {
+	t.Helper()
+	return run(t, ctx, "evaluating "+strings.Join(strings.Fields(expr), " "), chromedp.Evaluate[T](expr))
+}
+
+// waitReady waits until the page's copolyReady promise resolves and window.copoly exists.
+func waitReady(t *testing.T, ctx context.Context) {
+	t.Helper()
+	rctx, cancel := context.WithTimeout(ctx, readyTimeout)
+	defer cancel()
+	problem, err := chromedp.Run(rctx, chromedp.Evaluate[string](`(async () => {
+		if (!window.copolyReady || typeof window.copolyReady.then !== "function") return "window.copolyReady is not a promise";
+		await window.copolyReady;
+		if (!window.copoly || typeof window.copoly.version !== "string" || !window.copoly.version) return "window.copoly.version is missing after copolyReady";
+		return "";
+	})()`, chromedp.EvalAwaitPromise))
+	var exc *chromedp.ExceptionError
+	switch {
+	case errors.As(err, &exc):
+		t.Fatalf("window.copolyReady rejected: %v", err)
+	case err != nil:
+		t.Fatalf("waiting for window.copolyReady (up to %v): %v", readyTimeout, err)
+	case problem != "":
+		t.Fatal(problem)
+	}
+}
+
+// waitUntil runs body, the body of a JavaScript function returning "" when the condition holds
+// and otherwise what the page shows instead, until the condition holds or timeout passes; then
+// it fails the test with the last answer.
+func waitUntil(t *testing.T, ctx context.Context, what, body string, timeout time.Duration) {
+	t.Helper()
+	expr := "(() => { try {" + body + "} catch (e) { return String(e); } })()"
+	deadline := time.Now().Add(timeout)
+	for {
+		got := evalJS[string](t, ctx, expr)
+		if got == "" {
+			return
+		}
+		if time.Now().After(deadline) {
+			t.Fatalf("waited %v for %s; the page shows: %s", timeout, what, got)
+		}
+		run(t, ctx, "poll", chromedp.Sleep(pollInterval))
+	}
+}
+
+// waitText waits until the element with the id contains want in its text.
+func waitText(t *testing.T, ctx context.Context, id, want string) {
+	t.Helper()
+	waitUntil(t, ctx, fmt.Sprintf("#%s to show %q", id, want), fmt.Sprintf(`
+		const el = document.getElementById(%s);
+		if (!el) return "no #" + %[1]s;
+		const text = el.textContent.trim();
+		return text.includes(%s) ? "" : "#" + %[1]s + ": " + JSON.stringify(text);`, jsString(id), jsString(want)), stepTimeout)
+}
+
+// setInput sets the value of the input with the id and fires an input event, as typing does.
+func setInput(t *testing.T, ctx context.Context, id, value string) {
+	t.Helper()
+	problem := evalJS[string](t, ctx, fmt.Sprintf(`((id, v) => {
+		const el = document.getElementById(id);
+		if (!el) return "no #" + id;
+		if (el.disabled || el.readOnly) return "#" + id + " cannot be edited";
+		el.focus();
+		el.value = v;
+		el.dispatchEvent(new Event("input", {bubbles: true}));
+		return "";
+	})(%s, %s)`, jsString(id), jsString(value)))
+	if problem != "" {
+		t.Fatalf("typing %q into #%s: %s", value, id, problem)
+	}
+}
+
+// checkFieldValue checks that the input with the id holds a number within 1e-9 of want.
+func checkFieldValue(t *testing.T, ctx context.Context, id string, want float64, when string) {
+	t.Helper()
+	got := evalJS[string](t, ctx, fmt.Sprintf(`(document.getElementById(%s) || {value: "(no such input)"}).value`, jsString(id)))
+	v, err := strconv.ParseFloat(strings.TrimSpace(got), 64)
+	if err != nil || math.Abs(v-want) > 1e-9 {
+		t.Errorf("%s: #%s = %q, want %v", when, id, got, want)
+	}
+}
+
+// checkSequenceTable checks that every statistic cell of #seq-table holds a finite number, and
+// that fractions and probabilities lie in [0, 1].
+func checkSequenceTable(t *testing.T, ctx context.Context) {
+	t.Helper()
+	waitUntil(t, ctx, "#seq-table to hold statistic cells", `
+		const n = document.querySelectorAll("#seq-table [data-stat]").length;
+		return n > 0 ? "" : "no [data-stat] cell in #seq-table";`, stepTimeout)
+	cells := evalJS[[][2]string](t, ctx, `[...document.querySelectorAll("#seq-table [data-stat]")]
+		.map(c => [c.dataset.stat, c.textContent.trim()])`)
+	for _, c := range cells {
+		name, text := c[0], c[1]
+		// Accept the typographic minus and a trailing unit or percent sign.
+		num := strings.TrimSpace(strings.TrimRight(strings.ReplaceAll(text, "−", "-"), "% "))
+		v, err := strconv.ParseFloat(num, 64)
+		if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
+			t.Errorf("#seq-table [data-stat=%q] = %q, want a finite number", name, text)
+			continue
+		}
+		if isFraction(name) && !strings.Contains(text, "%") && (v < 0 || v > 1) {
+			t.Errorf("#seq-table [data-stat=%q] = %q, want a fraction in [0, 1]", name, text)
+		}
+	}
+	if len(cells) < 4 {
+		t.Errorf("#seq-table has %d statistic cells, want at least the four probabilities p11, p12, p21, p22", len(cells))
+	}
+	t.Logf("#seq-table: %v", cells)
+}
+
+// isFraction reports whether a statistic named as in the JS contract (copoly.d.ts) is a
+// probability or a dyad or triad fraction.
+func isFraction(name string) bool {
+	n := strings.ToLower(name)
+	switch {
+	case strings.HasPrefix(n, "p1"), strings.HasPrefix(n, "p2"):
+		return true
+	case strings.HasPrefix(n, "dyad"), strings.HasPrefix(n, "triad"):
+		return true
+	}
+	return false
+}
+
+// checkNoFatalBanner fails the test if the page shows that its module stopped.
+func checkNoFatalBanner(t *testing.T, ctx context.Context) {
+	t.Helper()
+	text := evalJS[string](t, ctx, `(() => {
+		const b = document.getElementById("fatal-banner");
+		if (!b) return "";
+		return b.checkVisibility() ? "shown: " + b.textContent.trim() : "";
+	})()`)
+	if text != "" {
+		t.Fatalf("#fatal-banner is %s", text)
+	}
+}
+
+// screenshot writes a PNG of the whole page to $COPOLY_SHOT, if it is set.
+func screenshot(t *testing.T, ctx context.Context) {
+	path := os.Getenv("COPOLY_SHOT")
+	if path == "" || ctx.Err() != nil {
+		return
+	}
+	png, err := chromedp.Run(ctx, chromedp.FullScreenshot(100))
+	if err == nil {
+		err = os.WriteFile(path, png, 0o644)
+	}
+	if err != nil {
+		t.Errorf("screenshot to COPOLY_SHOT=%s: %v", path, err)
+		return
+	}
+	t.Logf("screenshot: %s", path)
+}
+
+// withoutDBus drops the lines in which Chromium complains that a container has no D-Bus; they
+// are harmless and would bury the lines that matter.
+func withoutDBus(s string) string {
+	var keep []string
+	for _, line := range strings.Split(s, "\n") {
+		if !strings.Contains(line, "dbus") && !strings.Contains(line, "D-Bus") {
+			keep = append(keep, line)
+		}
+	}
+	return strings.Join(keep, "\n")
+}
+
+// jsString is s as a JavaScript string literal.
+func jsString(s string) string {
+	b, _ := json.Marshal(s)
+	return string(b)
+}
+
+// tailBuffer keeps the last max bytes written to it; Chromium writes to it from its own goroutine.
+type tailBuffer struct {
+	mu  sync.Mutex
+	buf bytes.Buffer
+	max int
+}
+
+func (b *tailBuffer) Write(p []byte) (int, error) {
+	b.mu.Lock()
+	defer b.mu.Unlock()
+	b.buf.Write(p)
+	if extra := b.buf.Len() - b.max; extra > 0 {
+		b.buf.Next(extra)
+	}
+	return len(p), nil
+}
+
+func (b *tailBuffer) String() string {
+	b.mu.Lock()
+	defer b.mu.Unlock()
+	return b.buf.String()
+}

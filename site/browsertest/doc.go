@@ -1,0 +1,21 @@
+//go:build !js
+
+// Package browsertest opens the built page, dist/copoly.html, from file:// in headless Chromium
+// and uses it as a person would: it types reactivity ratios, reads the results, reloads the page
+// to see the project come back from IndexedDB, and types a bad value to see it refused. The page
+// must do all this without a console error, an uncaught exception or any request beyond its own
+// file.
+//
+// The package has only a test. Run it through make, which builds the page first:
+//
+//	make test-browser
+//
+// The test reads the environment:
+//
+//	COPOLY_HTML             absolute path of the page (make sets it); unset: the test is skipped
+//	COPOLY_REQUIRE_BROWSER  "1": a missing Chromium fails the test instead of skipping it (CI sets
+//	                        CI, which has the same effect)
+//	COPOLY_SHOT             if set, a PNG screenshot of the page at the end of the test is written here
+//
+// Chromium is /usr/bin/chromium or the first chromium on PATH (Debian: apt-get install -y chromium).
+package browsertest
