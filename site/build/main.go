@@ -1,0 +1,283 @@
+// Command build writes copoly's offline page: one self-contained HTML file that opens from
+// file:// with no network and no other file beside it.
+//
+// Usage (from the repository root; `make site` runs the first form):
+//
+//	go run ./site/build -wasm dist/copoly.wasm -wasmexec dist/wasm_exec.js -o dist/copoly.html
+//	go run ./site/build -wasm dist/copoly.wasm -wasmexec dist/wasm_exec.js -o dist/copoly.html -hello dist/hello.html
+//
+// The page template is site/index.html. Every `<link rel="stylesheet" href="NAME">` becomes an
+// inline <style> and every `<script src="NAME"></script>` an inline <script>, both read from the
+// -src directory, except wasm_exec.js, which is read from -wasmexec because it must come from the
+// toolchain that built the module. The module itself is compressed with gzip (best compression),
+// base64-encoded and placed in a non-executable data block
+//
+//	<script type="application/octet-stream" id="copoly-wasm" data-encoding="gzip+base64"
+//	        data-bytes="N">…</script>
+//
+// at the `<!-- copoly:module -->` marker; the page decodes it with Uint8Array.fromBase64 (or atob),
+// decompresses it with DecompressionStream("gzip") and instantiates it. At the
+// `<!-- copoly:csp -->` marker the tool writes a Content-Security-Policy meta tag that allows
+// exactly the inline scripts and styles it wrote, by SHA-256 hash, and nothing from anywhere else.
+//
+// With -hello, the tool also compiles a bare Go program that prints one line and exits, with the
+// same go command (-go) for GOOS=js GOARCH=wasm, and writes the very same page around that module,
+// so the load time of the real page can be compared with the smallest possible Go module. The
+// page bytes differ only in the embedded module.
+package main
+
+import (
+	"bytes"
+	"compress/gzip"
+	"crypto/sha256"
+	"encoding/base64"
+	"errors"
+	"flag"
+	"fmt"
+	"io/fs"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"strings"
+)
+
+// Markers in the template that the build replaces.
+const (
+	cspMarker    = "<!-- copoly:csp -->"
+	moduleMarker = "<!-- copoly:module -->"
+)
+
+// wasmExecName is the script name in the template that is taken from the toolchain (-wasmexec)
+// rather than from the -src directory.
+const wasmExecName = "wasm_exec.js"
+
+var (
+	// styleLink matches the only accepted form of a stylesheet reference in the template.
+	styleLink = regexp.MustCompile(`<link rel="stylesheet" href="([A-Za-z0-9_.-]+\.css)">`)
+	// scriptRef matches the only accepted form of a script reference in the template.
+	scriptRef = regexp.MustCompile(`<script src="([A-Za-z0-9_.-]+\.js)"></script>`)
+	// closeScript and closeStyle find text that would end an inline element early.
+	closeScript = regexp.MustCompile(`(?i)</script|<!--`)
+	closeStyle  = regexp.MustCompile(`(?i)</style`)
+	// external finds any attribute that could still load something after inlining.
+	external = regexp.MustCompile(`(?i)\s(src|href|srcset|action|formaction|poster|data|xlink:href)\s*=\s*["']?[^"'\s>]`)
+	// inlineAttr finds attributes the CSP would block.
+	inlineAttr = regexp.MustCompile(`(?i)\s(style|on[a-z]+)\s*=`)
+)
+
+// helloSource is the bare module for load-time comparison: it starts, prints and exits.
+const helloSource = `package main
+
+func main() { println("hello") }
+`
+
+func main() {
+	var (
+		src      = flag.String("src", "site", "directory holding index.html and the files it names")
+		wasmPath = flag.String("wasm", "dist/copoly.wasm", "the WebAssembly module to embed (read only)")
+		execPath = flag.String("wasmexec", "dist/wasm_exec.js", "wasm_exec.js from the toolchain that built -wasm")
+		out      = flag.String("o", "dist/copoly.html", "the page to write")
+		hello    = flag.String("hello", "", "if set, also write the same page around a bare Go hello module to this path")
+		goCmd    = flag.String("go", "go", "go command used to compile the -hello module")
+	)
+	flag.Parse()
+	if err := run(*src, *wasmPath, *execPath, *out, *hello, *goCmd); err != nil {
+		fmt.Fprintln(os.Stderr, "site/build:", err)
+		os.Exit(1)
+	}
+}
+
+func run(src, wasmPath, execPath, out, hello, goCmd string) error {
+	module, err := os.ReadFile(wasmPath)
+	if err != nil {
+		return err
+	}
+	wasmExec, err := os.ReadFile(execPath)
+	if err != nil {
+		return err
+	}
+	page, err := Build(os.DirFS(src), wasmExec, module)
+	if err != nil {
+		return err
+	}
+	if err := os.WriteFile(out, page, 0o644); err != nil {
+		return err
+	}
+	fmt.Printf("wrote %s: %d bytes (module %d bytes raw)\n", out, len(page), len(module))
+	if hello == "" {
+		return nil
+	}
+	helloModule, err := compileHello(goCmd)
+	if err != nil {
+		return err
+	}
+	page, err = Build(os.DirFS(src), wasmExec, helloModule)
+	if err != nil {
+		return err
+	}
+	if err := os.WriteFile(hello, page, 0o644); err != nil {
+		return err
+	}
+	fmt.Printf("wrote %s: %d bytes (hello module %d bytes raw)\n", hello, len(page), len(helloModule))
+	return nil
+}
+
+// compileHello builds helloSource for js/wasm with the same flags as `make wasm`.
+func compileHello(goCmd string) ([]byte, error) {
+	dir, err := os.MkdirTemp("", "copoly-hello-")
+	if err != nil {
+		return nil, err
+	}
+	defer os.RemoveAll(dir)
+	srcFile := filepath.Join(dir, "hello.go")
+	if err := os.WriteFile(srcFile, []byte(helloSource), 0o644); err != nil {
+		return nil, err
+	}
+	outFile := filepath.Join(dir, "hello.wasm")
+	cmd := exec.Command(goCmd, "build", "-trimpath", "-ldflags=-s -w", "-o", outFile, srcFile)
+	cmd.Dir = dir
+	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm", "GO111MODULE=off", "GOFLAGS=")
+	if msg, err := cmd.CombinedOutput(); err != nil {
+		return nil, fmt.Errorf("compiling the hello module: %v\n%s", err, msg)
+	}
+	return os.ReadFile(outFile)
+}
+
+// Build returns the offline page: the template index.html from site with its stylesheets and
+// scripts inlined, wasmExec inlined in place of wasm_exec.js, module embedded as gzip+base64, and
+// a Content-Security-Policy that allows exactly the inlined code by hash.
+func Build(site fs.FS, wasmExec, module []byte) ([]byte, error) {
+	tmpl, err := fs.ReadFile(site, "index.html")
+	if err != nil {
+		return nil, err
+	}
+	html := string(tmpl)
+	for _, m := range []string{cspMarker, moduleMarker} {
+		if n := strings.Count(html, m); n != 1 {
+			return nil, fmt.Errorf("index.html: marker %s appears %d times, want 1", m, n)
+		}
+	}
+	if !strings.Contains(html, `<script src="`+wasmExecName+`"></script>`) {
+		return nil, fmt.Errorf("index.html: no <script src=%q></script>", wasmExecName)
+	}
+	if err := checkTemplate(html); err != nil {
+		return nil, err
+	}
+
+	var styleHashes, scriptHashes []string
+	var inlineErr error
+	html = styleLink.ReplaceAllStringFunc(html, func(tag string) string {
+		name := styleLink.FindStringSubmatch(tag)[1]
+		css, err := fs.ReadFile(site, name)
+		if err != nil {
+			inlineErr = errors.Join(inlineErr, err)
+			return ""
+		}
+		if closeStyle.Match(css) {
+			inlineErr = errors.Join(inlineErr, fmt.Errorf("%s contains </style", name))
+		}
+		styleHashes = append(styleHashes, hash(css))
+		return "<style>" + string(css) + "</style>"
+	})
+	html = scriptRef.ReplaceAllStringFunc(html, func(tag string) string {
+		name := scriptRef.FindStringSubmatch(tag)[1]
+		var (
+			js  []byte
+			err error
+		)
+		if name == wasmExecName {
+			js = wasmExec
+		} else {
+			js, err = fs.ReadFile(site, name)
+		}
+		if err != nil {
+			inlineErr = errors.Join(inlineErr, err)
+			return ""
+		}
+		if closeScript.Match(js) {
+			inlineErr = errors.Join(inlineErr, fmt.Errorf("%s contains </script or <!-- , which would end or confuse an inline script", name))
+		}
+		scriptHashes = append(scriptHashes, hash(js))
+		return "<script>" + string(js) + "</script>"
+	})
+	if inlineErr != nil {
+		return nil, inlineErr
+	}
+	data, err := embedModule(module)
+	if err != nil {
+		return nil, err
+	}
+	html = strings.Replace(html, cspMarker, cspTag(scriptHashes, styleHashes), 1)
+	html = strings.Replace(html, moduleMarker, data, 1)
+	return []byte(html), nil
+}
+
+// checkTemplate rejects a template that would load anything from outside the page or hold code
+// the CSP would block: all code must sit in the linked .css and .js files, which the build inlines
+// and hashes.
+func checkTemplate(html string) error {
+	csp := strings.Index(html, cspMarker)
+	for _, tag := range []string{"<link", "<script", "<style"} {
+		if i := strings.Index(html, tag); i >= 0 && i < csp {
+			return errors.New("index.html: the CSP marker must come before every <link>, <script> and <style>")
+		}
+	}
+	rest := styleLink.ReplaceAllString(html, "")
+	rest = scriptRef.ReplaceAllString(rest, "")
+	lower := strings.ToLower(rest)
+	for _, tag := range []string{"<link", "<script", "<style", "<iframe", "<object", "<embed", "<base"} {
+		if strings.Contains(lower, tag) {
+			return fmt.Errorf("index.html: %s… is not allowed; use a linked .css or .js file of the form the build inlines", tag)
+		}
+	}
+	if loc := external.FindStringIndex(rest); loc != nil {
+		return fmt.Errorf("index.html: %q would load something from outside the page", rest[loc[0]:min(loc[1]+40, len(rest))])
+	}
+	if loc := inlineAttr.FindStringIndex(rest); loc != nil {
+		return fmt.Errorf("index.html: %q: style= and on…= attributes are blocked by the CSP; use the .css and .js files", rest[loc[0]:loc[1]])
+	}
+	return nil
+}
+
+// hash is a CSP hash source for the exact text of an inline element.
+func hash(b []byte) string {
+	sum := sha256.Sum256(b)
+	return "'sha256-" + base64.StdEncoding.EncodeToString(sum[:]) + "'"
+}
+
+// cspTag is the page's policy: nothing may load from anywhere; only the hashed inline scripts
+// and styles run; WebAssembly may be compiled; images only from data: and blob: URLs (the PNG
+// export draws an SVG blob into a canvas).
+func cspTag(scripts, styles []string) string {
+	policy := []string{
+		"default-src 'none'",
+		"script-src " + strings.Join(scripts, " ") + " 'wasm-unsafe-eval'",
+		"style-src " + strings.Join(styles, " "),
+		"img-src data: blob:",
+		"connect-src 'none'",
+		"form-action 'none'",
+		"base-uri 'none'",
+	}
+	return `<meta http-equiv="Content-Security-Policy" content="` + strings.Join(policy, "; ") + `">`
+}
+
+// embedModule is the data block holding module as base64 of its best gzip compression.
+func embedModule(module []byte) (string, error) {
+	if len(module) < 8 || !bytes.Equal(module[:4], []byte("\x00asm")) {
+		return "", errors.New("the module is not a WebAssembly binary (no \\0asm header)")
+	}
+	var buf bytes.Buffer
+	zw, err := gzip.NewWriterLevel(&buf, gzip.BestCompression)
+	if err != nil {
+		return "", err
+	}
+	if _, err := zw.Write(module); err != nil {
+		return "", err
+	}
+	if err := zw.Close(); err != nil {
+		return "", err
+	}
+	return fmt.Sprintf(`<script type="application/octet-stream" id="copoly-wasm" data-encoding="gzip+base64" data-bytes="%d">%s</script>`,
+		len(module), base64.StdEncoding.EncodeToString(buf.Bytes())), nil
+}

@@ -1,0 +1,340 @@
+// plot.js: small hand-drawn SVG charts for the copoly page, and the buttons that save them.
+//
+// No plotting library: a chart is a few dozen SVG elements with presentation attributes (fill,
+// stroke, font-*) and no style attributes, so it obeys the page's Content-Security-Policy, prints
+// crisply and saves as a standalone SVG that looks the same outside the page.
+"use strict";
+
+const Plot = (() => {
+  const NS = "http://www.w3.org/2000/svg";
+  const FONT = "system-ui, -apple-system, 'Segoe UI', Roboto, 'Helvetica Neue', Arial, sans-serif";
+  const INK = "#1f2933";
+  const MUTED = "#52606d";
+  const GRID = "#e4e7eb";
+  let clipCount = 0;
+
+  // el makes an SVG element with attributes; text (if given) is set with textContent.
+  function el(name, attrs, text) {
+    const e = document.createElementNS(NS, name);
+    for (const [k, v] of Object.entries(attrs || {})) {
+      if (v !== undefined && v !== null) e.setAttribute(k, String(v));
+    }
+    if (text !== undefined) e.textContent = text;
+    return e;
+  }
+
+  // niceStep is 1, 2 or 5 times a power of ten, near span/count.
+  function niceStep(span, count) {
+    const raw = span / Math.max(1, count);
+    const p = Math.pow(10, Math.floor(Math.log10(raw)));
+    const m = raw / p;
+    return (m < 1.5 ? 1 : m < 3 ? 2 : m < 7 ? 5 : 10) * p;
+  }
+
+  // ticks returns tick values in [min, max] and the decimals needed to print them.
+  function ticks(min, max, count) {
+    if (!(max > min)) return { values: [min], decimals: 2 };
+    const step = niceStep(max - min, count);
+    const decimals = Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
+    const values = [];
+    for (let v = Math.ceil(min / step - 1e-9) * step; v <= max + step * 1e-9; v += step) {
+      values.push(Number(v.toFixed(decimals + 2)));
+    }
+    return { values, decimals };
+  }
+
+  // range pads [lo, hi] and keeps it inside [floor, ceil] when given.
+  function range(values, opts) {
+    let lo = Infinity, hi = -Infinity;
+    for (const v of values) {
+      if (Number.isFinite(v)) { lo = Math.min(lo, v); hi = Math.max(hi, v); }
+    }
+    if (!Number.isFinite(lo)) { lo = 0; hi = 1; }
+    let span = hi - lo;
+    if (span < (opts.minSpan || 1e-6)) {
+      const mid = (lo + hi) / 2, half = (opts.minSpan || 0.02) / 2;
+      lo = mid - half; hi = mid + half; span = hi - lo;
+    }
+    lo -= span * (opts.pad ?? 0.08);
+    hi += span * (opts.pad ?? 0.08);
+    if (opts.floor !== undefined) lo = Math.max(lo, opts.floor);
+    if (opts.ceil !== undefined) hi = Math.min(hi, opts.ceil);
+    return [lo, hi];
+  }
+
+  // legendRow lays out legend entries left to right, wrapping, below the x-axis label.
+  function legend(svg, entries, x0, y0, maxWidth) {
+    let x = x0, y = y0;
+    for (const e of entries) {
+      const w = 34 + 7.2 * e.label.length + 18;
+      if (x > x0 && x + w > x0 + maxWidth) { x = x0; y += 20; }
+      const g = el("g", { transform: `translate(${x},${y})` });
+      if (e.kind === "box") {
+        g.append(el("rect", { x: 4, y: -6, width: 22, height: 12, fill: e.color, "fill-opacity": e.opacity ?? 1,
+          stroke: e.stroke || "none" }));
+      } else if (e.kind === "point") {
+        g.append(marker(15, 0, e.shape || "circle", e.color, 5));
+      } else {
+        g.append(el("line", { x1: 2, y1: 0, x2: 28, y2: 0, stroke: e.color, "stroke-width": e.width || 2.5,
+          "stroke-dasharray": e.dash || null }));
+      }
+      g.append(el("text", { x: 34, y: 4.5, "font-size": 13, fill: INK }, e.label));
+      svg.append(g);
+      x += w;
+    }
+    return y;
+  }
+
+  function marker(x, y, shape, color, r) {
+    if (shape === "diamond") {
+      return el("path", { d: `M${x},${y - r * 1.3}L${x + r * 1.3},${y}L${x},${y + r * 1.3}L${x - r * 1.3},${y}Z`,
+        fill: color, stroke: "#ffffff", "stroke-width": 1.5 });
+    }
+    if (shape === "square") {
+      return el("rect", { x: x - r, y: y - r, width: 2 * r, height: 2 * r, fill: color, stroke: "#ffffff", "stroke-width": 1.5 });
+    }
+    return el("circle", { cx: x, cy: y, r, fill: color, stroke: "#ffffff", "stroke-width": 1.5 });
+  }
+
+  // chart draws an x–y chart.
+  //
+  // spec: {title, width, height, x: {min, max, label, ticks, integer}, y: {...},
+  //        layers: [...], legend: [...]} where a layer is one of
+  //   {type: "line", x: [], y: [], color, width, dash}
+  //   {type: "bars", x0: [], x1: [], y: [], color}            (rectangles from y = 0)
+  //   {type: "band", y0, y1, color, opacity}                 (horizontal band across the plot)
+  //   {type: "vline", x, color, dash, text}                  (vertical line with a label at the top)
+  //   {type: "point", x, y, color, shape, text, anchor}      (one marker with a label)
+  // and a legend entry is {label, color, kind: "line" | "box" | "point", dash, shape, opacity}.
+  function chart(spec) {
+    const W = spec.width || 600, H = spec.height || 400;
+    const entries = spec.legend || [];
+    const m = { l: 66, r: 20, t: spec.title ? 40 : 16, b: 56 };
+    // Reserve rows for the legend below the axis label.
+    let rows = 0;
+    if (entries.length) {
+      rows = 1;
+      let x = 0;
+      for (const e of entries) {
+        const w = 34 + 7.2 * e.label.length + 18;
+        if (x > 0 && x + w > W - m.l - m.r) { rows++; x = 0; }
+        x += w;
+      }
+    }
+    m.b += rows * 20 + (rows ? 6 : 0);
+    const pw = W - m.l - m.r, ph = H - m.t - m.b;
+    const { min: x0, max: x1 } = spec.x, { min: y0, max: y1 } = spec.y;
+    const sx = (v) => m.l + ((v - x0) / (x1 - x0)) * pw;
+    const sy = (v) => m.t + ph - ((v - y0) / (y1 - y0)) * ph;
+
+    const svg = el("svg", { xmlns: NS, width: W, height: H, viewBox: `0 0 ${W} ${H}`, role: "img",
+      "font-family": FONT, "aria-label": spec.title || "chart" });
+    svg.append(el("rect", { x: 0, y: 0, width: W, height: H, fill: "#ffffff" }));
+    if (spec.title) {
+      svg.append(el("text", { x: m.l, y: 22, "font-size": 15, "font-weight": 600, fill: INK }, spec.title));
+    }
+
+    // Grid, ticks and tick labels.
+    const xt = spec.x.integer ? integerTicks(x0, x1) : ticks(x0, x1, spec.x.ticks || 6);
+    const yt = ticks(y0, y1, spec.y.ticks || 5);
+    const axes = el("g", { "font-size": 12, fill: MUTED });
+    for (const v of xt.values) {
+      const X = sx(v);
+      axes.append(el("line", { x1: X, y1: m.t, x2: X, y2: m.t + ph, stroke: GRID, "stroke-width": 1 }));
+      axes.append(el("line", { x1: X, y1: m.t + ph, x2: X, y2: m.t + ph + 5, stroke: MUTED, "stroke-width": 1 }));
+      axes.append(el("text", { x: X, y: m.t + ph + 19, "text-anchor": "middle" },
+        spec.x.format ? spec.x.format(v) : v.toFixed(xt.decimals)));
+    }
+    for (const v of yt.values) {
+      const Y = sy(v);
+      axes.append(el("line", { x1: m.l, y1: Y, x2: m.l + pw, y2: Y, stroke: GRID, "stroke-width": 1 }));
+      axes.append(el("line", { x1: m.l - 5, y1: Y, x2: m.l, y2: Y, stroke: MUTED, "stroke-width": 1 }));
+      axes.append(el("text", { x: m.l - 8, y: Y + 4, "text-anchor": "end" },
+        spec.y.format ? spec.y.format(v) : v.toFixed(yt.decimals)));
+    }
+    svg.append(axes);
+    svg.append(el("rect", { x: m.l, y: m.t, width: pw, height: ph, fill: "none", stroke: MUTED, "stroke-width": 1 }));
+    svg.append(el("text", { x: m.l + pw / 2, y: m.t + ph + 40, "text-anchor": "middle", "font-size": 13, fill: INK },
+      spec.x.label || ""));
+    svg.append(el("text", { x: 0, y: 0, transform: `translate(18,${m.t + ph / 2}) rotate(-90)`, "text-anchor": "middle",
+      "font-size": 13, fill: INK }, spec.y.label || ""));
+
+    // Data, clipped to the plot area.
+    const clipId = `copoly-clip-${++clipCount}`;
+    const defs = el("defs");
+    const clip = el("clipPath", { id: clipId });
+    clip.append(el("rect", { x: m.l, y: m.t, width: pw, height: ph }));
+    defs.append(clip);
+    svg.append(defs);
+    const data = el("g", { "clip-path": `url(#${clipId})` });
+    const labels = el("g", { "font-size": 12, fill: INK });
+    for (const layer of spec.layers || []) {
+      switch (layer.type) {
+        case "band":
+          data.append(el("rect", { x: m.l, width: pw, y: sy(layer.y1), height: Math.max(0, sy(layer.y0) - sy(layer.y1)),
+            fill: layer.color, "fill-opacity": layer.opacity ?? 0.2 }));
+          break;
+        case "bars":
+          for (let i = 0; i < layer.y.length; i++) {
+            const X0 = sx(layer.x0[i]), X1 = sx(layer.x1[i]), Y = sy(Math.max(y0, layer.y[i]));
+            data.append(el("rect", { x: Math.min(X0, X1), y: Y, width: Math.abs(X1 - X0), height: Math.max(0, sy(y0) - Y),
+              fill: layer.color, stroke: layer.stroke || "#ffffff", "stroke-width": layer.stroke ? 1 : 0.5 }));
+          }
+          break;
+        case "line": {
+          let d = "";
+          let pen = false;
+          for (let i = 0; i < layer.x.length; i++) {
+            const xv = layer.x[i], yv = layer.y[i];
+            if (!Number.isFinite(xv) || !Number.isFinite(yv)) { pen = false; continue; }
+            d += `${pen ? "L" : "M"}${sx(xv).toFixed(2)},${sy(yv).toFixed(2)}`;
+            pen = true;
+          }
+          data.append(el("path", { d, fill: "none", stroke: layer.color, "stroke-width": layer.width || 2.5,
+            "stroke-dasharray": layer.dash || null, "stroke-linejoin": "round", "stroke-linecap": "round" }));
+          break;
+        }
+        case "vline": {
+          const X = sx(layer.x);
+          data.append(el("line", { x1: X, y1: m.t, x2: X, y2: m.t + ph, stroke: layer.color, "stroke-width": 1.8,
+            "stroke-dasharray": layer.dash || "6 4" }));
+          if (layer.text) {
+            const right = X < m.l + pw * 0.6;
+            labels.append(el("text", { x: right ? X + 6 : X - 6, y: m.t + 16, "text-anchor": right ? "start" : "end",
+              fill: layer.color, "font-weight": 600 }, layer.text));
+          }
+          break;
+        }
+        case "point": {
+          const X = sx(layer.x), Y = sy(layer.y);
+          data.append(marker(X, Y, layer.shape, layer.color, layer.r || 6));
+          if (layer.text) {
+            const anchor = layer.anchor || (X < m.l + pw * 0.6 ? "start" : "end");
+            const dx = anchor === "start" ? 11 : -11;
+            const dy = Y < m.t + 24 ? 18 : -9;
+            labels.append(el("text", { x: X + dx, y: Y + dy, "text-anchor": anchor, fill: INK, stroke: "#ffffff",
+              "stroke-width": 4, "paint-order": "stroke", "stroke-linejoin": "round" }, layer.text));
+          }
+          break;
+        }
+      }
+    }
+    svg.append(data, labels);
+    if (entries.length) legend(svg, entries, m.l, m.t + ph + 62, pw);
+    return svg;
+  }
+
+  // integerTicks labels whole numbers only, at most about 12 of them.
+  function integerTicks(min, max) {
+    const lo = Math.ceil(min), hi = Math.floor(max);
+    const step = Math.max(1, Math.ceil((hi - lo + 1) / 12));
+    const values = [];
+    for (let v = lo; v <= hi; v += step) values.push(v);
+    return { values, decimals: 0 };
+  }
+
+  // strips draws sample chains as rows of coloured units: one row per chain, one cell per unit,
+  // runs of the same monomer merged into one rectangle.
+  function strips(spec) {
+    const W = spec.width || 600;
+    const chains = spec.chains;
+    const n = Math.max(1, ...chains.map((c) => c.length));
+    const m = { l: 66, r: 20, t: spec.title ? 40 : 16 };
+    const rowH = 14, gap = 5;
+    const ph = chains.length * (rowH + gap) - gap;
+    const H = m.t + ph + 40 + 28;
+    const pw = W - m.l - m.r;
+    const cell = pw / n;
+    const svg = el("svg", { xmlns: NS, width: W, height: H, viewBox: `0 0 ${W} ${H}`, role: "img",
+      "font-family": FONT, "aria-label": spec.title || "sample chains" });
+    svg.append(el("rect", { x: 0, y: 0, width: W, height: H, fill: "#ffffff" }));
+    if (spec.title) svg.append(el("text", { x: m.l, y: 22, "font-size": 15, "font-weight": 600, fill: INK }, spec.title));
+    const g = el("g", { "font-size": 12, fill: MUTED });
+    chains.forEach((chain, row) => {
+      const y = m.t + row * (rowH + gap);
+      g.append(el("text", { x: m.l - 8, y: y + rowH - 3, "text-anchor": "end" }, String(row + 1)));
+      let start = 0;
+      for (let i = 1; i <= chain.length; i++) {
+        if (i === chain.length || chain[i] !== chain[start]) {
+          const unit = chain[start] === "1" ? 0 : 1;
+          g.append(el("rect", { x: (m.l + start * cell).toFixed(2), y, width: ((i - start) * cell).toFixed(2), height: rowH,
+            fill: spec.colors[unit], stroke: "#ffffff", "stroke-width": 0.6 }));
+          start = i;
+        }
+      }
+    });
+    const axisY = m.t + ph + 6;
+    for (const v of integerTicks(0, n).values.filter((v) => v % 10 === 0 || n <= 20)) {
+      g.append(el("text", { x: m.l + v * cell, y: axisY + 12, "text-anchor": "middle" }, String(v)));
+    }
+    g.append(el("text", { x: m.l + pw / 2, y: axisY + 28, "text-anchor": "middle", "font-size": 13, fill: INK },
+      spec.xLabel || "unit along the chain"));
+    g.append(el("text", { x: 0, y: 0, transform: `translate(18,${m.t + ph / 2}) rotate(-90)`, "text-anchor": "middle",
+      "font-size": 13, fill: INK }, "chain"));
+    svg.append(g);
+    legend(svg, spec.legend, m.l, H - 12, pw);
+    return svg;
+  }
+
+  // download saves blob under filename through a temporary blob: link.
+  function download(blob, filename) {
+    const url = URL.createObjectURL(blob);
+    const a = document.createElement("a");
+    a.href = url;
+    a.download = filename;
+    a.hidden = true;
+    document.body.append(a);
+    a.click();
+    a.remove();
+    setTimeout(() => URL.revokeObjectURL(url), 10000);
+  }
+
+  function svgText(svg) {
+    return '<?xml version="1.0" encoding="UTF-8"?>\n' + new XMLSerializer().serializeToString(svg);
+  }
+
+  function saveSVG(svg, filename) {
+    download(new Blob([svgText(svg)], { type: "image/svg+xml" }), filename);
+  }
+
+  // savePNG draws the SVG (through a blob: URL) into a canvas at twice its size and saves that.
+  function savePNG(svg, filename) {
+    return new Promise((resolve, reject) => {
+      const scale = 2;
+      const w = Number(svg.getAttribute("width")), h = Number(svg.getAttribute("height"));
+      const url = URL.createObjectURL(new Blob([svgText(svg)], { type: "image/svg+xml" }));
+      const img = new Image();
+      img.onload = () => {
+        const canvas = document.createElement("canvas");
+        canvas.width = w * scale;
+        canvas.height = h * scale;
+        const ctx = canvas.getContext("2d");
+        ctx.fillStyle = "#ffffff";
+        ctx.fillRect(0, 0, canvas.width, canvas.height);
+        ctx.drawImage(img, 0, 0, canvas.width, canvas.height);
+        URL.revokeObjectURL(url);
+        canvas.toBlob((blob) => {
+          if (blob) { download(blob, filename); resolve(); } else reject(new Error("the browser could not make a PNG"));
+        }, "image/png");
+      };
+      img.onerror = () => { URL.revokeObjectURL(url); reject(new Error("the browser could not draw the chart")); };
+      img.src = url;
+    });
+  }
+
+  // csvCell quotes a value for CSV; text that a spreadsheet would run as a formula gets a leading
+  // apostrophe.
+  function csvCell(v) {
+    if (typeof v === "number") return Number.isFinite(v) ? String(v) : "";
+    let s = String(v ?? "");
+    if (/^[=+\-@\t\r]/.test(s)) s = "'" + s;
+    return /[",\r\n]/.test(s) ? '"' + s.replace(/"/g, '""') + '"' : s;
+  }
+
+  function saveCSV(rows, filename) {
+    const text = rows.map((r) => r.map(csvCell).join(",")).join("\r\n") + "\r\n";
+    download(new Blob([text], { type: "text/csv;charset=utf-8" }), filename);
+  }
+
+  return { chart, strips, range, saveSVG, savePNG, saveCSV, download, csvCell };
+})();
