@@ -211,8 +211,32 @@ func (b *batch) feedAt(dst, xs []float64) {
 	b.odeFeed(dst, xs)
 }
 
-// closedFeed inverts the Meyer–Lowry form for f1 at conversion x by bisection on s, in which
-// ln(1 − X) decreases monotonically.
+// meyerLowrySlope returns d/ds of meyerLowryLog(s).
+func (b *batch) meyerLowrySlope(s float64) float64 {
+	dv := (b.f10 - b.end) * math.Exp(-s) // f − end
+	f := b.end + dv
+	var t1, t2, t3 float64
+	switch b.end {
+	case 0:
+		t1, t2, t3 = -1, dv/(1-f), dv/(f-b.delta)
+	case 1:
+		t1, t2, t3 = -dv/f, -1, dv/(f-b.delta)
+	default:
+		t1, t2, t3 = -dv/f, dv/(1-f), 1
+	}
+	var sum float64
+	if b.alpha != 0 {
+		sum += b.alpha * t1
+	}
+	if b.beta != 0 {
+		sum += b.beta * t2
+	}
+	return sum + b.gamma*t3
+}
+
+// closedFeed inverts the Meyer–Lowry form for f1 at conversion x: Newton's method on s, in which
+// ln(1 − X) decreases monotonically, kept inside a bracket and falling back to bisection when a
+// step leaves it.
 func (b *batch) closedFeed(x float64) float64 {
 	if x == 0 {
 		return b.f10
@@ -221,25 +245,36 @@ func (b *batch) closedFeed(x float64) float64 {
 		return b.end
 	}
 	target := math.Log1p(-x)
+	h := func(s float64) float64 { return b.meyerLowryLog(s) - target }
 	lo, hi := 0.0, 1.0
-	for b.meyerLowryLog(hi) > target {
+	for h(hi) > 0 {
 		lo, hi = hi, 2*hi
 		if hi > 1e4 {
 			return b.end
 		}
 	}
-	for range 200 {
-		mid := 0.5 * (lo + hi)
-		if mid == lo || mid == hi {
+	s := 0.5 * (lo + hi)
+	for range 100 {
+		v := h(s)
+		if v == 0 {
 			break
 		}
-		if b.meyerLowryLog(mid) > target {
-			lo = mid
+		if v > 0 {
+			lo = s
 		} else {
-			hi = mid
+			hi = s
 		}
+		next := s - v/b.meyerLowrySlope(s)
+		if !(next > lo && next < hi) {
+			next = 0.5 * (lo + hi)
+		}
+		if math.Abs(next-s) <= 1e-15*math.Max(1, s) || hi-lo <= 1e-15*math.Max(1, hi) {
+			s = next
+			break
+		}
+		s = next
 	}
-	return b.end + (b.f10-b.end)*math.Exp(-0.5*(lo+hi))
+	return b.end + (b.f10-b.end)*math.Exp(-s)
 }
 
 // odeFeed integrates the Skeist equation in differential form,
@@ -299,6 +334,9 @@ func (b *batch) checkConversions(xs []float64) error {
 		return &InputError{Field: "conversion", Value: float64(len(xs)), Reason: fmt.Sprintf("at most %d conversions per call", MaxPoints), Err: ErrTooMany}
 	}
 	for i, x := range xs {
+		if x >= 0 && x <= 1 && (i == 0 || x >= xs[i-1]) && x <= b.xmax {
+			continue // valid; the field name is built only on error
+		}
 		field := fmt.Sprintf("conversion[%d]", i)
 		if err := CheckConversion(field, x); err != nil {
 			return err

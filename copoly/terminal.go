@@ -65,8 +65,8 @@ func (m Terminal) InstantaneousTo(dst, f1 []float64) ([]float64, error) {
 		return nil, &InputError{Field: "f1", Value: float64(len(f1)), Reason: fmt.Sprintf("at most %d feeds per call", MaxPoints), Err: ErrTooMany}
 	}
 	for i, v := range f1 {
-		if err := CheckFraction(fmt.Sprintf("f1[%d]", i), v); err != nil {
-			return nil, err
+		if !(v >= 0 && v <= 1) { // also catches NaN; the field name is built only on error
+			return nil, CheckFraction(fmt.Sprintf("f1[%d]", i), v)
 		}
 	}
 	if cap(dst) < len(f1) {
