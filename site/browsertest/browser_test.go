@@ -88,7 +88,7 @@ func TestBrowserOfflinePage(t *testing.T) {
 	setInput(t, ctx, "r2", "0.04")
 	waitText(t, ctx, "out-azeotrope", wantAzeotrope)
 	waitText(t, ctx, "out-product", wantProduct)
-	checkSequenceTable(t, ctx)
+	checkSequenceTable(t, ctx, styreneR1, acrylR2)
 	waitUntil(t, ctx, "#storage-status says the project is saved", `
 		const s = document.getElementById("storage-status");
 		if (!s) return "no #storage-status";
@@ -417,32 +417,98 @@ func checkFieldValue(t *testing.T, ctx context.Context, id string, want float64,
 	}
 }
 
-// checkSequenceTable checks that every statistic cell of #seq-table holds a finite number, and
-// that fractions and probabilities lie in [0, 1].
-func checkSequenceTable(t *testing.T, ctx context.Context) {
+// checkSequenceTable checks that every statistic cell of #seq-table holds a finite number, that
+// fractions and probabilities lie in [0, 1], and that the column at the starting feed (the cells
+// with data-col="feed") shows the terminal-model statistics for r1, r2 and the feed in #f10.
+func checkSequenceTable(t *testing.T, ctx context.Context, r1, r2 float64) {
 	t.Helper()
 	waitUntil(t, ctx, "#seq-table to hold statistic cells", `
 		const n = document.querySelectorAll("#seq-table [data-stat]").length;
 		return n > 0 ? "" : "no [data-stat] cell in #seq-table";`, stepTimeout)
-	cells := evalJS[[][2]string](t, ctx, `[...document.querySelectorAll("#seq-table [data-stat]")]
-		.map(c => [c.dataset.stat, c.textContent.trim()])`)
+	cells := evalJS[[][3]string](t, ctx, `[...document.querySelectorAll("#seq-table [data-stat]")]
+		.map(c => [c.dataset.stat, c.dataset.col || "", c.textContent.trim()])`)
+	feed := map[string]float64{}
 	for _, c := range cells {
-		name, text := c[0], c[1]
-		// Accept the typographic minus and a trailing unit or percent sign.
+		name, col, text := c[0], c[1], c[2]
+		// Accept the typographic minus and a trailing percent sign.
 		num := strings.TrimSpace(strings.TrimRight(strings.ReplaceAll(text, "−", "-"), "% "))
 		v, err := strconv.ParseFloat(num, 64)
 		if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
-			t.Errorf("#seq-table [data-stat=%q] = %q, want a finite number", name, text)
+			t.Errorf("#seq-table [data-stat=%q][data-col=%q] = %q, want a finite number", name, col, text)
 			continue
 		}
 		if isFraction(name) && !strings.Contains(text, "%") && (v < 0 || v > 1) {
-			t.Errorf("#seq-table [data-stat=%q] = %q, want a fraction in [0, 1]", name, text)
+			t.Errorf("#seq-table [data-stat=%q][data-col=%q] = %q, want a fraction in [0, 1]", name, col, text)
+		}
+		if col == "feed" {
+			feed[name] = v
 		}
 	}
-	if len(cells) < 4 {
-		t.Errorf("#seq-table has %d statistic cells, want at least the four probabilities p11, p12, p21, p22", len(cells))
-	}
 	t.Logf("#seq-table: %v", cells)
+
+	f1Text := evalJS[string](t, ctx, `(document.getElementById("f10") || {value: ""}).value`)
+	f1, err := strconv.ParseFloat(strings.TrimSpace(f1Text), 64)
+	if err != nil || f1 <= 0 || f1 >= 1 {
+		t.Fatalf("#f10 = %q, want a feed fraction in (0, 1)", f1Text)
+	}
+	// The page prints 4 decimals, so a correct value is within 5e-5 of the printed one.
+	const tol = 6e-5
+	for _, w := range terminalStats(r1, r2, f1) {
+		got, ok := feed[w.stat]
+		switch {
+		case !ok:
+			t.Errorf(`#seq-table has no cell [data-stat=%q][data-col="feed"]`, w.stat)
+		case math.Abs(got-w.value) > tol:
+			t.Errorf(`#seq-table [data-stat=%q][data-col="feed"] = %v at r1 = %v, r2 = %v, f1 = %v; want %.6f (%s)`,
+				w.stat, got, r1, r2, f1, w.value, w.formula)
+		}
+	}
+}
+
+// stat is one expected sequence statistic with the formula it comes from.
+type stat struct {
+	stat    string
+	value   float64
+	formula string
+}
+
+// terminalStats are the sequence statistics of the terminal model at feed f1, the model being a
+// first-order Markov chain of monomer additions (formulas as collected in G. Odian, Principles of
+// Polymerization, 4th ed., Wiley 2004, section 6-5; section number from memory):
+//
+//	F1 = (r1 f1² + f1 f2)/(r1 f1² + 2 f1 f2 + r2 f2²)     Mayo, Lewis, J. Am. Chem. Soc. 66, 1594 (1944)
+//	p11 = r1 f1/(r1 f1 + f2),  p12 = 1 − p11,  p21 = f1/(f1 + r2 f2),  p22 = 1 − p21
+//	dyads: 11 = F1 p11, 12 + 21 = 2 F1 p12, 22 = F2 p22
+//	triads centred on M1: 111 = p11², 112 + 211 = 2 p11 p12, 212 = p12² (and likewise on M2)
+//	mean run lengths 1/p12 and 1/p21; run number 200/(1/p12 + 1/p21)
+//	(H. J. Harwood, W. M. Ritchey, J. Polym. Sci. B 2, 601 (1964)); randomness p12 + p21.
+func terminalStats(r1, r2, f1 float64) []stat {
+	f2 := 1 - f1
+	F1 := (r1*f1*f1 + f1*f2) / (r1*f1*f1 + 2*f1*f2 + r2*f2*f2)
+	p11 := r1 * f1 / (r1*f1 + f2)
+	p21 := f1 / (f1 + r2*f2)
+	p12, p22 := 1-p11, 1-p21
+	n1, n2 := 1/p12, 1/p21
+	return []stat{
+		{"F1", F1, "Mayo–Lewis F1"},
+		{"p11", p11, "r1 f1/(r1 f1 + f2)"},
+		{"p12", p12, "1 − p11"},
+		{"p21", p21, "f1/(f1 + r2 f2)"},
+		{"p22", p22, "1 − p21"},
+		{"dyad11", F1 * p11, "F1 p11"},
+		{"dyad12", 2 * F1 * p12, "2 F1 p12"},
+		{"dyad22", (1 - F1) * p22, "F2 p22"},
+		{"triad111", p11 * p11, "p11²"},
+		{"triad112", 2 * p11 * p12, "2 p11 p12"},
+		{"triad212", p12 * p12, "p12²"},
+		{"triad222", p22 * p22, "p22²"},
+		{"triad221", 2 * p22 * p21, "2 p22 p21"},
+		{"triad121", p21 * p21, "p21²"},
+		{"meanLength1", n1, "1/p12"},
+		{"meanLength2", n2, "1/p21"},
+		{"runNumber", 200 / (n1 + n2), "200/(1/p12 + 1/p21)"},
+		{"randomness", p12 + p21, "p12 + p21"},
+	}
 }
 
 // isFraction reports whether a statistic named as in the JS contract (copoly.d.ts) is a
