@@ -211,51 +211,57 @@ func (b *batch) feedAt(dst, xs []float64) {
 	b.odeFeed(dst, xs)
 }
 
-// meyerLowrySlope returns d/ds of meyerLowryLog(s).
-func (b *batch) meyerLowrySlope(s float64) float64 {
-	dv := (b.f10 - b.end) * math.Exp(-s) // f − end
-	f := b.end + dv
-	var t1, t2, t3 float64
-	switch b.end {
-	case 0:
-		t1, t2, t3 = -1, dv/(1-f), dv/(f-b.delta)
-	case 1:
-		t1, t2, t3 = -dv/f, -1, dv/(f-b.delta)
-	default:
-		t1, t2, t3 = -dv/f, dv/(1-f), 1
-	}
-	var sum float64
-	if b.alpha != 0 {
-		sum += b.alpha * t1
-	}
-	if b.beta != 0 {
-		sum += b.beta * t2
-	}
-	return sum + b.gamma*t3
+// closedFeed inverts the Meyer–Lowry form for f1 at conversion x (see closedFeedFrom).
+func (b *batch) closedFeed(x float64) float64 {
+	f, _ := b.closedFeedFrom(x, 0)
+	return f
 }
 
-// closedFeed inverts the Meyer–Lowry form for f1 at conversion x: Newton's method on s, in which
-// ln(1 − X) decreases monotonically, kept inside a bracket and falling back to bisection when a
-// step leaves it.
-func (b *batch) closedFeed(x float64) float64 {
+// closedFeedFrom inverts the Meyer–Lowry form for f1 at conversion x: Newton's method on s, in
+// which ln(1 − X) decreases monotonically. A positive guess s0 (from a nearby solution) starts
+// the iteration; when a step misbehaves (leaves s ≥ 0 or fails to shrink the residual) the
+// search falls back to a bracket with bisection. It also returns the solution s, to seed the next
+// call.
+func (b *batch) closedFeedFrom(x, s0 float64) (f, s float64) {
 	if x == 0 {
-		return b.f10
+		return b.f10, 0
 	}
 	if x >= b.xmax {
-		return b.end
+		return b.end, math.Inf(1)
 	}
 	target := math.Log1p(-x)
+	if s0 > 0 && !math.IsInf(s0, 0) {
+		s = s0
+		v, d := b.meyerLowryNewton(s, target)
+		for range 30 {
+			next := s - v/d
+			if !(next >= 0) || math.IsInf(next, 0) {
+				break
+			}
+			nv, nd := b.meyerLowryNewton(next, target)
+			if !(math.Abs(nv) < math.Abs(v)) {
+				if math.Abs(nv) <= 1e-15*math.Max(1, math.Abs(target)) {
+					return b.end + (b.f10-b.end)*math.Exp(-next), next
+				}
+				break
+			}
+			s, v, d = next, nv, nd
+			if math.Abs(v) <= 1e-15*math.Max(1, math.Abs(target)) {
+				return b.end + (b.f10-b.end)*math.Exp(-s), s
+			}
+		}
+	}
 	h := func(s float64) float64 { return b.meyerLowryLog(s) - target }
 	lo, hi := 0.0, 1.0
 	for h(hi) > 0 {
 		lo, hi = hi, 2*hi
 		if hi > 1e4 {
-			return b.end
+			return b.end, math.Inf(1)
 		}
 	}
-	s := 0.5 * (lo + hi)
+	s = 0.5 * (lo + hi)
 	for range 100 {
-		v := h(s)
+		v, d := b.meyerLowryNewton(s, target)
 		if v == 0 {
 			break
 		}
@@ -264,7 +270,7 @@ func (b *batch) closedFeed(x float64) float64 {
 		} else {
 			hi = s
 		}
-		next := s - v/b.meyerLowrySlope(s)
+		next := s - v/d
 		if !(next > lo && next < hi) {
 			next = 0.5 * (lo + hi)
 		}
@@ -274,7 +280,35 @@ func (b *batch) closedFeed(x float64) float64 {
 		}
 		s = next
 	}
-	return b.end + (b.f10-b.end)*math.Exp(-s)
+	return b.end + (b.f10-b.end)*math.Exp(-s), s
+}
+
+// meyerLowryNewton returns meyerLowryLog(s) − target and its slope in s, sharing the work.
+func (b *batch) meyerLowryNewton(s, target float64) (v, d float64) {
+	e := math.Exp(-s)
+	dv := (b.f10 - b.end) * e // f − end
+	f := b.end + dv
+	var l1, l2, l3, t1, t2, t3 float64
+	switch b.end {
+	case 0:
+		l1, l2, l3 = -s, math.Log((1-f)/(1-b.f10)), -math.Log((f-b.delta)/(b.f10-b.delta))
+		t1, t2, t3 = -1, dv/(1-f), dv/(f-b.delta)
+	case 1:
+		l1, l2, l3 = math.Log(f/b.f10), -s, -math.Log((f-b.delta)/(b.f10-b.delta))
+		t1, t2, t3 = -dv/f, -1, dv/(f-b.delta)
+	default:
+		l1, l2, l3 = math.Log(f/b.f10), math.Log((1-f)/(1-b.f10)), s
+		t1, t2, t3 = -dv/f, dv/(1-f), 1
+	}
+	if b.alpha != 0 {
+		v += b.alpha * l1
+		d += b.alpha * t1
+	}
+	if b.beta != 0 {
+		v += b.beta * l2
+		d += b.beta * t2
+	}
+	return v + b.gamma*l3 - target, d + b.gamma*t3
 }
 
 // odeFeed integrates the Skeist equation in differential form,
