@@ -43,6 +43,9 @@
   let engine = null; // the copoly object once running
   let engineStopped = false;
 
+  // Unsupported is a start failure caused by a browser without the features the page needs.
+  class Unsupported extends Error {}
+
   function base64Bytes(text) {
     if (typeof Uint8Array.fromBase64 === "function") return Uint8Array.fromBase64(text);
     const bin = atob(text);
@@ -56,8 +59,8 @@
   async function startModule() {
     const block = document.getElementById("copoly-wasm");
     if (!block) throw new Error("this page holds no calculation module");
-    if (typeof WebAssembly !== "object" || typeof DecompressionStream !== "function") {
-      throw new Error("this browser lacks WebAssembly or DecompressionStream");
+    if (typeof WebAssembly !== "object" || typeof DecompressionStream !== "function" || typeof Go !== "function") {
+      throw new Unsupported("this browser lacks WebAssembly or DecompressionStream");
     }
     performance.mark("copoly:start");
     const gz = base64Bytes(block.textContent.trim());
@@ -127,6 +130,7 @@
     if (Number.isNaN(d.getTime())) return "";
     return [d.getHours(), d.getMinutes(), d.getSeconds()].map((n) => String(n).padStart(2, "0")).join(":");
   };
+  const sentence = (s) => (/[.!?]$/.test(s) ? s : s + ".");
   const shortNum = (v) => (Number.isFinite(v) ? String(Number(v.toPrecision(6))) : "");
   const m1Name = (p) => (p.monomer1.name || "M1");
   const m2Name = (p) => (p.monomer2.name || "M2");
@@ -164,7 +168,10 @@
     return document.getElementById(input.id + "-error");
   }
 
+  // setFieldError shows message beside input. The field is named by the box the message sits
+  // beside, so a leading "project." from the project check is dropped.
   function setFieldError(input, message) {
+    message = message.replace(/^project\./, "");
     input.setAttribute("aria-invalid", "true");
     const box = errorBox(input);
     if (box) { box.textContent = message; box.hidden = false; }
@@ -295,13 +302,14 @@
 
   async function save() {
     if (!state.project || engineStopped) return;
-    if (state.storage === "unavailable") return showStorageStatus();
     const project = state.project;
     const r = await callAsync("saveProject", { project });
     if (isError(r)) {
-      setText("#storage-status", `Not saved: ${r.error} Export the project to keep this version.`);
+      if (state.storage === "unavailable") showStorageStatus();
+      else setText("#storage-status", `Not saved: ${sentence(r.error)} Export the project to keep this version.`);
       return;
     }
+    state.storage = r.storage || "indexeddb";
     project.savedAt = r.savedAt;
     state.savedAt = r.savedAt;
     showStorageStatus();
@@ -534,11 +542,11 @@
 
   // SEQ_ROWS: [data-stat, label, getter]. The data-stat names are stable (the browser test uses them).
   const SEQ_ROWS = [
-    ["F1", "F1, copolymer composition", (s) => s.F1],
-    ["p11", "p11 (M1 adds M1)", (s) => s.p11],
-    ["p12", "p12 (M1 adds M2)", (s) => s.p12],
-    ["p21", "p21 (M2 adds M1)", (s) => s.p21],
-    ["p22", "p22 (M2 adds M2)", (s) => s.p22],
+    ["F1", "copolymer F1", (s) => s.F1],
+    ["p11", "p11: M1 end adds M1", (s) => s.p11],
+    ["p12", "p12: M1 end adds M2", (s) => s.p12],
+    ["p21", "p21: M2 end adds M1", (s) => s.p21],
+    ["p22", "p22: M2 end adds M2", (s) => s.p22],
     ["dyad11", "dyad 11", (s) => s.dyads["11"]],
     ["dyad12", "dyad 12 (+21)", (s) => s.dyads["12"]],
     ["dyad22", "dyad 22", (s) => s.dyads["22"]],
@@ -548,18 +556,18 @@
     ["triad222", "triad 222", (s) => s.triads["222"]],
     ["triad221", "triad 221 (+122)", (s) => s.triads["221"]],
     ["triad121", "triad 121", (s) => s.triads["121"]],
-    ["meanLength1", "mean run length of M1", (s) => s.meanLength1],
-    ["meanLength2", "mean run length of M2", (s) => s.meanLength2],
-    ["runNumber", "run number (runs per 100 units)", (s) => s.runNumber],
-    ["randomness", "randomness index p12 + p21", (s) => s.randomness],
+    ["meanLength1", "mean M1 run length", (s) => s.meanLength1],
+    ["meanLength2", "mean M2 run length", (s) => s.meanLength2],
+    ["runNumber", "run number (per 100 units)", (s) => s.runNumber],
+    ["randomness", "randomness p12 + p21", (s) => s.randomness],
   ];
   const SEQ_GROUPS = { p11: "Addition probabilities", dyad11: "Dyads (sum 1)", triad111: "Triads centred on M1 (sum 1)",
     triad222: "Triads centred on M2 (sum 1)", meanLength1: "Runs" };
 
   function drawSequence(p, s) {
     const batch = s.batch || null;
-    setText("#seq-col-feed", `At the starting feed f1 = ${fix(p.f10, 3)}`);
-    setText("#seq-col-batch", batch ? `Batch average to X = ${fix(batch.conversion, 3)}` : "Batch average");
+    setText("#seq-col-feed", `At feed f1 = ${fix(p.f10, 3)}`);
+    setText("#seq-col-batch", batch ? `Batch to X = ${fix(batch.conversion, 3)}` : "Batch");
     const body = document.createElement("tbody");
     const csv = [["statistic", `at feed f1 = ${p.f10}`, batch ? `batch average to X = ${batch.conversion}` : "batch average"]];
     for (const [key, label, get] of SEQ_ROWS) {
@@ -651,7 +659,7 @@
       state.library.monomers.forEach((m, i) => {
         const o = document.createElement("option");
         o.value = String(i);
-        o.textContent = `${m.name} (${m.molarMass} g/mol)`;
+        o.textContent = `${m.name} (${shortNum(m.molarMass)} g/mol)`;
         $(sel).append(o);
       });
     }
@@ -687,7 +695,7 @@
     for (const [which, mono] of [[1, p.monomer1], [2, p.monomer2]]) {
       const m = mono.name ? findMonomer(mono.name) : null;
       setText(`#mass${which}-source`, m
-        ? `Library: ${m.name}, ${m.molarMass} g/mol${Math.abs(m.molarMass - mono.molarMass) > 1e-9 ? " (differs from the value above)" : ""}. Source: ${m.source}`
+        ? `Library: ${m.name}, ${shortNum(m.molarMass)} g/mol${Math.abs(m.molarMass - mono.molarMass) > 1e-9 ? " (differs from the value above)" : ""}. Source: ${m.source}`
         : "");
     }
     const n1 = p.monomer1.name, n2 = p.monomer2.name;
@@ -717,7 +725,7 @@
     const box = $("#import-error");
     box.hidden = true;
     if (!file) return;
-    const fail = (msg) => { box.textContent = `${file.name} was not imported: ${msg} Nothing was changed.`; box.hidden = false; };
+    const fail = (msg) => { box.textContent = `${file.name} was not imported: ${sentence(msg)} Nothing was changed.`; box.hidden = false; };
     if (file.size > IMPORT_MAX_BYTES) return fail(`it is ${file.size} bytes, far larger than a project file.`);
     let text;
     try {
@@ -763,8 +771,8 @@
 
   function failStart(err) {
     const box = $("#load-banner");
-    box.textContent = `The calculation engine could not start: ${err && err.message ? err.message : err}. ` +
-      "This page needs a browser from 2023 or later with WebAssembly enabled. Nothing you saved is lost.";
+    const old = err instanceof Unsupported ? " This page needs a browser from 2023 or later with WebAssembly enabled." : " Reload the page to try again.";
+    box.textContent = `The calculation engine could not start: ${err && err.message ? err.message : err}.${old} Nothing you saved is lost.`;
     box.hidden = false;
     $("#engine-status").hidden = true;
     document.body.classList.add("engine-stopped");

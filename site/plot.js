@@ -11,6 +11,7 @@ const Plot = (() => {
   const INK = "#1f2933";
   const MUTED = "#52606d";
   const GRID = "#e4e7eb";
+  const TITLE_CHAR = 8.6; // estimated width in pixels of a 15 px bold title character
   let clipCount = 0;
 
   // el makes an SVG element with attributes; text (if given) is set with textContent.
@@ -21,6 +22,32 @@ const Plot = (() => {
     }
     if (text !== undefined) e.textContent = text;
     return e;
+  }
+
+  // wrap splits text into lines of at most about maxWidth pixels, estimating the width of a
+  // character of the title font as charWidth.
+  function wrap(text, maxWidth, charWidth) {
+    const max = Math.max(10, Math.floor(maxWidth / charWidth));
+    const lines = [];
+    let line = "";
+    for (const word of text.split(/\s+/)) {
+      if (line && (line + " " + word).length > max) { lines.push(line); line = word; } else line = line ? line + " " + word : word;
+    }
+    if (line) lines.push(line);
+    return lines;
+  }
+
+  // titleHeight is the room above the plot for a title wrapped to width.
+  function titleHeight(text, width) {
+    return text ? 40 + (wrap(text, width, TITLE_CHAR).length - 1) * 19 : 16;
+  }
+
+  // title draws the title, wrapped to width, at the top.
+  function title(svg, text, x, width) {
+    if (!text) return;
+    wrap(text, width, TITLE_CHAR).forEach((line, i) => {
+      svg.append(el("text", { x, y: 22 + i * 19, "font-size": 15, "font-weight": 600, fill: INK }, line));
+    });
   }
 
   // niceStep is 1, 2 or 5 times a power of ten, near span/count.
@@ -66,7 +93,7 @@ const Plot = (() => {
   function legend(svg, entries, x0, y0, maxWidth) {
     let x = x0, y = y0;
     for (const e of entries) {
-      const w = 34 + 7.2 * e.label.length + 18;
+      const w = 34 + 6.8 * e.label.length + 18;
       if (x > x0 && x + w > x0 + maxWidth) { x = x0; y += 20; }
       const g = el("g", { transform: `translate(${x},${y})` });
       if (e.kind === "box") {
@@ -109,14 +136,15 @@ const Plot = (() => {
   function chart(spec) {
     const W = spec.width || 600, H = spec.height || 400;
     const entries = spec.legend || [];
-    const m = { l: 66, r: 20, t: spec.title ? 40 : 16, b: 56 };
+    const m = { l: 66, r: 20, t: 0, b: 56 };
+    m.t = titleHeight(spec.title, W - m.l - m.r);
     // Reserve rows for the legend below the axis label.
     let rows = 0;
     if (entries.length) {
       rows = 1;
       let x = 0;
       for (const e of entries) {
-        const w = 34 + 7.2 * e.label.length + 18;
+        const w = 34 + 6.8 * e.label.length + 18;
         if (x > 0 && x + w > W - m.l - m.r) { rows++; x = 0; }
         x += w;
       }
@@ -130,9 +158,7 @@ const Plot = (() => {
     const svg = el("svg", { xmlns: NS, width: W, height: H, viewBox: `0 0 ${W} ${H}`, role: "img",
       "font-family": FONT, "aria-label": spec.title || "chart" });
     svg.append(el("rect", { x: 0, y: 0, width: W, height: H, fill: "#ffffff" }));
-    if (spec.title) {
-      svg.append(el("text", { x: m.l, y: 22, "font-size": 15, "font-weight": 600, fill: INK }, spec.title));
-    }
+    title(svg, spec.title, m.l, W - m.l - m.r);
 
     // Grid, ticks and tick labels.
     const xt = spec.x.integer ? integerTicks(x0, x1) : ticks(x0, x1, spec.x.ticks || 6);
@@ -239,7 +265,8 @@ const Plot = (() => {
     const W = spec.width || 600;
     const chains = spec.chains;
     const n = Math.max(1, ...chains.map((c) => c.length));
-    const m = { l: 66, r: 20, t: spec.title ? 40 : 16 };
+    const m = { l: 66, r: 20, t: 0 };
+    m.t = titleHeight(spec.title, W - m.l - m.r);
     const rowH = 14, gap = 5;
     const ph = chains.length * (rowH + gap) - gap;
     const H = m.t + ph + 40 + 28;
@@ -248,7 +275,7 @@ const Plot = (() => {
     const svg = el("svg", { xmlns: NS, width: W, height: H, viewBox: `0 0 ${W} ${H}`, role: "img",
       "font-family": FONT, "aria-label": spec.title || "sample chains" });
     svg.append(el("rect", { x: 0, y: 0, width: W, height: H, fill: "#ffffff" }));
-    if (spec.title) svg.append(el("text", { x: m.l, y: 22, "font-size": 15, "font-weight": 600, fill: INK }, spec.title));
+    title(svg, spec.title, m.l, W - m.l - m.r);
     const g = el("g", { "font-size": 12, fill: MUTED });
     chains.forEach((chain, row) => {
       const y = m.t + row * (rowH + gap);
@@ -264,7 +291,8 @@ const Plot = (() => {
       }
     });
     const axisY = m.t + ph + 6;
-    for (const v of integerTicks(0, n).values.filter((v) => v % 10 === 0 || n <= 20)) {
+    const every = niceStep(n, 6);
+    for (let v = 0; v <= n; v += every) {
       g.append(el("text", { x: m.l + v * cell, y: axisY + 12, "text-anchor": "middle" }, String(v)));
     }
     g.append(el("text", { x: m.l + pw / 2, y: axisY + 28, "text-anchor": "middle", "font-size": 13, fill: INK },
