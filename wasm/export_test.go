@@ -1,0 +1,179 @@
+//go:build js && wasm
+
+package main
+
+// Run with
+//
+//	GOOS=js GOARCH=wasm go test -exec="$(go env GOROOT)/lib/wasm/go_js_wasm_exec" ./wasm/...
+//
+// The tests call the methods through syscall/js, as a page does.
+
+import (
+	"strings"
+	"syscall/js"
+	"testing"
+	"time"
+
+	"github.com/hack-pad/hackpadfs/mem"
+)
+
+// testAPI returns a copoly object whose storage is a fresh in-memory file system.
+func testAPI(t *testing.T) (js.Value, *mem.FS) {
+	t.Helper()
+	m, err := mem.NewFS()
+	if err != nil {
+		t.Fatal(err)
+	}
+	st := newStorage()
+	st.open = memOpener(m)
+	st.now = func() time.Time { return fixedNow }
+	return newAPI(st), m
+}
+
+// call calls method of api with the JS form of the Go arguments.
+func call(api js.Value, method string, args ...any) js.Value {
+	return api.Call(method, args...)
+}
+
+// jsEval evaluates a JS expression; the tests use it to build values Go cannot (getters, sparse
+// arrays, BigInt, typed arrays).
+func jsEval(expr string) js.Value {
+	return js.Global().Get("Function").New("return (" + expr + ");").Invoke()
+}
+
+func stringify(v js.Value) string {
+	if v.IsUndefined() {
+		return "undefined"
+	}
+	return js.Global().Get("JSON").Call("stringify", v).String()
+}
+
+// wantError checks that v is a CopolyError for field whose message contains text.
+func wantError(t *testing.T, v js.Value, field, text string) {
+	t.Helper()
+	if v.Type() != js.TypeObject || v.Get("error").Type() != js.TypeString {
+		t.Fatalf("got %s, want {error, field: %q}", stringify(v), field)
+	}
+	if got := v.Get("field").String(); got != field {
+		t.Errorf("field = %q, want %q (error %q)", got, field, v.Get("error").String())
+	}
+	if msg := v.Get("error").String(); !strings.Contains(msg, text) {
+		t.Errorf("error = %q, want it to contain %q", msg, text)
+	}
+}
+
+// wantNoError fails the test if v is a CopolyError.
+func wantNoError(t *testing.T, v js.Value) {
+	t.Helper()
+	if v.Type() != js.TypeObject {
+		t.Fatalf("got %s, want an object", stringify(v))
+	}
+	if e := v.Get("error"); !e.IsUndefined() {
+		t.Fatalf("got error %s (field %q)", e.String(), v.Get("field").String())
+	}
+}
+
+// await waits for a Promise and returns what it resolved to; a rejection or a Promise that has
+// not settled after 20 s fails the test (the guard only stops a hang; it measures nothing).
+func await(t *testing.T, p js.Value) js.Value {
+	t.Helper()
+	if !p.InstanceOf(js.Global().Get("Promise")) {
+		t.Fatalf("got %s, want a Promise", stringify(p))
+	}
+	resolved, rejected := make(chan js.Value, 1), make(chan js.Value, 1)
+	onResolve := js.FuncOf(func(_ js.Value, a []js.Value) any { resolved <- a[0]; return nil })
+	onReject := js.FuncOf(func(_ js.Value, a []js.Value) any { rejected <- a[0]; return nil })
+	defer onResolve.Release()
+	defer onReject.Release()
+	p.Call("then", onResolve, onReject)
+	select {
+	case v := <-resolved:
+		return v
+	case v := <-rejected:
+		t.Fatalf("Promise rejected with %s; the API promises never reject", stringify(v))
+	case <-time.After(20 * time.Second):
+		t.Fatal("Promise did not settle")
+	}
+	return js.Value{}
+}
+
+func TestArguments(t *testing.T) {
+	api, _ := testAPI(t)
+	bad := []struct {
+		name string
+		args []any
+		text string
+	}{
+		{"nothing", nil, "got nothing"},
+		{"undefined", []any{js.Undefined()}, "got nothing"},
+		{"null", []any{js.Null()}, "null"},
+		{"number", []any{3}, "the number 3"},
+		{"text", []any{"r1=0.5"}, "text"},
+		{"list", []any{[]any{0.5, 0.5}}, "a list"},
+		{"function", []any{jsEval("() => 1")}, "a function"},
+		{"two objects", []any{map[string]any{}, map[string]any{}}, "2 arguments"},
+	}
+	required := []string{"composition", "feedFor", "drift", "sequence", "chains", "checkProject", "exportProject", "importProject"}
+	for _, method := range required {
+		for _, tt := range bad {
+			t.Run(method+"/"+tt.name, func(t *testing.T) {
+				wantError(t, call(api, method, tt.args...), "arguments", tt.text)
+			})
+		}
+	}
+	for _, tt := range bad {
+		t.Run("saveProject/"+tt.name, func(t *testing.T) {
+			wantError(t, await(t, call(api, "saveProject", tt.args...)), "arguments", tt.text)
+		})
+	}
+	// Methods whose argument is optional accept nothing, undefined and an empty object.
+	for _, method := range []string{"library", "demoProject"} {
+		for _, args := range [][]any{nil, {js.Undefined()}, {map[string]any{}}} {
+			wantNoError(t, call(api, method, args...))
+		}
+		wantError(t, call(api, method, 7), "arguments", "the number 7")
+	}
+	wantNoError(t, await(t, call(api, "loadProject")))
+}
+
+func TestPanicIsRecovered(t *testing.T) {
+	api, _ := testAPI(t)
+
+	// Getters and Proxy traps that throw are read inside JS calls and reported by field; a
+	// throw during a plain syscall/js Get would break the Go stack beyond any recover.
+	trap := jsEval(`{get r1() { throw new Error("trap") }, r2: 1, f1: [0.5]}`)
+	wantError(t, call(api, "composition", trap), "r1", "cannot be read: JavaScript error: trap")
+	trapList := jsEval(`{r1: 1, r2: 1, f1: new Proxy([0.5], {get(t, k) { if (k === "0") throw new Error("index trap"); return Reflect.get(t, k) }})}`)
+	wantError(t, call(api, "composition", trapList), "f1", "index trap")
+	trapProject := jsEval(`{project: {format: "copoly-project", version: 1, get monomer1() { throw new Error("nested trap") }}}`)
+	wantError(t, call(api, "checkProject", trapProject), "project.monomer1", "nested trap")
+	wantError(t, call(api, "composition", jsEval(`new Proxy({}, {get() { throw new Error("proxy trap") }})`)), "r1", "proxy trap")
+
+	// A method that panics outright, through the same adapter.
+	boom := wrap("boom", argOptional, func(js.Value) (any, error) { panic("boom") })
+	defer boom.Release()
+	wantError(t, boom.Invoke(), "", "internal error in copoly.boom: boom")
+
+	// An asynchronous job that panics resolves its Promise with the error.
+	boomAsync := wrapAsync("boomAsync", argOptional, func(js.Value) (asyncJob, error) {
+		return func() (any, error) { panic("async boom") }, nil
+	})
+	defer boomAsync.Release()
+	wantError(t, await(t, boomAsync.Invoke()), "", "internal error in copoly.boomAsync: async boom")
+
+	// The module still answers.
+	r := call(api, "composition", map[string]any{"r1": 1, "r2": 1, "f1": []any{0.25}})
+	wantNoError(t, r)
+	// r1 = r2 = 1: F1 = f1 (Mayo–Lewis 1944 equation with r1 = r2 = 1).
+	if got := r.Get("F1").Index(0).Float(); got != 0.25 {
+		t.Errorf("composition after a panic: F1 = %v, want 0.25", got)
+	}
+}
+
+func TestUnsupportedJSValues(t *testing.T) {
+	api, _ := testAPI(t)
+	// A BigInt is a kind of value syscall/js cannot classify; it must give an error, not a panic.
+	wantError(t, call(api, "composition", jsEval(`{r1: 1n, r2: 1, f1: [0.5]}`)), "r1", "must be a number")
+	wantError(t, call(api, "composition", jsEval(`{r1: 1, r2: 1, f1: [0.5, 2n]}`)), "f1[1]", "must be a number")
+	wantError(t, call(api, "composition", jsEval(`{r1: Symbol("r"), r2: 1, f1: [0.5]}`)), "r1", "a symbol")
+}

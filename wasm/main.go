@@ -1,0 +1,60 @@
+//go:build js && wasm
+
+// Command wasm is the WebAssembly module of copoly: a thin bridge that exposes the copoly
+// package to JavaScript. Build it with
+//
+//	GOOS=js GOARCH=wasm go build -o dist/copoly.wasm ./wasm
+//
+// and load it with the wasm_exec.js of the same Go toolchain ($(go env GOROOT)/lib/wasm/).
+//
+// # JavaScript surface
+//
+// The module defines one global object, copoly, and then waits for calls. Its methods and types
+// are declared in site/copoly.d.ts, the contract between this module, the page and lab
+// scripts:
+//
+//	copoly.version                  string
+//	copoly.composition({r1, r2, f1: number[]})
+//	copoly.feedFor({r1, r2, targetF1})
+//	copoly.drift({r1, r2, f10, conversion: number[], basis?, molarMass1?, molarMass2?, tolerance?, bins?})
+//	copoly.sequence({r1, r2, f1, conversion?, maxLength?})
+//	copoly.chains({r1, r2, f10, count?, length?, seed?})
+//	copoly.library()
+//	copoly.demoProject()
+//	copoly.checkProject({project})
+//	copoly.exportProject({project})  → {json, filename}
+//	copoly.importProject({json})
+//	copoly.loadProject()             → Promise
+//	copoly.saveProject({project})    → Promise
+//
+// Every method takes one plain object (optional for library, demoProject and loadProject) and
+// returns one plain object. Bad input never throws: the result is then {error, field}, where
+// field names the input at fault ("r1", "f1[3]", "project.monomer1.molarMass", "arguments").
+// A Go panic inside a method is recovered and reported the same way with an "internal error"
+// message, so the module keeps answering. loadProject and saveProject return Promises that
+// always resolve, never reject.
+//
+// # Storage
+//
+// Projects are kept in the IndexedDB database "copoly" through hackpadfs (see package
+// copoly/copoly/project for the files and the two-copy rule). The database is opened on the
+// first loadProject or saveProject, on a goroutine, never at start-up: a page without IndexedDB
+// (Node, some private modes) loads at full speed and gets storage "unavailable".
+//
+// # Files
+//
+// main.go registers the object; export.go holds the wrapper (argument check, recover, error
+// object, Promise); dto.go the JS-facing types and the reading of arguments; api.go the
+// methods; storage.go the IndexedDB wiring. The science is all in package copoly.
+package main
+
+import "syscall/js"
+
+// version is the copoly version reported to JavaScript; a release build may set it with
+// -ldflags "-X main.version=…".
+var version = "0.1.0"
+
+func main() {
+	js.Global().Set("copoly", newAPI(newStorage()))
+	select {}
+}
