@@ -70,7 +70,7 @@ func TestBenchTableRunsNamesCells(t *testing.T) {
 
 func TestBenchTableWarningsKeepRowNumbers(t *testing.T) {
 	tab := BenchTable{ConversionKind: ConversionMolar, Rows: []BenchRow{
-		{Cells: map[string]string{ColF10: "x", ColConversion: "0.1", ColF1: "0.5"}}, // bad: not converted
+		{Cells: map[string]string{ColF10: "x", ColConversion: "0.1", ColF1: "0.5"}},   // bad: not converted
 		{Cells: map[string]string{ColF10: "0.2", ColConversion: "0.7", ColF1: "0.3"}}, // 0.3·0.7 = 0.21 > 0.2: more M1 than charged
 		{Cells: map[string]string{ColF10: "0.5", ColConversion: "0.1", ColF1: "0.5"}},
 	}}
