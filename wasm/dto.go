@@ -21,16 +21,13 @@ import (
 // (nil when absent), a field tagged copoly:"optional" may be absent and then keeps its zero
 // value, every other field is required.
 
-// errWrongType is wrapped by the errors for a JS value of the wrong type.
-var errWrongType = errors.New("copoly: value has the wrong type")
-
-// ratiosIn is the r1, r2 pair every science method takes.
-type ratiosIn struct {
-	R1 float64 `js:"r1"`
-	R2 float64 `js:"r2"`
-}
-
-func (r ratiosIn) model() copoly.Terminal { return copoly.Terminal{R1: r.R1, R2: r.R2} }
+// Sentinels wrapped by the errors about the JS form of an input.
+var (
+	// errWrongType reports a JS value of the wrong type, or one that cannot be read.
+	errWrongType = errors.New("copoly: value has the wrong type")
+	// errMissing reports a required input that is absent, null or undefined.
+	errMissing = errors.New("copoly: value missing")
+)
 
 type compositionIn struct {
 	R1 float64   `js:"r1"`
@@ -333,7 +330,7 @@ func snapshot(v js.Value, t reflect.Type, prefix string) (js.Value, error) {
 			if optional {
 				continue
 			}
-			return js.Value{}, &copoly.FieldError{Field: field, Reason: "is missing", Err: errWrongType}
+			return js.Value{}, &copoly.FieldError{Field: field, Reason: "is missing", Err: errMissing}
 		}
 		cv, err := copyValue(fv, ft, field)
 		if err != nil {

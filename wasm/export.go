@@ -121,7 +121,7 @@ func oneArgument(args []js.Value, policy argPolicy) (js.Value, error) {
 		if policy == argOptional {
 			return object.New(), nil
 		}
-		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: "expected one object with the inputs, got nothing", Err: errWrongType}
+		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: "expected one object with the inputs, got nothing", Err: errMissing}
 	}
 	a := args[0]
 	if t, ok := typeOf(a); !ok || t != js.TypeObject || isArray(a) {
