@@ -39,6 +39,10 @@ test-wasm:
 
 ## test-fixtures: re-run the scipy scripts that made testdata/ fixtures and compare with the committed files
 test-fixtures:
+	@if [ -x "$(PY)" ]; then \
+		$(PY) testdata/table_python.py --check && echo "testdata/table_python.*: agree with Python's csv module"; \
+	elif [ -n "$$CI" ]; then echo "FAIL: $(PY) is required in CI"; exit 1; \
+	else echo "*** SKIPPED fixture re-check: no $(PY) ***"; fi
 	@if [ -x "$(PY)" ] && $(PY) -c 'import scipy' 2>/dev/null; then \
 		$(PY) testdata/skeist_scipy.py --check; \
 	elif [ -n "$$CI" ]; then echo "FAIL: $(PY) with scipy is required in CI (apt-get install -y python3-scipy)"; exit 1; \
