@@ -88,6 +88,96 @@ export interface ChainsResult {
 export interface Monomer { name: string; molarMass: number; source: string }
 export interface RatioPair { monomer1: string; monomer2: string; r1: number; r2: number; temperature: string; source: string }
 
+// ---- Bench data and reactivity-ratio estimation ----
+
+// The bench-data grid as typed: one entry form for the whole table, and per row the TEXT of each
+// cell (decimal comma or point, "35 %" allowed), so nothing typed is ever lost. Cell keys by form:
+//   feed:        "f10" (fraction) | "mass1","mass2" (g) | "moles1","moles2" (mol)
+//   conversion:  "conversion" (molar X or mass w, as a fraction) — absent when conversionKind "none"
+//   composition: "F1" | "massFraction1" | "integral1","protons1","integral2","protons2" | "elementPercent"
+//   uncertainties (optional, converted units): "sF", "sX", "sf"
+export interface BenchTable {
+  feedKind: "fraction" | "mass" | "moles" | "";
+  conversionKind: "none" | "molar" | "mass" | "";
+  compositionKind: "fraction" | "massFraction" | "nmr" | "element" | "";
+  element: string;        // e.g. "N" (compositionKind "element")
+  carrier: number;        // 1 or 2: the monomer that carries the element
+  elementCount: number;   // atoms of the element per unit of the carrier
+  rows: { label: string; cells: { [key: string]: string } }[];
+}
+
+// One run in mole fractions and molar conversion (conversion 0 or absent = low conversion).
+export interface Run { f10: number; conversion?: number; F1: number; sF?: number; sX?: number; sf?: number }
+
+export interface RunWarning { row: number; field: string; message: string }   // row −1: the whole table
+
+export interface BenchResult {
+  columns: string[];                 // cell keys this table's forms use, in display order
+  runs: (Run | null)[];              // one per row; null for a blank or bad row
+  errors: (CopolyError | null)[];    // one per row; field names the cell, e.g. "runs[3].f10"
+  warnings: RunWarning[];            // mass balance, duplicates, too few feeds, …
+}
+
+export interface LinearFit {
+  r1: number; r2: number;
+  x: number[]; y: number[];          // the transformed points in the method's own axes
+  slope: number; intercept: number;
+  alpha?: number;                    // Kelen–Tüdős α
+  linear: true;                      // a linearised (historical) method: never the reported result
+}
+
+export interface Region {
+  level: number;                     // e.g. 0.95
+  kind: "F" | "chi2" | "ellipse";    // F: errors unknown; chi2: errors known; ellipse: linearised (EVM)
+  critical: number;                  // value of the objective on the boundary
+  boundary: [number, number][];      // closed polygon of (r1, r2)
+  open: boolean;                     // true when the data do not bound the region
+  r1Min: number; r1Max: number; r2Min: number; r2Max: number;
+}
+
+export interface NonlinearFit {
+  r1: number; r2: number; se1: number; se2: number; corr: number;
+  ssr: number;                       // Σe² (unweighted) or χ² (weighted)
+  weighted: boolean; n: number; dof: number;
+  reducedChi2?: number; pValue?: number;   // when weighted
+  atBound: "" | "r1" | "r2";
+  residuals: number[];               // F1,obs − F1cum,model per run
+  sigma?: number[];                  // effective standard uncertainty per run (weighted)
+  jcr: [number, number][];           // = region.boundary, for convenience
+  region: Region;
+}
+
+export interface EVMFit {
+  r1: number; r2: number; se1: number; se2: number; corr: number;
+  phi: number; reducedChi2: number; pValue: number;
+  feed: number[]; conversion: number[]; composition: number[];  // fitted true values per run
+  jcr: [number, number][]; region: Region;
+}
+
+export interface FitResult {
+  methods: {
+    "fineman-ross"?: LinearFit;
+    "inverted-fineman-ross"?: LinearFit;
+    "kelen-tudos"?: LinearFit;
+    "extended-kelen-tudos"?: LinearFit;
+    "mayo-lewis-integrated"?: { r1: number; r2: number; curves: { r1: number[]; r2: number[] }[] };
+    "nonlinear"?: NonlinearFit;
+    "evm"?: EVMFit;
+  };
+  recommended: "nonlinear" | "evm";
+  swappedFinemanRoss?: { r1: number; r2: number };   // Fineman–Ross with M1/M2 swapped (label dependence)
+  trends: { feed: { slope: number; pValue: number; flagged: boolean }; conversion: { slope: number; pValue: number; flagged: boolean } };
+  warnings: { method: string; row: number; field: string; message: string }[];  // a method absent from `methods` has its reason here
+}
+
+export interface NextRunsResult {
+  tidwellMortimer: [number, number];   // approximate feeds 2/(2+r1), r2/(2+r2)
+  dOptimal: [number, number];          // exact D-optimal low-conversion pair
+  middle: number;                      // an extra middle feed to expose misfit
+  next: { f10: number; conversion: number }[];   // best two runs given the runs made
+  shrink: number;                      // factor on the region's area (0 when no runs were given)
+}
+
 export interface Project {
   format: "copoly-project";     // our own schema name
   version: 1;
@@ -103,6 +193,9 @@ export interface Project {
   notes: string;
   invented?: boolean;           // true for the built-in demo scenario
   savedAt?: string;             // RFC 3339, set on save
+  bench?: BenchTable;           // the bench-data grid, as typed
+  level?: number;               // confidence level of the joint region (default 0.95)
+  jcr?: [number, number][];     // the region of the ratios in use, when they came from a fit ("use these ratios")
 }
 
 export interface StorageLoad {
@@ -130,6 +223,11 @@ export interface Copoly {
   checkProject(a: { project: Project }): { project: Project } | CopolyError;
   exportProject(a: { project: Project }): { json: string; filename: string } | CopolyError;
   importProject(a: { json: string }): { project: Project } | CopolyError;
+  benchRuns(a: { bench: BenchTable; molarMass1?: number; molarMass2?: number }): BenchResult | CopolyError;
+  pasteBench(a: { bench: BenchTable; text: string }): { bench: BenchTable } | CopolyError;  // rows appended; header names map columns
+  fit(a: { runs: Run[]; level?: number }): FitResult | CopolyError;
+  nextRuns(a: { r1: number; r2: number; runs?: Run[]; conversions?: number[] }): NextRunsResult | CopolyError;
+  qe(a: { monomer1: string; monomer2: string }): { r1: number; r2: number; q1: number; e1: number; q2: number; e2: number; source1: string; source2: string } | CopolyError;  // screening estimate
   loadProject(a?: {}): Promise<StorageLoad | CopolyError>;
   saveProject(a: { project: Project }): Promise<{ saved: true; storage: "indexeddb"; savedAt: string } | CopolyError>;
 }
