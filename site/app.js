@@ -328,8 +328,13 @@
     setText("#storage-status", text);
   }
 
+  // updateBadge shows the demo badge for the invented demo and refreshes the print copies of
+  // the long text fields, which a printed input box would cut off.
   function updateBadge() {
-    $("#demo-badge").hidden = !(state.project && state.project.invented);
+    const p = state.project;
+    $("#demo-badge").hidden = !(p && p.invented);
+    setText("#project-name-print", p ? p.name : "");
+    setText("#ratio-source-print", p ? p.ratioSource : "");
   }
 
   // replaceProject puts p on screen (after the caller validated it), keeping the old project for
@@ -788,6 +793,7 @@
     fillPickers();
 
     const loaded = await callAsync("loadProject", {});
+    performance.mark("copoly:loaded");
     let project = null;
     if (isError(loaded)) {
       state.storage = "unavailable";
@@ -796,7 +802,10 @@
     } else {
       state.storage = loaded.storage;
       project = loaded.project;
-      if (loaded.message) {
+      if (loaded.message && loaded.storage === "unavailable") {
+        // #storage-status already says so; keep the engine's reason at hand without repeating it.
+        $("#storage-status").title = loaded.message;
+      } else if (loaded.message) {
         setText("#storage-message", loaded.message);
         $("#storage-message").hidden = false;
       }

@@ -4,7 +4,6 @@
 // Usage (from the repository root; `make site` runs the first form):
 //
 //	go run ./site/build -wasm dist/copoly.wasm -wasmexec dist/wasm_exec.js -o dist/copoly.html
-//	go run ./site/build -wasm dist/copoly.wasm -wasmexec dist/wasm_exec.js -o dist/copoly.html -hello dist/hello.html
 //
 // The page template is site/index.html. Every `<link rel="stylesheet" href="NAME">` becomes an
 // inline <style> and every `<script src="NAME"></script>` an inline <script>, both read from the
@@ -20,10 +19,8 @@
 // `<!-- copoly:csp -->` marker the tool writes a Content-Security-Policy meta tag that allows
 // exactly the inline scripts and styles it wrote, by SHA-256 hash, and nothing from anywhere else.
 //
-// With -hello, the tool also compiles a bare Go program that prints one line and exits, with the
-// same go command (-go) for GOOS=js GOARCH=wasm, and writes the very same page around that module,
-// so the load time of the real page can be compared with the smallest possible Go module. The
-// page bytes differ only in the embedded module.
+// The page is the same for any module: site/bench.sh wraps a bare Go module (site/bench/hello)
+// with this tool to compare load times, and the two pages differ only in the data block.
 package main
 
 import (
@@ -36,8 +33,6 @@ import (
 	"fmt"
 	"io/fs"
 	"os"
-	"os/exec"
-	"path/filepath"
 	"regexp"
 	"strings"
 )
@@ -66,29 +61,21 @@ var (
 	inlineAttr = regexp.MustCompile(`(?i)\s(style|on[a-z]+)\s*=`)
 )
 
-// helloSource is the bare module for load-time comparison: it starts, prints and exits.
-const helloSource = `package main
-
-func main() { println("hello") }
-`
-
 func main() {
 	var (
 		src      = flag.String("src", "site", "directory holding index.html and the files it names")
 		wasmPath = flag.String("wasm", "dist/copoly.wasm", "the WebAssembly module to embed (read only)")
 		execPath = flag.String("wasmexec", "dist/wasm_exec.js", "wasm_exec.js from the toolchain that built -wasm")
 		out      = flag.String("o", "dist/copoly.html", "the page to write")
-		hello    = flag.String("hello", "", "if set, also write the same page around a bare Go hello module to this path")
-		goCmd    = flag.String("go", "go", "go command used to compile the -hello module")
 	)
 	flag.Parse()
-	if err := run(*src, *wasmPath, *execPath, *out, *hello, *goCmd); err != nil {
+	if err := run(*src, *wasmPath, *execPath, *out); err != nil {
 		fmt.Fprintln(os.Stderr, "site/build:", err)
 		os.Exit(1)
 	}
 }
 
-func run(src, wasmPath, execPath, out, hello, goCmd string) error {
+func run(src, wasmPath, execPath, out string) error {
 	module, err := os.ReadFile(wasmPath)
 	if err != nil {
 		return err
@@ -105,43 +92,7 @@ func run(src, wasmPath, execPath, out, hello, goCmd string) error {
 		return err
 	}
 	fmt.Printf("wrote %s: %d bytes (module %d bytes raw)\n", out, len(page), len(module))
-	if hello == "" {
-		return nil
-	}
-	helloModule, err := compileHello(goCmd)
-	if err != nil {
-		return err
-	}
-	page, err = Build(os.DirFS(src), wasmExec, helloModule)
-	if err != nil {
-		return err
-	}
-	if err := os.WriteFile(hello, page, 0o644); err != nil {
-		return err
-	}
-	fmt.Printf("wrote %s: %d bytes (hello module %d bytes raw)\n", hello, len(page), len(helloModule))
 	return nil
-}
-
-// compileHello builds helloSource for js/wasm with the same flags as `make wasm`.
-func compileHello(goCmd string) ([]byte, error) {
-	dir, err := os.MkdirTemp("", "copoly-hello-")
-	if err != nil {
-		return nil, err
-	}
-	defer os.RemoveAll(dir)
-	srcFile := filepath.Join(dir, "hello.go")
-	if err := os.WriteFile(srcFile, []byte(helloSource), 0o644); err != nil {
-		return nil, err
-	}
-	outFile := filepath.Join(dir, "hello.wasm")
-	cmd := exec.Command(goCmd, "build", "-trimpath", "-ldflags=-s -w", "-o", outFile, srcFile)
-	cmd.Dir = dir
-	cmd.Env = append(os.Environ(), "GOOS=js", "GOARCH=wasm", "GO111MODULE=off", "GOFLAGS=")
-	if msg, err := cmd.CombinedOutput(); err != nil {
-		return nil, fmt.Errorf("compiling the hello module: %v\n%s", err, msg)
-	}
-	return os.ReadFile(outFile)
 }
 
 // Build returns the offline page: the template index.html from site with its stylesheets and

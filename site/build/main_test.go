@@ -231,17 +231,3 @@ func TestBuildRejects(t *testing.T) {
 		})
 	}
 }
-
-// TestCompileHello builds the bare module used for the load-time comparison.
-func TestCompileHello(t *testing.T) {
-	if testing.Short() {
-		t.Skip("compiles a js/wasm program")
-	}
-	b, err := compileHello("go")
-	if err != nil {
-		t.Fatal(err)
-	}
-	if !bytes.HasPrefix(b, []byte("\x00asm")) {
-		t.Errorf("hello module starts %q, want the \\0asm header", b[:min(8, len(b))])
-	}
-}
