@@ -3,8 +3,6 @@ package copoly
 import (
 	"fmt"
 	"math"
-
-	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // Method names used in [Estimates] and in the JavaScript API.
@@ -200,7 +198,7 @@ func trend(v, res []float64) Trend {
 	se := math.Sqrt(sse / dof / sxx)
 	t := Trend{Slope: slope, PValue: 1}
 	if se > 0 {
-		t.PValue = 2 * (1 - distuv.StudentsT{Mu: 0, Sigma: 1, Nu: dof}.CDF(math.Abs(slope/se)))
+		t.PValue = studentTTwoSided(slope/se, dof)
 	} else if slope != 0 {
 		t.PValue = 0
 	}

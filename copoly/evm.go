@@ -3,8 +3,6 @@ package copoly
 import (
 	"math"
 	"strconv"
-
-	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // EVM is the result of the error-in-variables fit.
@@ -119,14 +117,14 @@ func FitEVM(runs []Run, r1, r2, level float64) (*EVM, error) {
 	}
 	dof := n - 2
 	res.ReducedChi2 = phi / float64(dof)
-	res.PValue = 1 - distuv.ChiSquared{K: float64(dof)}.CDF(phi)
+	res.PValue = chi2Survival(phi, float64(dof))
 	det := c11*c22 - c12*c12
 	reg := Region{Level: level, Kind: "ellipse"}
 	if det > 0 {
 		v11, v12, v22 := c22/det, -c12/det, c11/det
 		res.SE1, res.SE2 = math.Sqrt(v11), math.Sqrt(v22)
 		res.Corr = v12 / (res.SE1 * res.SE2)
-		q := distuv.ChiSquared{K: 2}.Quantile(level)
+		q := chi2Quantile(level, 2)
 		reg.Critical = q
 		// Ellipse Δrᵀ V⁻¹ Δr = q: Δr = √q L u with L Lᵀ = V.
 		l11 := math.Sqrt(v11)

@@ -3,8 +3,6 @@ package copoly
 import (
 	"fmt"
 	"math"
-
-	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // Cumulative returns the cumulative copolymer composition F̄1 of a batch started from feed f10
@@ -365,16 +363,16 @@ func FitNonlinear(runs []Run, opt NonlinearOptions) (*Nonlinear, error) {
 	}
 	if weighted && res.DoF > 0 {
 		res.ReducedChi2 = s / float64(res.DoF)
-		res.PValue = 1 - distuv.ChiSquared{K: float64(res.DoF)}.CDF(s)
+		res.PValue = chi2Survival(s, float64(res.DoF))
 	}
 	// Joint confidence region.
 	reg := Region{Level: level}
 	if weighted {
 		reg.Kind = "chi2"
-		reg.Critical = s + distuv.ChiSquared{K: 2}.Quantile(level)
+		reg.Critical = s + chi2Quantile(level, 2)
 	} else {
 		reg.Kind = "F"
-		fq := distuv.F{D1: 2, D2: float64(res.DoF)}.Quantile(level)
+		fq := fQuantile(level, 2, float64(res.DoF))
 		reg.Critical = s * (1 + 2/float64(res.DoF)*fq)
 	}
 	res.Region = traceRegion(p.ssr, r1, r2, s, reg, c11, c12, c22, dirs)

@@ -64,11 +64,20 @@
     }
     performance.mark("copoly:start");
     const gz = base64Bytes(block.textContent.trim());
+    block.textContent = ""; // the 1.7 MB of text is no longer needed
     const stream = new Blob([gz]).stream().pipeThrough(new DecompressionStream("gzip"));
-    const bytes = await new Response(stream).arrayBuffer();
     performance.mark("copoly:decoded");
     const go = new Go();
-    const { instance } = await WebAssembly.instantiate(bytes, go.importObject);
+    let instance;
+    if (typeof WebAssembly.instantiateStreaming === "function") {
+      // Compile while the module is still being decompressed. A Response built from a stream
+      // is not a network fetch; the content type is what instantiateStreaming requires.
+      const res = new Response(stream, { headers: { "Content-Type": "application/wasm" } });
+      ({ instance } = await WebAssembly.instantiateStreaming(res, go.importObject));
+    } else {
+      const bytes = await new Response(stream).arrayBuffer();
+      ({ instance } = await WebAssembly.instantiate(bytes, go.importObject));
+    }
     performance.mark("copoly:instantiated");
     let exited = false;
     go.run(instance).then(onExit, onExit);
@@ -787,12 +796,14 @@
   async function start() {
     wire();
     engine = await startModule();
+    // Storage opens on a goroutine: ask for the project first and fill the pickers meanwhile.
+    const loading = callAsync("loadProject", {});
     setText("#engine-version", engine.version ? `version ${engine.version}` : "");
     const lib = call("library", {});
     if (!isError(lib)) state.library = { monomers: lib.monomers || [], pairs: lib.pairs || [] };
     fillPickers();
 
-    const loaded = await callAsync("loadProject", {});
+    const loaded = await loading;
     performance.mark("copoly:loaded");
     let project = null;
     if (isError(loaded)) {

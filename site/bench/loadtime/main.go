@@ -66,7 +66,7 @@ const (
 	})()`
 	helloReadyExpr = `typeof window.copolyHelloReadyAt === "number" ? window.copolyHelloReadyAt : null`
 	// marksExpr reads the page's own start-up marks (site/app.js); absent marks are -1.
-	marksExpr = `["copoly:start", "copoly:decoded", "copoly:instantiated", "copoly:running"].map(n => {
+	marksExpr = `["copoly:start", "copoly:decoded", "copoly:instantiated", "copoly:running", "copoly:loaded"].map(n => {
 		const m = performance.getEntriesByName(n, "mark")[0];
 		return m ? m.startTime : -1;
 	})`
@@ -74,8 +74,8 @@ const (
 
 // sample is one load: the ready time and the page's marks, in ms since navigation start.
 type sample struct {
-	ready                                 float64
-	start, decoded, instantiated, running float64
+	ready                                         float64
+	start, decoded, instantiated, running, loaded float64
 }
 
 type target struct {
@@ -167,19 +167,20 @@ func run(pagePath, helloPath string, n int, budget float64, chromium string, tim
 	fmt.Fprintf(w, "Load time from navigation start to the ready signal, %s headless, no GPU.\n", version.Product)
 	fmt.Fprintf(w, "%d loads of each page, alternating, after one warm-up each; a new tab per load.\n\n", n)
 	fmt.Fprintf(w, "%-22s %9s | %-25s | %s\n", "", "", "ready signal, ms", "medians of the page's marks, ms")
-	fmt.Fprintf(w, "%-22s %9s | %7s %8s %8s | %7s %8s %13s %8s\n", "page", "bytes", "median", "min", "max", "start", "decoded", "instantiated", "running")
+	fmt.Fprintf(w, "%-22s %9s | %7s %8s %8s | %7s %8s %13s %8s %8s\n", "page", "bytes", "median", "min", "max", "start", "decoded", "instantiated", "running", "loaded")
 	for _, t := range []*target{copoly, hello} {
 		fi, err := os.Stat(t.path)
 		if err != nil {
 			return err
 		}
 		ready := column(t.runs, func(s sample) float64 { return s.ready })
-		fmt.Fprintf(w, "%-22s %9d | %7.1f %8.1f %8.1f | %7s %8s %13s %8s\n", t.path, fi.Size(),
+		fmt.Fprintf(w, "%-22s %9d | %7.1f %8.1f %8.1f | %7s %8s %13s %8s %8s\n", t.path, fi.Size(),
 			median(ready), slices.Min(ready), slices.Max(ready),
 			markMedian(t.runs, func(s sample) float64 { return s.start }),
 			markMedian(t.runs, func(s sample) float64 { return s.decoded }),
 			markMedian(t.runs, func(s sample) float64 { return s.instantiated }),
-			markMedian(t.runs, func(s sample) float64 { return s.running }))
+			markMedian(t.runs, func(s sample) float64 { return s.running }),
+			markMedian(t.runs, func(s sample) float64 { return s.loaded }))
 	}
 	ratio := median(column(copoly.runs, func(s sample) float64 { return s.ready })) /
 		median(column(hello.runs, func(s sample) float64 { return s.ready }))
@@ -190,7 +191,7 @@ func run(pagePath, helloPath string, n int, budget float64, chromium string, tim
 	fmt.Fprintf(w, "\nratio of medians copoly/hello: %.2f; budget %.2fx: %s\n", ratio, budget, verdict)
 	fmt.Fprintln(w, "hello is the same page around a bare Go module; its ready signal is the start of its main.")
 	fmt.Fprintln(w, "copoly's is window.copolyReady: module running, project loaded, first results drawn.")
-	fmt.Fprintln(w, "Marks (site/app.js): start = decoding begins, decoded = module unzipped, instantiated, running = window.copoly registered.")
+	fmt.Fprintln(w, "Marks (site/app.js): start = decoding begins, decoded = module unzipped, instantiated, running = window.copoly registered, loaded = project read from storage.")
 	return nil
 }
 
@@ -242,10 +243,10 @@ func load(browserCtx context.Context, t *target, timeout time.Duration) (sample,
 	if err != nil {
 		return sample{}, err
 	}
-	if len(marks) != 4 {
+	if len(marks) != 5 {
 		return sample{}, fmt.Errorf("performance marks: got %v", marks)
 	}
-	s.start, s.decoded, s.instantiated, s.running = marks[0], marks[1], marks[2], marks[3]
+	s.start, s.decoded, s.instantiated, s.running, s.loaded = marks[0], marks[1], marks[2], marks[3], marks[4]
 	return s, nil
 }
 
