@@ -79,3 +79,27 @@ func BenchmarkSequence(b *testing.B) {
 		}
 	})
 }
+
+var sinkE *Estimates
+
+// BenchmarkEstimate runs every estimation method with a 95 % region on 20 simulated runs (5 feeds
+// × 4 conversions), without and with uncertainties (the latter adds error-in-variables).
+func BenchmarkEstimate(b *testing.B) {
+	runs := simulatedRuns(Terminal{0.52, 0.46}, 0.01, 21)
+	b.Run("20-runs", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			sinkE, _ = Estimate(runs, 0.95)
+		}
+	})
+	weighted := append([]Run(nil), runs...)
+	for i := range weighted {
+		weighted[i].SF, weighted[i].SX, weighted[i].Sf = 0.01, 0.005, 0.002
+	}
+	b.Run("20-runs-evm", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			sinkE, _ = Estimate(weighted, 0.95)
+		}
+	})
+}
