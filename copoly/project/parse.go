@@ -73,6 +73,24 @@ func Parse(data []byte) (Project, error) {
 		}
 	}
 
+	// encoding/json fills a short JSON array into a [2]float64 with zeros and drops the extra
+	// elements of a long one; a JCR point must be exactly a pair. (encoding/json also matches
+	// keys regardless of case, hence EqualFold.)
+	for key, raw := range head {
+		if !strings.EqualFold(key, "jcr") || isNull(raw) {
+			continue
+		}
+		var points []json.RawMessage
+		if json.Unmarshal(raw, &points) == nil {
+			for i, pt := range points {
+				var xy []json.RawMessage
+				if json.Unmarshal(pt, &xy) == nil && len(xy) != 2 {
+					return Project{}, &copoly.FieldError{Field: fmt.Sprintf("project.jcr[%d]", i), Reason: fmt.Sprintf("must be a pair [r1, r2], not a list of %d values", len(xy)), Err: ErrWrongType}
+				}
+			}
+		}
+	}
+
 	var p Project
 	if err := json.Unmarshal(data, &p); err != nil {
 		var typeErr *json.UnmarshalTypeError
@@ -85,6 +103,9 @@ func Parse(data []byte) (Project, error) {
 		}
 		return Project{}, notProject("the file is not valid JSON (" + err.Error() + ")")
 	}
+	if len(p.JCR) == 0 {
+		p.JCR = nil // "jcr": [] is no region, as Marshal writes it (by leaving the key out)
+	}
 	if err := p.Validate(); err != nil {
 		return Project{}, err
 	}
@@ -92,7 +113,9 @@ func Parse(data []byte) (Project, error) {
 }
 
 // Marshal validates p and returns it as an indented project file ending in a newline, ready to
-// save or export. Parse(Marshal(p)) gives p back.
+// save or export. Parse(Marshal(p)) gives p back. A project whose file would exceed
+// MaxFileBytes (a full bench grid of long cells with long notes) gives an error with field
+// "project" wrapping ErrTooLong rather than a file Parse would refuse.
 func Marshal(p Project) ([]byte, error) {
 	if err := p.Validate(); err != nil {
 		return nil, err
@@ -103,6 +126,9 @@ func Marshal(p Project) ([]byte, error) {
 	enc.SetIndent("", "  ")
 	if err := enc.Encode(p); err != nil {
 		return nil, fmt.Errorf("project: encoding %q: %w", p.Name, err)
+	}
+	if buf.Len() > MaxFileBytes {
+		return nil, &copoly.FieldError{Field: "project", Reason: fmt.Sprintf("the project file would take %d bytes, more than the %d a project can have; shorten the notes or the bench data", buf.Len(), MaxFileBytes), Err: ErrTooLong}
 	}
 	return buf.Bytes(), nil
 }
@@ -164,6 +190,8 @@ func kindName(t reflect.Type) string {
 		return "true or false"
 	case reflect.Struct, reflect.Map:
 		return "an object"
+	case reflect.Slice, reflect.Array:
+		return "a list"
 	default:
 		return "a " + t.String()
 	}

@@ -22,6 +22,16 @@ func TestParseRoundTrip(t *testing.T) {
 	noMasses := Demo()
 	noMasses.Monomer1.MolarMass, noMasses.Monomer2.MolarMass = 0, 0
 	noMasses.Invented = false
+	noBench := Demo()
+	noBench.Bench = nil
+	fitted := Demo()
+	fitted.Level = 0.9
+	fitted.JCR = [][2]float64{{0.71, 0.15}, {0.8, 0.136}, {0.895, 0.16}, {0.8, 0.185}}
+	fitted.Bench.Rows[1].Cells["F1"] = "0,418 (re-run?)"
+	fitted.Bench.Rows[2].Cells = nil
+	fitted.Bench.Rows = append(fitted.Bench.Rows, BenchRow{Label: `quote " and tab 	`, Cells: map[string]string{"sX": "", "integral1": "1e3"}})
+	emptyBench := Demo()
+	emptyBench.Bench = &Bench{}
 	tests := []struct {
 		name string
 		p    Project
@@ -29,6 +39,9 @@ func TestParseRoundTrip(t *testing.T) {
 		{"demo", Demo()},
 		{"saved", saved},
 		{"no molar masses", noMasses},
+		{"no bench", noBench},
+		{"fitted, odd cells", fitted},
+		{"empty bench", emptyBench},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -123,6 +136,21 @@ func TestParseErrors(t *testing.T) {
 		{name: "f10 zero", data: replace(`"f10":0.3`, `"f10":0`), field: "project.f10", err: copoly.ErrOutOfRange},
 		{name: "molar mass negative", data: replace(`"molarMass":0}`, `"molarMass":-5}`), field: "project.monomer1.molarMass", err: copoly.ErrOutOfRange},
 		{name: "conversion above one", data: replace(`"conversion":0.8`, `"conversion":80`), field: "project.conversion", err: copoly.ErrOutOfRange},
+
+		// Optional keys: bench, level, jcr.
+		{name: "bench a list", data: replace(`"r1":0.5`, `"bench":[],"r1":0.5`), field: "project.bench", err: ErrWrongType, text: "object"},
+		{name: "bench carrier fractional", data: replace(`"r1":0.5`, `"bench":{"carrier":1.5,"rows":[]},"r1":0.5`), field: "project.bench.carrier", err: ErrWrongType, text: "whole number"},
+		{name: "bench cell a number", data: replace(`"r1":0.5`, `"bench":{"rows":[{"label":"a","cells":{"f10":0.5}}]},"r1":0.5`), field: "project.bench.rows.cells", err: ErrWrongType, text: "text"},
+		{name: "bench kind unknown", data: replace(`"r1":0.5`, `"bench":{"feedKind":"litres","rows":[]},"r1":0.5`), field: "project.bench.feedKind", err: ErrNotAllowed, text: "litres"},
+		{name: "bench cell key unknown", data: replace(`"r1":0.5`, `"bench":{"rows":[{"label":"a","cells":{"f10":"0.5"}},{"label":"b","cells":{"colour":"red"}}]},"r1":0.5`), field: "project.bench.rows[1].cells", err: ErrNotAllowed, text: "colour"},
+		{name: "level text", data: replace(`"r1":0.5`, `"level":"95%","r1":0.5`), field: "project.level", err: ErrWrongType},
+		{name: "level percent", data: replace(`"r1":0.5`, `"level":95,"r1":0.5`), field: "project.level", err: copoly.ErrOutOfRange},
+		{name: "jcr a number", data: replace(`"r1":0.5`, `"jcr":5,"r1":0.5`), field: "project.jcr", err: ErrWrongType, text: "a list"},
+		{name: "jcr point short", data: replace(`"r1":0.5`, `"jcr":[[0.5,0.2],[0.5]],"r1":0.5`), field: "project.jcr[1]", err: ErrWrongType, text: "pair"},
+		{name: "jcr point long", data: replace(`"r1":0.5`, `"jcr":[[0.5,0.2,0.1]],"r1":0.5`), field: "project.jcr[0]", err: ErrWrongType, text: "pair"},
+		{name: "jcr in capitals, point short", data: replace(`"r1":0.5`, `"JCR":[[0.5]],"r1":0.5`), field: "project.jcr[0]", err: ErrWrongType, text: "pair"},
+		{name: "jcr point text", data: replace(`"r1":0.5`, `"jcr":[["0.5",0.2]],"r1":0.5`), field: "project.jcr", err: ErrWrongType, text: "number"},
+		{name: "jcr point negative", data: replace(`"r1":0.5`, `"jcr":[[0.5,0.2],[-0.1,0.2]],"r1":0.5`), field: "project.jcr[1]", err: copoly.ErrOutOfRange},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -143,6 +171,50 @@ func TestParseErrors(t *testing.T) {
 				t.Errorf("Parse() = %q, want a message containing %q", err, tt.text)
 			}
 		})
+	}
+}
+
+// TestParseOptionalKeys checks that the keys added to version 1 after its first files stay
+// optional: a file without them reads with none set, and null counts as absent.
+func TestParseOptionalKeys(t *testing.T) {
+	for _, data := range []string{minimal, strings.Replace(minimal, `"r1":0.5`, `"bench":null,"level":null,"jcr":null,"r1":0.5`, 1)} {
+		p, err := Parse([]byte(data))
+		if err != nil {
+			t.Fatalf("Parse(%s) error %v", data, err)
+		}
+		if p.Bench != nil || p.Level != 0 || p.JCR != nil {
+			t.Errorf("Parse(%s) = bench %v, level %v, jcr %v, want none", data, p.Bench, p.Level, p.JCR)
+		}
+		out, err := Marshal(p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, key := range []string{`"bench"`, `"level"`, `"jcr"`} {
+			if bytes.Contains(out, []byte(key)) {
+				t.Errorf("Marshal() of a project without %s writes it:\n%s", key, out)
+			}
+		}
+	}
+}
+
+func TestMarshalRefusesOversizedFile(t *testing.T) {
+	// Every limit at its maximum gives a file above MaxFileBytes; Marshal must refuse it rather
+	// than write a file Parse would refuse.
+	p := Demo()
+	p.Notes = strings.Repeat("n", MaxNotesBytes)
+	p.Bench = &Bench{Rows: make([]BenchRow, MaxRows)}
+	for i := range p.Bench.Rows {
+		p.Bench.Rows[i] = BenchRow{Label: strings.Repeat("l", MaxLabelLength), Cells: map[string]string{}}
+		for key := range cellKeys {
+			p.Bench.Rows[i].Cells[key] = strings.Repeat("1", MaxCellLength)
+		}
+	}
+	if err := p.Validate(); err != nil {
+		t.Fatalf("Validate() = %v; the test needs a valid project", err)
+	}
+	data, err := Marshal(p)
+	if err == nil || copoly.Field(err) != "project" || !errors.Is(err, ErrTooLong) {
+		t.Errorf("Marshal(oversized) = %d bytes, %v, want an error for project wrapping ErrTooLong", len(data), err)
 	}
 }
 
@@ -185,6 +257,11 @@ func FuzzParse(f *testing.F) {
 		strings.Replace(minimal, `"r1":0.5`, `"r1":"a"`, 1),
 		strings.Replace(minimal, `"name":"A"`, `"name":"\ud800"`, 1),
 		minimal + "}",
+		strings.Replace(minimal, `"r1":0.5`, `"level":0.9,"jcr":[[0.1,0.2],[0.3,0.4],[0.2,0.6]],"r1":0.5`, 1),
+		strings.Replace(minimal, `"r1":0.5`, `"jcr":[[0.1],[0.3,0.4,0.5]],"r1":0.5`, 1),
+		strings.Replace(minimal, `"r1":0.5`, `"bench":{"feedKind":"mass","conversionKind":"none","compositionKind":"nmr","element":"","carrier":0,"elementCount":0,"rows":[{"label":"S1","cells":{"mass1":"5,0","mass2":"x","integral1":"1e3","protons1":"5"}}]},"r1":0.5`, 1),
+		strings.Replace(minimal, `"r1":0.5`, `"bench":{"rows":[{"cells":{"__proto__":"1","f10":"0.5"}}]},"r1":0.5`, 1),
+		strings.Replace(minimal, `"r1":0.5`, `"bench":{"carrier":2.5,"rows":null},"r1":0.5`, 1),
 	} {
 		f.Add([]byte(seed))
 	}

@@ -21,12 +21,24 @@
 //	  "f10": 0.5, "conversion": 0.95, "tolerance": 0.02,
 //	  "notes": "…",
 //	  "invented": true,
-//	  "savedAt": "2026-01-02T03:04:05Z"
+//	  "savedAt": "2026-01-02T03:04:05Z",
+//	  "bench": {
+//	    "feedKind": "fraction", "conversionKind": "molar", "compositionKind": "fraction",
+//	    "element": "", "carrier": 0, "elementCount": 0,
+//	    "rows": [{"label": "…", "cells": {"f10": "0.100", "conversion": "0,04", "F1": "0.295"}}]
+//	  },
+//	  "level": 0.95,
+//	  "jcr": [[0.71, 0.15], [0.80, 0.14], …]
 //	}
 //
 // "format" must be "copoly-project". "version" is [Version]; a file with a larger version was
 // made by a newer copoly and is refused with an error that says so, rather than read wrongly.
-// The same object, with the same keys, is the Project of the JavaScript API (site/copoly.d.ts).
+// "invented", "savedAt", "bench", "level" and "jcr" are optional and left out when empty, so a
+// file without them (written before they existed) still reads. "bench" is the bench-data grid
+// as typed ([Bench]); "level" the confidence level of the joint region of a fit (0 or absent
+// means 0.95); "jcr" the joint confidence region of the ratios in use when they came from a fit,
+// as (r1, r2) points. The same object, with the same keys, is the Project of the JavaScript API
+// (site/copoly.d.ts).
 //
 // # Errors
 //
@@ -113,6 +125,14 @@ type Project struct {
 	Invented bool `json:"invented,omitempty"`
 	// SavedAt is the time of the last save in RFC 3339 form, set by Store.Save; "" if never saved.
 	SavedAt string `json:"savedAt,omitempty"`
+	// Bench is the bench-data grid as typed, or nil when there is none.
+	Bench *Bench `json:"bench,omitempty"`
+	// Level is the confidence level of the joint confidence region of a fit, in (0, 1); 0 means
+	// the default 0.95.
+	Level float64 `json:"level,omitempty"`
+	// JCR is the joint confidence region of R1 and R2 as a closed polygon of (r1, r2) points,
+	// when the ratios in use came from a fit; at most MaxJCRPoints points, each finite and ≥ 0.
+	JCR [][2]float64 `json:"jcr,omitempty"`
 }
 
 // Validate reports the first invalid value of p as a *copoly.InputError or *copoly.FieldError
@@ -176,7 +196,18 @@ func (p Project) Validate() error {
 			return &copoly.FieldError{Field: "project.savedAt", Reason: fmt.Sprintf("%q is not a date and time in RFC 3339 form", p.SavedAt), Err: ErrWrongType}
 		}
 	}
-	return nil
+	if p.Bench != nil {
+		if err := CheckBench("project.bench", *p.Bench); err != nil {
+			return err
+		}
+	}
+	if math.IsNaN(p.Level) || math.IsInf(p.Level, 0) {
+		return &copoly.InputError{Field: "project.level", Value: p.Level, Reason: "must be a finite number", Err: copoly.ErrNotFinite}
+	}
+	if p.Level != 0 && !(p.Level > 0 && p.Level < 1) {
+		return &copoly.InputError{Field: "project.level", Value: p.Level, Reason: "the confidence level must lie between 0 and 1, e.g. 0.95 (0 = the default 0.95)", Err: copoly.ErrOutOfRange}
+	}
+	return checkJCR("project.jcr", p.JCR)
 }
 
 // checkVersion accepts only Version, and says so plainly when v comes from a newer copoly.
@@ -200,9 +231,10 @@ func checkText(field, s string, max int) error {
 }
 
 // Demo returns the built-in demo project. Its lab, trial and runs are invented; Invented is
-// true and the name and notes say so. The molar masses are those of styrene (C8H8) and n-butyl
-// acrylate (C7H12O2) from standard atomic weights.
+// true and the name, notes and run labels say so. The molar masses are those of styrene (C8H8)
+// and n-butyl acrylate (C7H12O2) from standard atomic weights.
 func Demo() Project {
+	bench := demoBench()
 	return Project{
 		Format:      Format,
 		Version:     Version,
@@ -218,8 +250,41 @@ func Demo() Project {
 		Notes: "Invented demo scenario. Harbour Lane pilot lab, its binder trial and its runs do not exist; " +
 			"nothing here is a measurement. Replace the reactivity ratios with values you have checked " +
 			"for your own conditions before relying on any result.\n\n" +
+			"Bench data: the eight runs HL-01 to HL-08 are invented runs, made up for this demo to look " +
+			"like low- and moderate-conversion samples of this pair; they were never measured.\n\n" +
 			"Safety: styrene and n-butyl acrylate are flammable and harmful; bulk and solution " +
 			"copolymerizations can run away. Follow your local codes, safety data sheets and licensed practice.",
 		Invented: true,
+		Bench:    &bench,
 	}
+}
+
+// demoBench returns the bench grid of the demo project. The runs are INVENTED for the demo,
+// not measurements: cumulative compositions of the terminal model with r1 = 0.80, r2 = 0.15
+// (copoly.Terminal.Cumulative) at the feeds and conversions below, plus seeded Gaussian
+// scatter of standard deviation 0.008, rounded to three decimals. Every run states sF = 0.010
+// so that the weighted fit runs.
+func demoBench() Bench {
+	rows := []struct{ label, f10, x, F1 string }{
+		{"HL-01 (invented)", "0.100", "0.040", "0.295"},
+		{"HL-02 (invented)", "0.200", "0.120", "0.418"},
+		{"HL-03 (invented)", "0.300", "0.060", "0.499"},
+		{"HL-04 (invented)", "0.400", "0.250", "0.529"},
+		{"HL-05 (invented)", "0.500", "0.050", "0.613"},
+		{"HL-06 (invented)", "0.600", "0.320", "0.663"},
+		{"HL-07 (invented)", "0.700", "0.180", "0.720"},
+		{"HL-08 (invented)", "0.850", "0.080", "0.841"},
+	}
+	b := Bench{
+		FeedKind:        copoly.FeedFraction,
+		ConversionKind:  copoly.ConversionMolar,
+		CompositionKind: copoly.CompositionFraction,
+		Rows:            make([]BenchRow, len(rows)),
+	}
+	for i, r := range rows {
+		b.Rows[i] = BenchRow{Label: r.label, Cells: map[string]string{
+			copoly.ColF10: r.f10, copoly.ColConversion: r.x, copoly.ColF1: r.F1, copoly.ColSF: "0.010",
+		}}
+	}
+	return b
 }

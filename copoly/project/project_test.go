@@ -27,6 +27,28 @@ func TestDemoIsValidAndMarkedInvented(t *testing.T) {
 	if p.SavedAt != "" {
 		t.Errorf("Demo().SavedAt = %q, want empty (never saved)", p.SavedAt)
 	}
+	if p.Bench == nil || len(p.Bench.Rows) == 0 {
+		t.Fatal("Demo() has no bench data")
+	}
+	if !strings.Contains(p.Notes, "invented runs") {
+		t.Errorf("Demo() notes do not say the bench runs are invented")
+	}
+	for i, r := range p.Bench.Rows {
+		if !strings.Contains(r.Label, "invented") {
+			t.Errorf("Demo() bench row %d label %q does not say it is invented", i, r.Label)
+		}
+	}
+}
+
+// Demo() must be a fresh value each time: the page edits what it gets.
+func TestDemoIsFresh(t *testing.T) {
+	a := Demo()
+	a.Bench.Rows[0].Cells["F1"] = "edited"
+	a.Bench.Rows = a.Bench.Rows[:1]
+	b := Demo()
+	if got := b.Bench.Rows[0].Cells["F1"]; got == "edited" || len(b.Bench.Rows) < 2 {
+		t.Errorf("editing one Demo() changed the next: F1 = %q, %d rows", got, len(b.Bench.Rows))
+	}
 }
 
 func TestValidate(t *testing.T) {
@@ -76,6 +98,53 @@ func TestValidate(t *testing.T) {
 		{name: "tolerance zero", edit: func(p *Project) { p.Tolerance = 0 }, field: "project.tolerance", err: copoly.ErrOutOfRange},
 		{name: "tolerance above half", edit: func(p *Project) { p.Tolerance = 0.51 }, field: "project.tolerance", err: copoly.ErrOutOfRange},
 		{name: "tolerance NaN", edit: func(p *Project) { p.Tolerance = math.NaN() }, field: "project.tolerance", err: copoly.ErrNotFinite},
+
+		// Bench grid: structure only; cells that are not numbers are kept as typed.
+		{name: "no bench", edit: func(p *Project) { p.Bench = nil }},
+		{name: "empty bench", edit: func(p *Project) { p.Bench = &Bench{} }},
+		{name: "bench cell not a number", edit: func(p *Project) { p.Bench.Rows[2].Cells["F1"] = "about half" }},
+		{name: "bench cell empty", edit: func(p *Project) { p.Bench.Rows[2].Cells["F1"] = "" }},
+		{name: "bench cell of another form", edit: func(p *Project) { p.Bench.Rows[0].Cells["integral1"] = "3,2" }},
+		{name: "bench every form", edit: func(p *Project) {
+			p.Bench.FeedKind, p.Bench.ConversionKind, p.Bench.CompositionKind = "moles", "mass", "element"
+			p.Bench.Element, p.Bench.Carrier, p.Bench.ElementCount = "N", 2, 1
+		}},
+		{name: "bench rows at limit", edit: func(p *Project) { p.Bench.Rows = make([]BenchRow, MaxRows) }},
+		{name: "bench label at limit", edit: func(p *Project) { p.Bench.Rows[0].Label = strings.Repeat("é", MaxLabelLength) }},
+		{name: "bench cell at limit", edit: func(p *Project) { p.Bench.Rows[0].Cells["f10"] = strings.Repeat("é", MaxCellLength) }},
+		{name: "bench feed kind unknown", edit: func(p *Project) { p.Bench.FeedKind = "volume" }, field: "project.bench.feedKind", err: ErrNotAllowed},
+		{name: "bench conversion kind unknown", edit: func(p *Project) { p.Bench.ConversionKind = "Molar" }, field: "project.bench.conversionKind", err: ErrNotAllowed},
+		{name: "bench composition kind unknown", edit: func(p *Project) { p.Bench.CompositionKind = "ir" }, field: "project.bench.compositionKind", err: ErrNotAllowed},
+		{name: "bench element too long", edit: func(p *Project) { p.Bench.Element = strings.Repeat("N", MaxCellLength+1) }, field: "project.bench.element", err: ErrTooLong},
+		{name: "bench carrier 3", edit: func(p *Project) { p.Bench.Carrier = 3 }, field: "project.bench.carrier", err: copoly.ErrOutOfRange},
+		{name: "bench carrier negative", edit: func(p *Project) { p.Bench.Carrier = -1 }, field: "project.bench.carrier", err: copoly.ErrOutOfRange},
+		{name: "bench element count NaN", edit: func(p *Project) { p.Bench.ElementCount = math.NaN() }, field: "project.bench.elementCount", err: copoly.ErrNotFinite},
+		{name: "bench element count negative", edit: func(p *Project) { p.Bench.ElementCount = -1 }, field: "project.bench.elementCount", err: copoly.ErrOutOfRange},
+		{name: "bench too many rows", edit: func(p *Project) { p.Bench.Rows = make([]BenchRow, MaxRows+1) }, field: "project.bench.rows", err: copoly.ErrTooMany},
+		{name: "bench label too long", edit: func(p *Project) { p.Bench.Rows[3].Label = strings.Repeat("x", MaxLabelLength+1) }, field: "project.bench.rows[3].label", err: ErrTooLong},
+		{name: "bench cell too long", edit: func(p *Project) { p.Bench.Rows[3].Cells["f10"] = strings.Repeat("1", MaxCellLength+1) }, field: "project.bench.rows[3].cells.f10", err: ErrTooLong},
+		{name: "bench cell key unknown", edit: func(p *Project) { p.Bench.Rows[1].Cells["density"] = "0.9" }, field: "project.bench.rows[1].cells", err: ErrNotAllowed},
+		{name: "bench cell key label", edit: func(p *Project) { p.Bench.Rows[1].Cells["label"] = "x" }, field: "project.bench.rows[1].cells", err: ErrNotAllowed},
+		{name: "bench too many cells", edit: func(p *Project) {
+			for k := range MaxCells + 1 {
+				p.Bench.Rows[0].Cells[strings.Repeat("k", k+1)] = ""
+			}
+		}, field: "project.bench.rows[0].cells", err: copoly.ErrTooMany},
+
+		// Confidence level and region.
+		{name: "level default", edit: func(p *Project) { p.Level = 0 }},
+		{name: "level 0.99", edit: func(p *Project) { p.Level = 0.99 }},
+		{name: "level one", edit: func(p *Project) { p.Level = 1 }, field: "project.level", err: copoly.ErrOutOfRange},
+		{name: "level percent", edit: func(p *Project) { p.Level = 95 }, field: "project.level", err: copoly.ErrOutOfRange},
+		{name: "level negative", edit: func(p *Project) { p.Level = -0.5 }, field: "project.level", err: copoly.ErrOutOfRange},
+		{name: "level NaN", edit: func(p *Project) { p.Level = math.NaN() }, field: "project.level", err: copoly.ErrNotFinite},
+		{name: "jcr", edit: func(p *Project) { p.JCR = [][2]float64{{0.7, 0.1}, {0.9, 0.1}, {0.8, 0.2}} }},
+		{name: "jcr on an axis", edit: func(p *Project) { p.JCR = [][2]float64{{0, 0.1}, {0.9, 0}} }},
+		{name: "jcr at limit", edit: func(p *Project) { p.JCR = make([][2]float64, MaxJCRPoints) }},
+		{name: "jcr too many", edit: func(p *Project) { p.JCR = make([][2]float64, MaxJCRPoints+1) }, field: "project.jcr", err: copoly.ErrTooMany},
+		{name: "jcr negative", edit: func(p *Project) { p.JCR = [][2]float64{{0.7, 0.1}, {0.9, -0.01}} }, field: "project.jcr[1]", err: copoly.ErrOutOfRange},
+		{name: "jcr infinite", edit: func(p *Project) { p.JCR = [][2]float64{{math.Inf(1), 0.1}} }, field: "project.jcr[0]", err: copoly.ErrNotFinite},
+		{name: "jcr NaN", edit: func(p *Project) { p.JCR = [][2]float64{{0.7, 0.1}, {0.8, 0.1}, {0.9, math.NaN()}} }, field: "project.jcr[2]", err: copoly.ErrNotFinite},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {

@@ -1,0 +1,186 @@
+package project
+
+import (
+	"errors"
+	"fmt"
+	"maps"
+	"math"
+	"slices"
+	"strings"
+
+	"copoly/copoly"
+)
+
+// Limits on the bench-data grid of a project. MaxCells and MaxCellLength are design choices of
+// copoly that keep a project file small; the row and label limits are copoly's own
+// (copoly.MaxRuns, copoly.MaxLabelLength), so that every grid a project holds can be converted.
+const (
+	MaxRows        = copoly.MaxRuns        // rows in the grid
+	MaxCells       = 64                    // cells in one row
+	MaxCellLength  = 200                   // characters in one cell, and in Bench.Element
+	MaxLabelLength = copoly.MaxLabelLength // characters in a row label
+	MaxJCRPoints   = 4096                  // points of Project.JCR
+)
+
+// ErrNotAllowed reports a word that is not among those a field accepts, such as an unknown
+// entry form or cell key.
+var ErrNotAllowed = errors.New("project: value not among those allowed")
+
+// Bench is the bench-data grid of a project: [copoly.BenchTable] with the keys of the project
+// file and of the BenchTable of the JavaScript API. Cells are kept as typed, so a cell that is
+// not (yet) a number is not an error here; [copoly.BenchTable.Runs] reports it when the runs are
+// converted.
+type Bench struct {
+	// FeedKind is copoly.FeedFraction, FeedMass, FeedMoles or "" (fraction).
+	FeedKind string `json:"feedKind"`
+	// ConversionKind is copoly.ConversionNone, ConversionMolar, ConversionMass or "" (none).
+	ConversionKind string `json:"conversionKind"`
+	// CompositionKind is copoly.CompositionFraction, CompositionMassFraction, CompositionNMR,
+	// CompositionElement or "" (fraction).
+	CompositionKind string `json:"compositionKind"`
+	// Element, Carrier and ElementCount describe an elemental analysis as in copoly.RunInput;
+	// Carrier is 1 or 2, or 0 when not chosen, and ElementCount ≥ 0 (0 = not given).
+	Element      string     `json:"element"`
+	Carrier      int        `json:"carrier"`
+	ElementCount float64    `json:"elementCount"`
+	Rows         []BenchRow `json:"rows"`
+}
+
+// BenchRow is one row of a Bench: a label and the text of each cell, keyed by column
+// (copoly.ColF10, copoly.ColF1, …).
+type BenchRow struct {
+	Label string            `json:"label"`
+	Cells map[string]string `json:"cells"`
+}
+
+// Table returns b as a copoly.BenchTable. The rows and cells are copied, so changing the table
+// (copoly.BenchTable.Paste appends rows) leaves b as it was.
+func (b Bench) Table() copoly.BenchTable {
+	t := copoly.BenchTable{
+		FeedKind: b.FeedKind, ConversionKind: b.ConversionKind, CompositionKind: b.CompositionKind,
+		Element: b.Element, Carrier: b.Carrier, ElementCount: b.ElementCount,
+	}
+	if b.Rows != nil {
+		t.Rows = make([]copoly.BenchRow, len(b.Rows))
+		for i, r := range b.Rows {
+			t.Rows[i] = copoly.BenchRow{Label: r.Label, Cells: maps.Clone(r.Cells)}
+		}
+	}
+	return t
+}
+
+// BenchOf returns the copoly.BenchTable t as a Bench, copying its rows and cells.
+func BenchOf(t copoly.BenchTable) Bench {
+	b := Bench{
+		FeedKind: t.FeedKind, ConversionKind: t.ConversionKind, CompositionKind: t.CompositionKind,
+		Element: t.Element, Carrier: t.Carrier, ElementCount: t.ElementCount,
+	}
+	if t.Rows != nil {
+		b.Rows = make([]BenchRow, len(t.Rows))
+		for i, r := range t.Rows {
+			b.Rows[i] = BenchRow{Label: r.Label, Cells: maps.Clone(r.Cells)}
+		}
+	}
+	return b
+}
+
+// Words accepted by the kind fields of a Bench; "" selects the first form of each.
+var (
+	feedKinds        = []string{"", copoly.FeedFraction, copoly.FeedMass, copoly.FeedMoles}
+	conversionKinds  = []string{"", copoly.ConversionNone, copoly.ConversionMolar, copoly.ConversionMass}
+	compositionKinds = []string{"", copoly.CompositionFraction, copoly.CompositionMassFraction, copoly.CompositionNMR, copoly.CompositionElement}
+)
+
+// cellKeys are the cell keys a row may hold: every column of every form of copoly.BenchTable.
+// A row may keep cells of a form the table no longer uses (the chemist switched forms), so the
+// keys are not checked against the table's current columns.
+var cellKeys = map[string]bool{
+	copoly.ColF10: true, copoly.ColMass1: true, copoly.ColMass2: true, copoly.ColMoles1: true, copoly.ColMoles2: true,
+	copoly.ColConversion: true,
+	copoly.ColF1:         true, copoly.ColMassFraction1: true, copoly.ColIntegral1: true, copoly.ColProtons1: true,
+	copoly.ColIntegral2: true, copoly.ColProtons2: true, copoly.ColElementPercent: true,
+	copoly.ColSF: true, copoly.ColSX: true, copoly.ColSf: true,
+}
+
+// CheckBench reports the first structural problem of b as a *copoly.InputError or
+// *copoly.FieldError whose field starts with field ("project.bench.feedKind",
+// "project.bench.rows[3].cells.f10"), or nil. It checks the kind words, the carrier (0, 1 or 2),
+// a finite ElementCount ≥ 0, at most MaxRows rows, and in each row a label of at most
+// MaxLabelLength characters and at most MaxCells cells, each keyed by a column of
+// copoly.BenchTable and at most MaxCellLength characters long. What the cells say is not
+// checked.
+func CheckBench(field string, b Bench) error {
+	for _, k := range []struct {
+		name, v string
+		allowed []string
+	}{
+		{"feedKind", b.FeedKind, feedKinds},
+		{"conversionKind", b.ConversionKind, conversionKinds},
+		{"compositionKind", b.CompositionKind, compositionKinds},
+	} {
+		if !slices.Contains(k.allowed, k.v) {
+			return &copoly.FieldError{Field: field + "." + k.name, Reason: fmt.Sprintf("is %q; it must be one of %s", k.v, quoteAll(k.allowed[1:])), Err: ErrNotAllowed}
+		}
+	}
+	if err := checkText(field+".element", b.Element, MaxCellLength); err != nil {
+		return err
+	}
+	if b.Carrier < 0 || b.Carrier > 2 {
+		return &copoly.InputError{Field: field + ".carrier", Value: float64(b.Carrier), Reason: "the monomer carrying the element must be 1 or 2 (0 = not chosen)", Err: copoly.ErrOutOfRange}
+	}
+	if math.IsNaN(b.ElementCount) || math.IsInf(b.ElementCount, 0) {
+		return &copoly.InputError{Field: field + ".elementCount", Value: b.ElementCount, Reason: "must be a finite number", Err: copoly.ErrNotFinite}
+	}
+	if b.ElementCount < 0 {
+		return &copoly.InputError{Field: field + ".elementCount", Value: b.ElementCount, Reason: "the number of atoms cannot be negative (0 = not given)", Err: copoly.ErrOutOfRange}
+	}
+	if n := len(b.Rows); n > MaxRows {
+		return &copoly.InputError{Field: field + ".rows", Value: float64(n), Reason: fmt.Sprintf("at most %d rows", MaxRows), Err: copoly.ErrTooMany}
+	}
+	for i, r := range b.Rows {
+		row := fmt.Sprintf("%s.rows[%d]", field, i)
+		if err := checkText(row+".label", r.Label, MaxLabelLength); err != nil {
+			return err
+		}
+		if n := len(r.Cells); n > MaxCells {
+			return &copoly.InputError{Field: row + ".cells", Value: float64(n), Reason: fmt.Sprintf("at most %d cells in a row", MaxCells), Err: copoly.ErrTooMany}
+		}
+		for _, key := range slices.Sorted(maps.Keys(r.Cells)) {
+			if !cellKeys[key] {
+				return &copoly.FieldError{Field: row + ".cells", Reason: fmt.Sprintf("has a cell keyed %q, which is not a column of the bench table", key), Err: ErrNotAllowed}
+			}
+			if err := checkText(row+".cells."+key, r.Cells[key], MaxCellLength); err != nil {
+				return err
+			}
+		}
+	}
+	return nil
+}
+
+// checkJCR reports the first point of a joint confidence region that is not a pair of finite
+// ratios ≥ 0, or more than MaxJCRPoints points.
+func checkJCR(field string, jcr [][2]float64) error {
+	if n := len(jcr); n > MaxJCRPoints {
+		return &copoly.InputError{Field: field, Value: float64(n), Reason: fmt.Sprintf("at most %d points", MaxJCRPoints), Err: copoly.ErrTooMany}
+	}
+	for i, p := range jcr {
+		for j, v := range p {
+			f := fmt.Sprintf("%s[%d]", field, i)
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return &copoly.InputError{Field: f, Value: v, Reason: fmt.Sprintf("r%d of the point must be a finite number", j+1), Err: copoly.ErrNotFinite}
+			}
+			if v < 0 {
+				return &copoly.InputError{Field: f, Value: v, Reason: fmt.Sprintf("r%d of the point cannot be negative", j+1), Err: copoly.ErrOutOfRange}
+			}
+		}
+	}
+	return nil
+}
+
+func quoteAll(words []string) string {
+	q := make([]string, len(words))
+	for i, w := range words {
+		q[i] = fmt.Sprintf("%q", w)
+	}
+	return strings.Join(q, ", ") + ` or ""`
+}
