@@ -4,6 +4,7 @@ package main
 
 import (
 	"fmt"
+	"strings"
 	"syscall/js"
 
 	"copoly/copoly"
@@ -46,6 +47,11 @@ func newAPI(st *storage) js.Value {
 		{"checkProject", argRequired, checkProject},
 		{"exportProject", argRequired, exportProject},
 		{"importProject", argRequired, importProject},
+		{"benchRuns", argRequired, benchRuns},
+		{"pasteBench", argRequired, pasteBench},
+		{"fit", argRequired, fit},
+		{"nextRuns", argRequired, nextRuns},
+		{"qe", argRequired, qe},
 	} {
 		api.Set(m.name, wrap(m.name, m.policy, m.fn))
 	}
@@ -317,6 +323,257 @@ func importProject(arg js.Value) (any, error) {
 		return nil, err
 	}
 	return projectResult(p), nil
+}
+
+// benchRuns: the runs of a bench table in mole fractions and molar conversion, with an error
+// for each bad row and the data warnings.
+func benchRuns(arg js.Value) (any, error) {
+	var in benchRunsIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	b, err := in.Bench.bench("bench")
+	if err != nil {
+		return nil, err
+	}
+	var mm [2]float64 // 0 = not given; only the forms that weigh need them
+	for i, v := range []*float64{in.MolarMass1, in.MolarMass2} {
+		if v != nil && *v != 0 {
+			if err := copoly.CheckMolarMass(fmt.Sprintf("molarMass%d", i+1), *v); err != nil {
+				return nil, err
+			}
+			mm[i] = *v
+		}
+	}
+	t := b.Table()
+	runs, ok, errs, warnings := t.Runs(mm[0], mm[1])
+	rs, es := array.New(), array.New()
+	for i := range runs {
+		rs.SetIndex(i, js.Null())
+		if ok[i] {
+			rs.SetIndex(i, toJS(runOut(runs[i])))
+		}
+		es.SetIndex(i, js.Null())
+		if errs[i] != nil {
+			es.SetIndex(i, errorValue(errs[i]))
+		}
+	}
+	ws := make([]runWarningOut, len(warnings))
+	for i, w := range warnings {
+		ws[i] = runWarningOut{Row: w.Row, Field: w.Field, Message: w.Message}
+	}
+	out := object.New()
+	out.Set("columns", toJS(t.Columns()))
+	out.Set("runs", rs)
+	out.Set("errors", es)
+	out.Set("warnings", toJS(ws))
+	return out, nil
+}
+
+// pasteBench: the bench table with the rows of a pasted block appended. The paste works on a
+// copy, so a block that cannot be read changes nothing: the error names the field "paste".
+func pasteBench(arg js.Value) (any, error) {
+	var in pasteBenchIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	b, err := in.Bench.bench("bench")
+	if err != nil {
+		return nil, err
+	}
+	t := b.Table()
+	if err := t.Paste(in.Text); err != nil {
+		return nil, pasteError(err)
+	}
+	pasted := project.BenchOf(t)
+	// A pasted cell or label can be longer than a project keeps; refuse it here rather than
+	// hand the page a table it cannot save.
+	if err := project.CheckBench("bench", pasted); err != nil {
+		return nil, &copoly.FieldError{Field: "paste", Reason: "the pasted rows cannot be kept: " + err.Error(), Err: err}
+	}
+	out := object.New()
+	out.Set("bench", benchValue(pasted))
+	return out, nil
+}
+
+// pasteError names the field "paste" in an error of BenchTable.Paste (ParseTable names its
+// errors "table").
+func pasteError(err error) error {
+	err = renameField(err, "table", "paste")
+	if copoly.Field(err) != "paste" {
+		return &copoly.FieldError{Field: "paste", Reason: err.Error(), Err: err}
+	}
+	return err
+}
+
+// fit: every estimation method on the runs, with the recommended one and the warnings.
+func fit(arg js.Value) (any, error) {
+	var in fitIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	runs, err := runsOf(in.Runs)
+	if err != nil {
+		return nil, err
+	}
+	level := 0.0 // copoly's default, 0.95
+	if in.Level != nil {
+		level = *in.Level
+	}
+	e, err := copoly.Estimate(runs, level)
+	if err != nil {
+		return nil, err
+	}
+	return fitValue(e), nil
+}
+
+// fitValue converts the estimates to the FitResult of the d.ts. A method that could not run is
+// absent (copoly gives its reason among the warnings). A method whose result holds a number
+// that is not finite, where the d.ts promises one, is left out with a warning of its own;
+// copoly's +Inf standard errors and NaN correlation of a singular fit are the one expected
+// case and become null instead.
+func fitValue(e *copoly.Estimates) js.Value {
+	warnings := make([]warningOut, len(e.Warnings))
+	for i, w := range e.Warnings {
+		warnings[i] = warningOut{Method: w.Method, Row: w.Row, Field: w.Field, Message: w.Message}
+	}
+	notFinite := func(method, path string) {
+		warnings = append(warnings, warningOut{Method: method, Row: -1, Message: fmt.Sprintf("%s gave a value that is not a finite number (%s); it is not shown", method, path)})
+	}
+	methods := object.New()
+	add := func(name string, dto any, drop ...string) {
+		if p := nonFinite(dto); p != "" {
+			notFinite(name, p)
+			return
+		}
+		v := toJS(dto)
+		for _, k := range drop {
+			v.Delete(k)
+		}
+		methods.Set(name, v)
+	}
+	for _, l := range []struct {
+		name  string
+		fit   *copoly.Linear
+		alpha bool
+	}{
+		{copoly.MethodFinemanRoss, e.FinemanRoss, false},
+		{copoly.MethodInvertedFinemanRoss, e.InvertedFinemanRoss, false},
+		{copoly.MethodKelenTudos, e.KelenTudos, true},
+		{copoly.MethodExtendedKelenTudos, e.ExtendedKelenTudos, true},
+	} {
+		if l.fit == nil {
+			continue
+		}
+		if l.alpha {
+			add(l.name, linearDTO(l.fit))
+		} else {
+			add(l.name, linearDTO(l.fit), "alpha")
+		}
+	}
+	if e.MayoLewis != nil {
+		add(copoly.MethodMayoLewis, mayoLewisDTO(e.MayoLewis))
+	}
+	if n := e.Nonlinear; n != nil {
+		if n.Weighted {
+			add(copoly.MethodNonlinear, nonlinearDTO(n))
+		} else {
+			add(copoly.MethodNonlinear, nonlinearDTO(n), "reducedChi2", "pValue", "sigma")
+		}
+	}
+	if e.EVM != nil {
+		add(copoly.MethodEVM, evmDTO(e.EVM))
+	}
+	recommended := e.Recommended
+	if recommended == copoly.MethodEVM && methods.Get(copoly.MethodEVM).IsUndefined() {
+		recommended = copoly.MethodNonlinear
+	}
+	trend := func(name string, t copoly.Trend) trendOut {
+		out := trendOut{Slope: t.Slope, PValue: t.PValue, Flagged: t.Flagged}
+		if p := nonFinite(out); p != "" {
+			notFinite(name, p)
+			return trendOut{Slope: 0, PValue: 1, Flagged: false}
+		}
+		return out
+	}
+	trends := trendsOut{
+		Feed:       trend("the trend of the residuals with the feed", e.TrendFeed),
+		Conversion: trend("the trend of the residuals with conversion", e.TrendConversion),
+	}
+
+	out := object.New()
+	out.Set("methods", methods)
+	out.Set("recommended", recommended)
+	if s := e.SwappedFinemanRoss; s != nil {
+		if r := (ratiosOut{R1: s.R1, R2: s.R2}); nonFinite(r) == "" {
+			out.Set("swappedFinemanRoss", toJS(r))
+		}
+	}
+	out.Set("trends", toJS(trends))
+	out.Set("warnings", toJS(warnings))
+	return out
+}
+
+// nextRuns: where to run next to shrink the joint confidence region the most.
+func nextRuns(arg js.Value) (any, error) {
+	var in nextRunsIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	made, err := runsOf(in.Runs)
+	if err != nil {
+		return nil, err
+	}
+	d, err := copoly.NextRuns(in.R1, in.R2, made, in.Conversions)
+	if err != nil {
+		return nil, err
+	}
+	out := nextRunsOut{
+		TidwellMortimer: d.TidwellMortimer[:],
+		DOptimal:        d.DOptimal[:],
+		Middle:          d.Middle,
+		Next:            make([]suggestionOut, len(d.Next)),
+		Shrink:          d.Shrink,
+	}
+	for i, s := range d.Next {
+		out.Next[i] = suggestionOut{F10: s.F10, Conversion: s.Conversion}
+	}
+	return out, nil
+}
+
+// qe: the screening estimate of the ratios from the built-in Q–e values of two monomers.
+func qe(arg js.Value) (any, error) {
+	var in qeIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	var q [2]copoly.QE
+	for i, name := range []string{in.Monomer1, in.Monomer2} {
+		v, ok := copoly.QEOf(name)
+		if !ok {
+			return nil, &copoly.FieldError{Field: fmt.Sprintf("monomer%d", i+1), Reason: fmt.Sprintf("%q has no built-in Q–e values; those with values are %s", name, qeNames()), Err: copoly.ErrOutOfRange}
+		}
+		q[i] = v
+	}
+	r1, r2, err := copoly.RatiosFromQE(q[0], q[1])
+	if err != nil {
+		return nil, err
+	}
+	return qeOut{R1: r1, R2: r2, Q1: q[0].Q, E1: q[0].E, Q2: q[1].Q, E2: q[1].E, Source1: q[0].Source, Source2: q[1].Source}, nil
+}
+
+// qeNames lists the built-in monomers that have Q–e values, for an error message.
+func qeNames() string {
+	var names []string
+	for _, m := range copoly.Monomers() {
+		if _, ok := copoly.QEOf(m.Name); ok {
+			names = append(names, fmt.Sprintf("%q", m.Name))
+		}
+	}
+	if len(names) == 0 {
+		return "none"
+	}
+	return strings.Join(names, ", ")
 }
 
 // readProject reads and validates the {project} argument.

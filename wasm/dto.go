@@ -5,8 +5,11 @@ package main
 import (
 	"errors"
 	"fmt"
+	"maps"
 	"math"
 	"reflect"
+	"slices"
+	"strings"
 	"syscall/js"
 
 	"github.com/norunners/vert"
@@ -19,7 +22,9 @@ import (
 // plain js:"camelCase" tags and built-in kinds only (vert cannot convert named number types or
 // fixed-size arrays). Inputs are read by decode: a field whose Go type is a pointer is optional
 // (nil when absent), a field tagged copoly:"optional" may be absent and then keeps its zero
-// value, every other field is required.
+// value, every other field is required. A list, a text or a map may carry a limit:"name" tag
+// naming its largest size in limits; a list of numbers without one holds at most
+// copoly.MaxPoints.
 
 // Sentinels wrapped by the errors about the JS form of an input.
 var (
@@ -190,6 +195,286 @@ type libraryOut struct {
 	Pairs    []pairOut    `js:"pairs"`
 }
 
+// runDTO is the Run of the d.ts, both ways: mole fractions and molar conversion (0 = low
+// conversion), with optional standard uncertainties (0 = not given).
+type runDTO struct {
+	F10        float64 `js:"f10"`
+	Conversion float64 `js:"conversion" copoly:"optional"`
+	F1         float64 `js:"F1"`
+	SF         float64 `js:"sF" copoly:"optional"`
+	SX         float64 `js:"sX" copoly:"optional"`
+	Sf         float64 `js:"sf" copoly:"optional"`
+}
+
+func runOut(r copoly.Run) runDTO {
+	return runDTO{F10: r.F10, Conversion: r.Conversion, F1: r.F1, SF: r.SF, SX: r.SX, Sf: r.Sf}
+}
+
+// runsOf converts runs read from JavaScript, checking that every number is finite; the ranges
+// are copoly's to check.
+func runsOf(in []runDTO) ([]copoly.Run, error) {
+	runs := make([]copoly.Run, len(in))
+	for i, d := range in {
+		for _, c := range []struct {
+			key string
+			v   float64
+		}{{"f10", d.F10}, {"conversion", d.Conversion}, {"F1", d.F1}, {"sF", d.SF}, {"sX", d.SX}, {"sf", d.Sf}} {
+			if math.IsNaN(c.v) || math.IsInf(c.v, 0) {
+				return nil, &copoly.InputError{Field: fmt.Sprintf("runs[%d].%s", i, c.key), Value: c.v, Reason: "must be a finite number", Err: copoly.ErrNotFinite}
+			}
+		}
+		runs[i] = copoly.Run{F10: d.F10, Conversion: d.Conversion, F1: d.F1, SF: d.SF, SX: d.SX, Sf: d.Sf}
+	}
+	return runs, nil
+}
+
+type benchRunsIn struct {
+	Bench      benchDTO `js:"bench"`
+	MolarMass1 *float64 `js:"molarMass1"`
+	MolarMass2 *float64 `js:"molarMass2"`
+}
+
+type runWarningOut struct {
+	Row     int    `js:"row"`
+	Field   string `js:"field"`
+	Message string `js:"message"`
+}
+
+type pasteBenchIn struct {
+	Bench benchDTO `js:"bench"`
+	Text  string   `js:"text" limit:"text"`
+}
+
+type fitIn struct {
+	Runs  []runDTO `js:"runs" limit:"runs"`
+	Level *float64 `js:"level"`
+}
+
+// linearOut is the LinearFit of the d.ts; alpha is removed for the methods without one.
+type linearOut struct {
+	R1        float64   `js:"r1"`
+	R2        float64   `js:"r2"`
+	X         []float64 `js:"x"`
+	Y         []float64 `js:"y"`
+	Slope     float64   `js:"slope"`
+	Intercept float64   `js:"intercept"`
+	Alpha     float64   `js:"alpha"`
+	Linear    bool      `js:"linear"`
+}
+
+func linearDTO(l *copoly.Linear) linearOut {
+	return linearOut{R1: l.R1, R2: l.R2, X: orEmpty(l.X), Y: orEmpty(l.Y), Slope: l.Slope, Intercept: l.Intercept, Alpha: l.Alpha, Linear: true}
+}
+
+type curveOut struct {
+	R1 []float64 `js:"r1"`
+	R2 []float64 `js:"r2"`
+}
+
+type mayoLewisOut struct {
+	R1     float64    `js:"r1"`
+	R2     float64    `js:"r2"`
+	Curves []curveOut `js:"curves"`
+}
+
+func mayoLewisDTO(m *copoly.Intersection) mayoLewisOut {
+	out := mayoLewisOut{R1: m.R1, R2: m.R2, Curves: make([]curveOut, len(m.Curves))}
+	for i, c := range m.Curves {
+		out.Curves[i] = curveOut{R1: orEmpty(c[0]), R2: orEmpty(c[1])}
+	}
+	return out
+}
+
+type regionOut struct {
+	Level    float64     `js:"level"`
+	Kind     string      `js:"kind"`
+	Critical float64     `js:"critical"`
+	Boundary [][]float64 `js:"boundary"`
+	Open     bool        `js:"open"`
+	R1Min    float64     `js:"r1Min"`
+	R1Max    float64     `js:"r1Max"`
+	R2Min    float64     `js:"r2Min"`
+	R2Max    float64     `js:"r2Max"`
+}
+
+// regionDTO returns the region and its boundary as [r1, r2] lists (vert cannot convert [2]float64).
+func regionDTO(r copoly.Region) (regionOut, [][]float64) {
+	b := make([][]float64, len(r.Boundary))
+	for i, p := range r.Boundary {
+		b[i] = []float64{p[0], p[1]}
+	}
+	return regionOut{Level: r.Level, Kind: r.Kind, Critical: r.Critical, Boundary: b, Open: r.Open,
+		R1Min: r.R1Min, R1Max: r.R1Max, R2Min: r.R2Min, R2Max: r.R2Max}, b
+}
+
+// nonlinearOut is the NonlinearFit of the d.ts. se1, se2 and corr are null when the
+// linearised covariance is singular (copoly reports +Inf and NaN); reducedChi2, pValue and
+// sigma are removed for an unweighted fit.
+type nonlinearOut struct {
+	R1          float64     `js:"r1"`
+	R2          float64     `js:"r2"`
+	SE1         *float64    `js:"se1"`
+	SE2         *float64    `js:"se2"`
+	Corr        *float64    `js:"corr"`
+	SSR         float64     `js:"ssr"`
+	Weighted    bool        `js:"weighted"`
+	N           int         `js:"n"`
+	DoF         int         `js:"dof"`
+	ReducedChi2 float64     `js:"reducedChi2"`
+	PValue      float64     `js:"pValue"`
+	AtBound     string      `js:"atBound"`
+	Residuals   []float64   `js:"residuals"`
+	Sigma       []float64   `js:"sigma"`
+	JCR         [][]float64 `js:"jcr"`
+	Region      regionOut   `js:"region"`
+}
+
+func nonlinearDTO(n *copoly.Nonlinear) nonlinearOut {
+	region, jcr := regionDTO(n.Region)
+	return nonlinearOut{
+		R1: n.R1, R2: n.R2, SE1: finiteOrNil(n.SE1), SE2: finiteOrNil(n.SE2), Corr: finiteOrNil(n.Corr),
+		SSR: n.SSR, Weighted: n.Weighted, N: n.N, DoF: n.DoF, ReducedChi2: n.ReducedChi2, PValue: n.PValue,
+		AtBound: n.AtBound, Residuals: orEmpty(n.Residuals), Sigma: orEmpty(n.Sigma), JCR: jcr, Region: region,
+	}
+}
+
+// evmOut is the EVMFit of the d.ts; se1, se2 and corr as in nonlinearOut.
+type evmOut struct {
+	R1          float64     `js:"r1"`
+	R2          float64     `js:"r2"`
+	SE1         *float64    `js:"se1"`
+	SE2         *float64    `js:"se2"`
+	Corr        *float64    `js:"corr"`
+	Phi         float64     `js:"phi"`
+	ReducedChi2 float64     `js:"reducedChi2"`
+	PValue      float64     `js:"pValue"`
+	Feed        []float64   `js:"feed"`
+	Conversion  []float64   `js:"conversion"`
+	Composition []float64   `js:"composition"`
+	JCR         [][]float64 `js:"jcr"`
+	Region      regionOut   `js:"region"`
+}
+
+func evmDTO(e *copoly.EVM) evmOut {
+	region, jcr := regionDTO(e.Region)
+	return evmOut{
+		R1: e.R1, R2: e.R2, SE1: finiteOrNil(e.SE1), SE2: finiteOrNil(e.SE2), Corr: finiteOrNil(e.Corr),
+		Phi: e.Phi, ReducedChi2: e.ReducedChi2, PValue: e.PValue,
+		Feed: orEmpty(e.Feed), Conversion: orEmpty(e.Conversion), Composition: orEmpty(e.Composition),
+		JCR: jcr, Region: region,
+	}
+}
+
+type ratiosOut struct {
+	R1 float64 `js:"r1"`
+	R2 float64 `js:"r2"`
+}
+
+type trendOut struct {
+	Slope   float64 `js:"slope"`
+	PValue  float64 `js:"pValue"`
+	Flagged bool    `js:"flagged"`
+}
+
+type trendsOut struct {
+	Feed       trendOut `js:"feed"`
+	Conversion trendOut `js:"conversion"`
+}
+
+type warningOut struct {
+	Method  string `js:"method"`
+	Row     int    `js:"row"`
+	Field   string `js:"field"`
+	Message string `js:"message"`
+}
+
+type nextRunsIn struct {
+	R1          float64   `js:"r1"`
+	R2          float64   `js:"r2"`
+	Runs        []runDTO  `js:"runs" copoly:"optional" limit:"runs"`
+	Conversions []float64 `js:"conversions" copoly:"optional"`
+}
+
+type suggestionOut struct {
+	F10        float64 `js:"f10"`
+	Conversion float64 `js:"conversion"`
+}
+
+type nextRunsOut struct {
+	TidwellMortimer []float64       `js:"tidwellMortimer"`
+	DOptimal        []float64       `js:"dOptimal"`
+	Middle          float64         `js:"middle"`
+	Next            []suggestionOut `js:"next"`
+	Shrink          float64         `js:"shrink"`
+}
+
+type qeIn struct {
+	Monomer1 string `js:"monomer1"`
+	Monomer2 string `js:"monomer2"`
+}
+
+type qeOut struct {
+	R1      float64 `js:"r1"`
+	R2      float64 `js:"r2"`
+	Q1      float64 `js:"q1"`
+	E1      float64 `js:"e1"`
+	Q2      float64 `js:"q2"`
+	E2      float64 `js:"e2"`
+	Source1 string  `js:"source1"`
+	Source2 string  `js:"source2"`
+}
+
+// finiteOrNil returns &x, or nil (null in JavaScript) when x is NaN or infinite.
+func finiteOrNil(x float64) *float64 {
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return nil
+	}
+	return &x
+}
+
+// orEmpty returns s, or an empty slice for nil, so that JavaScript gets [] rather than null.
+func orEmpty(s []float64) []float64 {
+	if s == nil {
+		return []float64{}
+	}
+	return s
+}
+
+// nonFinite returns the path of the first NaN or infinite number in the DTO v (a struct of
+// numbers, texts, booleans, pointers, slices and nested structs), or "" when every number is
+// finite. A nil pointer (null) counts as finite.
+func nonFinite(v any) string {
+	var walk func(rv reflect.Value, path string) string
+	walk = func(rv reflect.Value, path string) string {
+		switch rv.Kind() {
+		case reflect.Float64:
+			if x := rv.Float(); math.IsNaN(x) || math.IsInf(x, 0) {
+				return path
+			}
+		case reflect.Pointer:
+			if !rv.IsNil() {
+				return walk(rv.Elem(), path)
+			}
+		case reflect.Slice:
+			for i := range rv.Len() {
+				if p := walk(rv.Index(i), fmt.Sprintf("%s[%d]", path, i)); p != "" {
+					return p
+				}
+			}
+		case reflect.Struct:
+			t := rv.Type()
+			for i := range t.NumField() {
+				if p := walk(rv.Field(i), path+"."+t.Field(i).Tag.Get("js")); p != "" {
+					return p
+				}
+			}
+		}
+		return ""
+	}
+	p := walk(reflect.ValueOf(v), "")
+	return strings.TrimPrefix(p, ".")
+}
+
 // projectMonomerDTO is one monomer of a Project.
 type projectMonomerDTO struct {
 	Name      string  `js:"name" copoly:"optional"`
@@ -213,6 +498,77 @@ type projectDTO struct {
 	Notes       string            `js:"notes" copoly:"optional"`
 	Invented    bool              `js:"invented" copoly:"optional"`
 	SavedAt     string            `js:"savedAt" copoly:"optional"`
+	Bench       *benchDTO         `js:"bench"`
+	Level       float64           `js:"level" copoly:"optional"`
+	JCR         [][]float64       `js:"jcr" copoly:"optional" limit:"jcr"`
+}
+
+// benchDTO is the BenchTable of the d.ts, read from JavaScript; benchValue writes one. Only the
+// rows are required: the kinds default to "" (the first form of each), the element fields to
+// "" and 0.
+type benchDTO struct {
+	FeedKind        string        `js:"feedKind" copoly:"optional"`
+	ConversionKind  string        `js:"conversionKind" copoly:"optional"`
+	CompositionKind string        `js:"compositionKind" copoly:"optional"`
+	Element         string        `js:"element" copoly:"optional"`
+	Carrier         float64       `js:"carrier" copoly:"optional"`
+	ElementCount    float64       `js:"elementCount" copoly:"optional"`
+	Rows            []benchRowDTO `js:"rows" limit:"rows"`
+}
+
+type benchRowDTO struct {
+	Label string            `js:"label" copoly:"optional"`
+	Cells map[string]string `js:"cells" copoly:"optional" limit:"cells"`
+}
+
+// benchHeadOut is a BenchTable without its rows; benchValue adds them with their cells in a
+// fixed order, which vert's map conversion does not keep.
+type benchHeadOut struct {
+	FeedKind        string  `js:"feedKind"`
+	ConversionKind  string  `js:"conversionKind"`
+	CompositionKind string  `js:"compositionKind"`
+	Element         string  `js:"element"`
+	Carrier         int     `js:"carrier"`
+	ElementCount    float64 `js:"elementCount"`
+}
+
+// bench converts a BenchTable read from JavaScript and checks its structure; field is its name
+// in errors ("bench", "project.bench").
+func (d benchDTO) bench(field string) (project.Bench, error) {
+	if d.Carrier != math.Trunc(d.Carrier) || math.Abs(d.Carrier) > 1e9 {
+		return project.Bench{}, &copoly.InputError{Field: field + ".carrier", Value: d.Carrier, Reason: "the monomer carrying the element must be 1 or 2 (0 = not chosen)", Err: copoly.ErrOutOfRange}
+	}
+	b := project.Bench{
+		FeedKind: d.FeedKind, ConversionKind: d.ConversionKind, CompositionKind: d.CompositionKind,
+		Element: d.Element, Carrier: int(d.Carrier), ElementCount: d.ElementCount,
+		Rows: make([]project.BenchRow, len(d.Rows)),
+	}
+	for i, r := range d.Rows {
+		b.Rows[i] = project.BenchRow{Label: r.Label, Cells: r.Cells}
+	}
+	return b, project.CheckBench(field, b)
+}
+
+// benchValue returns b as a BenchTable object: rows always a list, cells always an object with
+// its keys in sorted order.
+func benchValue(b project.Bench) js.Value {
+	v := toJS(benchHeadOut{
+		FeedKind: b.FeedKind, ConversionKind: b.ConversionKind, CompositionKind: b.CompositionKind,
+		Element: b.Element, Carrier: b.Carrier, ElementCount: b.ElementCount,
+	})
+	rows := array.New()
+	for i, r := range b.Rows {
+		row := object.New()
+		row.Set("label", r.Label)
+		cells := object.New()
+		for _, k := range slices.Sorted(maps.Keys(r.Cells)) {
+			cells.Set(k, r.Cells[k])
+		}
+		row.Set("cells", cells)
+		rows.SetIndex(i, row)
+	}
+	v.Set("rows", rows)
+	return v
 }
 
 // projectIn is the argument of checkProject, exportProject and saveProject.
@@ -243,13 +599,31 @@ func (d projectDTO) project() (project.Project, error) {
 		Notes:       d.Notes,
 		Invented:    d.Invented,
 		SavedAt:     d.SavedAt,
+		Level:       d.Level,
+	}
+	if d.Bench != nil {
+		b, err := d.Bench.bench("project.bench")
+		if err != nil {
+			return project.Project{}, err
+		}
+		p.Bench = &b
+	}
+	if len(d.JCR) > 0 {
+		p.JCR = make([][2]float64, len(d.JCR))
+		for i, pt := range d.JCR {
+			p.JCR[i] = [2]float64{pt[0], pt[1]} // decode read each point as a pair
+		}
 	}
 	return p, p.Validate()
 }
 
-// projectValue returns p as a JS object; like the file format it leaves out invented when false
-// and savedAt when empty.
+// projectValue returns p as a JS object; like the file format it leaves out invented when false,
+// savedAt when empty, bench when nil, level when 0 and jcr when empty.
 func projectValue(p project.Project) js.Value {
+	var jcr [][]float64
+	for _, pt := range p.JCR {
+		jcr = append(jcr, []float64{pt[0], pt[1]})
+	}
 	v := vert.ValueOf(projectDTO{
 		Format:      p.Format,
 		Version:     float64(p.Version),
@@ -265,12 +639,25 @@ func projectValue(p project.Project) js.Value {
 		Notes:       p.Notes,
 		Invented:    p.Invented,
 		SavedAt:     p.SavedAt,
+		Level:       p.Level,
+		JCR:         jcr,
 	}).JSValue()
 	if !p.Invented {
 		v.Delete("invented")
 	}
 	if p.SavedAt == "" {
 		v.Delete("savedAt")
+	}
+	if p.Bench != nil {
+		v.Set("bench", benchValue(*p.Bench))
+	} else {
+		v.Delete("bench")
+	}
+	if p.Level == 0 {
+		v.Delete("level")
+	}
+	if len(jcr) == 0 {
+		v.Delete("jcr")
 	}
 	return v
 }
@@ -332,7 +719,13 @@ func snapshot(v js.Value, t reflect.Type, prefix string) (js.Value, error) {
 			}
 			return js.Value{}, &copoly.FieldError{Field: field, Reason: "is missing", Err: errMissing}
 		}
-		cv, err := copyValue(fv, ft, field)
+		limit := 0
+		if name := sf.Tag.Get("limit"); name != "" {
+			if limit = limits[name]; limit == 0 {
+				panic("copoly: decode has no limit named " + name)
+			}
+		}
+		cv, err := copyValue(fv, ft, field, limit)
 		if err != nil {
 			return js.Value{}, err
 		}
@@ -341,9 +734,24 @@ func snapshot(v js.Value, t reflect.Type, prefix string) (js.Value, error) {
 	return snap, nil
 }
 
+// limits are the largest sizes of the inputs that carry a limit:"name" tag: entries of a list,
+// keys of a map, or UTF-16 code units of a text (checked before the text is copied into Go).
+var limits = map[string]int{
+	"runs":  copoly.MaxRuns,
+	"rows":  project.MaxRows,
+	"cells": project.MaxCells,
+	"jcr":   project.MaxJCRPoints,
+	"text":  copoly.MaxTableBytes,
+}
+
 // copyValue checks one present JS value against the Go type it will be converted to and
-// returns it, or a plain copy for objects and arrays.
-func copyValue(v js.Value, t reflect.Type, field string) (js.Value, error) {
+// returns it, or a plain copy for objects and arrays. limit is the size limit of the field, 0
+// for none (or the default of a list of numbers).
+//
+// It reads float64, string, bool, structs, []float64, [][]float64 (a list of (r1, r2) pairs,
+// each exactly two numbers), slices of structs (each entry read as an object, named field[i])
+// and map[string]string (an object whose values are all texts, named field.key).
+func copyValue(v js.Value, t reflect.Type, field string, limit int) (js.Value, error) {
 	jt, ok := typeOf(v)
 	switch t.Kind() {
 	case reflect.Float64:
@@ -353,6 +761,11 @@ func copyValue(v js.Value, t reflect.Type, field string) (js.Value, error) {
 		return js.Value{}, wrongType(field, "a number", v)
 	case reflect.String:
 		if ok && jt == js.TypeString {
+			// The length of a primitive string is read through its String wrapper, without
+			// copying the text into Go.
+			if n := object.Invoke(v).Length(); limit > 0 && n > limit {
+				return js.Value{}, &copoly.InputError{Field: field, Value: float64(n), Reason: fmt.Sprintf("the text is %d characters long; the limit is %d", n, limit), Err: copoly.ErrTooMany}
+			}
 			return v, nil
 		}
 		return js.Value{}, wrongType(field, "text", v)
@@ -367,40 +780,47 @@ func copyValue(v js.Value, t reflect.Type, field string) (js.Value, error) {
 		}
 		return js.Value{}, wrongType(field, "an object", v)
 	case reflect.Slice:
-		if t.Elem().Kind() != reflect.Float64 {
-			panic("copoly: decode reads only []float64 slices")
+		switch et := t.Elem(); {
+		case et.Kind() == reflect.Float64:
+			if limit == 0 {
+				limit = copoly.MaxPoints
+			}
+			return copyNumbers(v, field, limit)
+		case et.Kind() == reflect.Slice && et.Elem().Kind() == reflect.Float64 && limit > 0:
+			return copyList(v, field, limit, "a list of [r1, r2] pairs", func(e js.Value, f string) (js.Value, error) {
+				cp, err := copyNumbers(e, f, 2)
+				if errors.Is(err, copoly.ErrTooMany) || err == nil && cp.Length() != 2 {
+					return js.Value{}, &copoly.FieldError{Field: f, Reason: "must be a pair [r1, r2] of two numbers", Err: errWrongType}
+				}
+				return cp, err
+			})
+		case et.Kind() == reflect.Struct && limit > 0:
+			return copyList(v, field, limit, "a list of objects", func(e js.Value, f string) (js.Value, error) {
+				if jt, ok := typeOf(e); !ok || jt != js.TypeObject || isArray(e) {
+					return js.Value{}, wrongType(f, "an object", e)
+				}
+				return snapshot(e, et, f+".")
+			})
 		}
-		return copyNumbers(v, field)
-	default:
-		panic("copoly: decode cannot read a " + t.String())
+	case reflect.Map:
+		if t.Key().Kind() == reflect.String && t.Elem().Kind() == reflect.String && limit > 0 {
+			return copyTexts(v, field, limit)
+		}
 	}
+	panic("copoly: decode cannot read a " + t.String() + " (or it lacks a limit tag)")
 }
 
-// copyNumbers returns a plain Array copy of v, an Array or typed array of at most
-// copoly.MaxPoints numbers. The length is checked before anything is copied.
-func copyNumbers(v js.Value, field string) (js.Value, error) {
+// copyNumbers returns a plain Array copy of v, an Array or typed array of at most limit
+// numbers. The length is checked before anything is copied.
+func copyNumbers(v js.Value, field string, limit int) (js.Value, error) {
 	if jt, ok := typeOf(v); !ok || jt != js.TypeObject || !(isArray(v) || isNumberView(v)) {
 		return js.Value{}, wrongType(field, "a list of numbers", v)
 	}
-	n, err := get(v, "length", field)
+	cp, err := copyArray(v, field, limit, "values", "a list of numbers")
 	if err != nil {
 		return js.Value{}, err
 	}
-	if nt, ok := typeOf(n); !ok || nt != js.TypeNumber {
-		return js.Value{}, wrongType(field, "a list of numbers", v)
-	}
-	if n.Float() > copoly.MaxPoints {
-		return js.Value{}, tooMany(field, n.Float())
-	}
-	var cp js.Value
-	if err := try(func() { cp = array.Call("from", v) }); err != nil {
-		return js.Value{}, &copoly.FieldError{Field: field, Reason: "cannot be read: " + err.Error(), Err: errWrongType}
-	}
-	m := cp.Length()
-	if m > copoly.MaxPoints {
-		return js.Value{}, tooMany(field, float64(m))
-	}
-	for i := range m {
+	for i := range cp.Length() {
 		e := cp.Index(i)
 		if et, ok := typeOf(e); !ok || et != js.TypeNumber {
 			return js.Value{}, wrongType(fmt.Sprintf("%s[%d]", field, i), "a number", e)
@@ -409,8 +829,82 @@ func copyNumbers(v js.Value, field string) (js.Value, error) {
 	return cp, nil
 }
 
-func tooMany(field string, n float64) error {
-	return &copoly.InputError{Field: field, Value: n, Reason: fmt.Sprintf("at most %d values per call", copoly.MaxPoints), Err: copoly.ErrTooMany}
+// copyList returns a new Array holding each entry of the Array v read by each, which names
+// the entry field[i]. v may hold at most limit entries.
+func copyList(v js.Value, field string, limit int, want string, each func(e js.Value, field string) (js.Value, error)) (js.Value, error) {
+	if jt, ok := typeOf(v); !ok || jt != js.TypeObject || !isArray(v) {
+		return js.Value{}, wrongType(field, want, v)
+	}
+	cp, err := copyArray(v, field, limit, "entries", want)
+	if err != nil {
+		return js.Value{}, err
+	}
+	out := array.New()
+	for i := range cp.Length() {
+		e, err := each(cp.Index(i), fmt.Sprintf("%s[%d]", field, i))
+		if err != nil {
+			return js.Value{}, err
+		}
+		out.SetIndex(i, e)
+	}
+	return out, nil
+}
+
+// copyArray returns Array.from(v) for an array-like v of at most limit entries (unit names them
+// in the error). The length is checked before anything is copied.
+func copyArray(v js.Value, field string, limit int, unit, want string) (js.Value, error) {
+	n, err := get(v, "length", field)
+	if err != nil {
+		return js.Value{}, err
+	}
+	if nt, ok := typeOf(n); !ok || nt != js.TypeNumber {
+		return js.Value{}, wrongType(field, want, v)
+	}
+	if n.Float() > float64(limit) {
+		return js.Value{}, tooMany(field, n.Float(), limit, unit)
+	}
+	var cp js.Value
+	if err := try(func() { cp = array.Call("from", v) }); err != nil {
+		return js.Value{}, &copoly.FieldError{Field: field, Reason: "cannot be read: " + err.Error(), Err: errWrongType}
+	}
+	if m := cp.Length(); m > limit {
+		return js.Value{}, tooMany(field, float64(m), limit, unit)
+	}
+	return cp, nil
+}
+
+// copyTexts returns a copy of the object v, whose own enumerable keys (at most limit) must all
+// hold texts. The copy has no prototype, so a key such as "__proto__" stays an ordinary key
+// and reaches the checks of the caller instead of vanishing.
+func copyTexts(v js.Value, field string, limit int) (js.Value, error) {
+	if jt, ok := typeOf(v); !ok || jt != js.TypeObject || isArray(v) {
+		return js.Value{}, wrongType(field, "an object of texts", v)
+	}
+	var keys js.Value
+	if err := try(func() { keys = object.Call("keys", v) }); err != nil {
+		return js.Value{}, &copoly.FieldError{Field: field, Reason: "cannot be read: " + err.Error(), Err: errWrongType}
+	}
+	n := keys.Length()
+	if n > limit {
+		return js.Value{}, tooMany(field, float64(n), limit, "entries")
+	}
+	cp := object.Call("create", js.Null())
+	for i := range n {
+		k := keys.Index(i).String()
+		e, err := get(v, k, field+"."+k)
+		if err != nil {
+			return js.Value{}, err
+		}
+		if et, ok := typeOf(e); !ok || et != js.TypeString {
+			return js.Value{}, wrongType(field+"."+k, "text", e)
+		}
+		cp.Set(k, e)
+	}
+	return cp, nil
+}
+
+func tooMany(field string, n float64, limit int, unit string) error {
+	return &copoly.InputError{Field: field, Value: n, Reason: fmt.Sprintf("at most %d %s per call", limit, unit), Err: copoly.ErrTooMany}
 }
 
 // get returns v[key] read with Reflect.get inside a JS call, so that a throwing getter or

@@ -113,7 +113,8 @@ func TestArguments(t *testing.T) {
 		{"function", []any{jsEval("() => 1")}, "a function"},
 		{"two objects", []any{map[string]any{}, map[string]any{}}, "2 arguments"},
 	}
-	required := []string{"composition", "feedFor", "drift", "sequence", "chains", "checkProject", "exportProject", "importProject"}
+	required := []string{"composition", "feedFor", "drift", "sequence", "chains", "checkProject", "exportProject", "importProject",
+		"benchRuns", "pasteBench", "fit", "nextRuns", "qe"}
 	for _, method := range required {
 		for _, tt := range bad {
 			t.Run(method+"/"+tt.name, func(t *testing.T) {

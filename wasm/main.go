@@ -24,12 +24,18 @@
 //	copoly.checkProject({project})
 //	copoly.exportProject({project})  → {json, filename}
 //	copoly.importProject({json})
+//	copoly.benchRuns({bench, molarMass1?, molarMass2?})
+//	copoly.pasteBench({bench, text}) → {bench}
+//	copoly.fit({runs, level?})
+//	copoly.nextRuns({r1, r2, runs?, conversions?})
+//	copoly.qe({monomer1, monomer2})
 //	copoly.loadProject()             → Promise
 //	copoly.saveProject({project})    → Promise
 //
 // Every method takes one plain object (optional for library, demoProject and loadProject) and
 // returns one plain object. Bad input never throws: the result is then {error, field}, where
-// field names the input at fault ("r1", "f1[3]", "project.monomer1.molarMass", "arguments").
+// field names the input at fault ("r1", "f1[3]", "runs[2].F1", "bench.rows[3].cells.f10",
+// "project.monomer1.molarMass", "arguments").
 // A Go panic inside a method is recovered and reported the same way with an "internal error"
 // message, so the module keeps answering. loadProject and saveProject return Promises that
 // always resolve, never reject.
