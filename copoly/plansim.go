@@ -1,0 +1,201 @@
+package copoly
+
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"sort"
+)
+
+// simulate runs the plan's schedule of charges and additions in a reactor whose monomers follow
+// the terminal model m, which may differ from the model the plan was made with. The additions are
+// tied to the polymer formed, as a chemist following the schedule by measured conversion would
+// add them: over each row the metered amounts enter in proportion to the polymer formed, a row
+// without polymer formed is a shot. The reactor balances per mole of polymer formed,
+//
+//	dN1/dn = a1 − F1(f1),  dN2/dn = a2 − (1 − F1(f1)),  f1 = N1/(N1 + N2)
+//
+// are integrated by the classical fourth-order Runge–Kutta method, sub steps per row. It
+// returns the instantaneous and cumulative composition at the end of each row.
+func (in *PlanInput) simulate(p *Plan, m Terminal, sub int) (inst, cum []float64) {
+	n1, n2 := p.Moles1, p.Moles2
+	inst = make([]float64, len(p.Schedule))
+	cum = make([]float64, len(p.Schedule))
+	var poly1, polyN float64
+	f := func(n1, n2 float64) float64 {
+		t := n1 + n2
+		if t <= 0 {
+			return in.TargetF1
+		}
+		return m.Instantaneous(math.Min(1, math.Max(0, n1/t)))
+	}
+	inst[0] = f(n1, n2)
+	cum[0] = inst[0]
+	for i := 1; i < len(p.Schedule); i++ {
+		a, b := p.Schedule[i-1], p.Schedule[i]
+		add1 := (b.Fed1 - a.Fed1) / in.MolarMass1
+		add2 := (b.Fed2 - a.Fed2) / in.MolarMass2
+		// Polymer formed over the row, in mol of units, from the planned mass and cumulative
+		// composition.
+		dn := b.Polymer/in.unitMass(b.Cum) - a.Polymer/in.unitMass(a.Cum)
+		if dn <= 0 {
+			n1 += add1
+			n2 += add2
+			inst[i], cum[i] = f(n1, n2), cum[i-1]
+			continue
+		}
+		r1, r2 := add1/dn, add2/dn
+		h := dn / float64(sub)
+		rhs := func(x1, x2 float64) (float64, float64) {
+			F := f(x1, x2)
+			return r1 - F, r2 - (1 - F)
+		}
+		for range sub {
+			k1a, k1b := rhs(n1, n2)
+			k2a, k2b := rhs(n1+h/2*k1a, n2+h/2*k1b)
+			k3a, k3b := rhs(n1+h/2*k2a, n2+h/2*k2b)
+			k4a, k4b := rhs(n1+h*k3a, n2+h*k3b)
+			d1 := h / 6 * (k1a + 2*k2a + 2*k3a + k4a)
+			d2 := h / 6 * (k1b + 2*k2b + 2*k3b + k4b)
+			// Polymer of M1 formed = added − change of the unreacted M1.
+			poly1 += r1*h - d1
+			polyN += h
+			n1, n2 = math.Max(0, n1+d1), math.Max(0, n2+d2)
+		}
+		inst[i] = f(n1, n2)
+		cum[i] = poly1 / polyN
+	}
+	return inst, cum
+}
+
+// Band is the spread of a plan's outcome over the reactivity ratios allowed by their joint
+// confidence region.
+type Band struct {
+	// Samples is the number of (r1, r2) pairs drawn inside the region.
+	Samples int
+	// InstLow … CumHigh are the 2.5 % and 97.5 % quantiles over the samples of the instantaneous
+	// and cumulative copolymer composition at each schedule row.
+	InstLow, InstHigh, CumLow, CumHigh []float64
+	// ProductLow and ProductHigh bound the composition of the whole product (the last row).
+	ProductLow, ProductHigh float64
+}
+
+// MaxBandSamples bounds [PlanBand].
+const MaxBandSamples = 5000
+
+// PlanBand draws samples pairs (r1, r2) uniformly inside the polygon region (the joint
+// confidence region of the ratios, as traced by [FitNonlinear]), runs the plan's schedule with
+// each (see simulate; a batch simply drifts from its charge), and returns the 95 % band of the
+// instantaneous and cumulative composition along the schedule. The sampling is seeded and
+// reproducible.
+func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint64) (Band, error) {
+	if err := in.validate(); err != nil {
+		return Band{}, err
+	}
+	if len(region) < 3 || len(region) > 4096 {
+		return Band{}, &InputError{Field: "jcr", Value: float64(len(region)), Reason: "a region needs between 3 and 4096 boundary points", Err: ErrOutOfRange}
+	}
+	lo1, hi1, lo2, hi2 := math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
+	for i, q := range region {
+		for k, v := range q {
+			if err := CheckRatio(fmt.Sprintf("jcr[%d][%d]", i, k), v); err != nil {
+				return Band{}, err
+			}
+		}
+		lo1, hi1 = math.Min(lo1, q[0]), math.Max(hi1, q[0])
+		lo2, hi2 = math.Min(lo2, q[1]), math.Max(hi2, q[1])
+	}
+	if samples < 10 || samples > MaxBandSamples {
+		return Band{}, &InputError{Field: "samples", Value: float64(samples), Reason: fmt.Sprintf("between 10 and %d samples", MaxBandSamples), Err: ErrOutOfRange}
+	}
+	rng := rand.New(rand.NewPCG(seed, 0x6a6372))
+	rows := len(p.Schedule)
+	inst := make([][]float64, rows)
+	cum := make([][]float64, rows)
+	drawn, tries := 0, 0
+	for drawn < samples && tries < 1000*samples {
+		tries++
+		r1 := lo1 + (hi1-lo1)*rng.Float64()
+		r2 := lo2 + (hi2-lo2)*rng.Float64()
+		if !insidePolygon(region, r1, r2) {
+			continue
+		}
+		drawn++
+		a, c := in.outcome(p, Terminal{r1, r2})
+		for i := range rows {
+			inst[i] = append(inst[i], a[i])
+			cum[i] = append(cum[i], c[i])
+		}
+	}
+	if drawn < samples {
+		return Band{}, &FieldError{Field: "jcr", Reason: "the region has no area to sample from", Err: ErrOutOfRange}
+	}
+	b := Band{Samples: drawn, InstLow: make([]float64, rows), InstHigh: make([]float64, rows), CumLow: make([]float64, rows), CumHigh: make([]float64, rows)}
+	for i := range rows {
+		b.InstLow[i], b.InstHigh[i] = quantiles(inst[i])
+		b.CumLow[i], b.CumHigh[i] = quantiles(cum[i])
+	}
+	b.ProductLow, b.ProductHigh = b.CumLow[rows-1], b.CumHigh[rows-1]
+	return b, nil
+}
+
+// outcome returns the instantaneous and cumulative composition along the plan's schedule when
+// the monomers follow m.
+func (in *PlanInput) outcome(p *Plan, m Terminal) (inst, cum []float64) {
+	if p.Mode != PlanBatch {
+		return in.simulate(p, m, 2)
+	}
+	xs := make([]float64, len(p.Schedule))
+	for i, r := range p.Schedule {
+		xs[i] = r.Conversion
+	}
+	b, _ := newBatch(m, p.StartF1)
+	for i := range xs {
+		xs[i] = math.Min(xs[i], b.xmax)
+	}
+	d, err := m.Drift(p.StartF1, xs)
+	if err != nil {
+		nan := make([]float64, len(xs))
+		for i := range nan {
+			nan[i] = math.NaN()
+		}
+		return nan, nan
+	}
+	return d.Inst, d.Cum
+}
+
+// quantiles returns the 2.5 % and 97.5 % quantiles of v (linear interpolation between order
+// statistics), ignoring NaN.
+func quantiles(v []float64) (lo, hi float64) {
+	s := make([]float64, 0, len(v))
+	for _, x := range v {
+		if !math.IsNaN(x) {
+			s = append(s, x)
+		}
+	}
+	if len(s) == 0 {
+		return math.NaN(), math.NaN()
+	}
+	sort.Float64s(s)
+	q := func(p float64) float64 {
+		x := p * float64(len(s)-1)
+		i := int(x)
+		if i+1 >= len(s) {
+			return s[len(s)-1]
+		}
+		return s[i] + (x-float64(i))*(s[i+1]-s[i])
+	}
+	return q(0.025), q(0.975)
+}
+
+// insidePolygon reports whether (x, y) lies inside the closed polygon (even–odd rule).
+func insidePolygon(poly [][2]float64, x, y float64) bool {
+	in := false
+	for i, j := 0, len(poly)-1; i < len(poly); j, i = i, i+1 {
+		xi, yi, xj, yj := poly[i][0], poly[i][1], poly[j][0], poly[j][1]
+		if (yi > y) != (yj > y) && x < (xj-xi)*(y-yi)/(yj-yi)+xi {
+			in = !in
+		}
+	}
+	return in
+}
