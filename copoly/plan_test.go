@@ -52,7 +52,7 @@ func TestPlanSemibatchFasterMonomer(t *testing.T) {
 	}
 	// An independent integration of the reactor balances with the planned additions holds the
 	// composition at the target.
-	inst, cum := in.simulate(p, in.Model, 4)
+	inst, cum := in.simulate(p, in.additions(p), in.Model, 4)
 	for i := range inst {
 		if math.Abs(inst[i]-0.5) > 1e-9 || math.Abs(cum[i]-0.5) > 1e-9 {
 			t.Fatalf("row %d: simulated F1 %v, F̄1 %v", i, inst[i], cum[i])
@@ -163,7 +163,7 @@ func TestPlanShots(t *testing.T) {
 		}
 	}
 	// Shots replay through the independent reactor integration.
-	inst, _ := in.simulate(p, in.Model, 8)
+	inst, _ := in.simulate(p, in.additions(p), in.Model, 8)
 	for i := range inst {
 		if math.Abs(inst[i]-p.Schedule[i].Inst) > 1e-6 {
 			t.Fatalf("row %d: simulated F1 %v, plan %v", i, inst[i], p.Schedule[i].Inst)

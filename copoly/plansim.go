@@ -7,6 +7,24 @@ import (
 	"sort"
 )
 
+// additions are a plan's schedule as the chemist carries it out: per row, the polymer formed
+// (mol of units) and the moles of M1 and M2 added over it.
+type additions struct{ dn, add1, add2 []float64 }
+
+func (in *PlanInput) additions(p *Plan) additions {
+	n := len(p.Schedule)
+	ad := additions{make([]float64, n), make([]float64, n), make([]float64, n)}
+	for i := 1; i < n; i++ {
+		a, b := p.Schedule[i-1], p.Schedule[i]
+		ad.add1[i] = (b.Fed1 - a.Fed1) / in.MolarMass1
+		ad.add2[i] = (b.Fed2 - a.Fed2) / in.MolarMass2
+		// Polymer formed over the row, in mol of units, from the planned mass and cumulative
+		// composition.
+		ad.dn[i] = b.Polymer/in.unitMass(b.Cum) - a.Polymer/in.unitMass(a.Cum)
+	}
+	return ad
+}
+
 // simulate runs the plan's schedule of charges and additions in a reactor whose monomers follow
 // the terminal model m, which may differ from the model the plan was made with. The additions are
 // tied to the polymer formed, as a chemist following the schedule by measured conversion would
@@ -17,7 +35,7 @@ import (
 //
 // are integrated by the classical fourth-order Runge–Kutta method, sub steps per row. It
 // returns the instantaneous and cumulative composition at the end of each row.
-func (in *PlanInput) simulate(p *Plan, m Terminal, sub int) (inst, cum []float64) {
+func (in *PlanInput) simulate(p *Plan, ad additions, m Terminal, sub int) (inst, cum []float64) {
 	n1, n2 := p.Moles1, p.Moles2
 	inst = make([]float64, len(p.Schedule))
 	cum = make([]float64, len(p.Schedule))
@@ -27,40 +45,47 @@ func (in *PlanInput) simulate(p *Plan, m Terminal, sub int) (inst, cum []float64
 		if t <= 0 {
 			return in.TargetF1
 		}
-		return m.Instantaneous(math.Min(1, math.Max(0, n1/t)))
+		x := n1 / t
+		if x < 0 {
+			x = 0
+		} else if x > 1 {
+			x = 1
+		}
+		return m.Instantaneous(x)
 	}
 	inst[0] = f(n1, n2)
 	cum[0] = inst[0]
 	for i := 1; i < len(p.Schedule); i++ {
-		a, b := p.Schedule[i-1], p.Schedule[i]
-		add1 := (b.Fed1 - a.Fed1) / in.MolarMass1
-		add2 := (b.Fed2 - a.Fed2) / in.MolarMass2
-		// Polymer formed over the row, in mol of units, from the planned mass and cumulative
-		// composition.
-		dn := b.Polymer/in.unitMass(b.Cum) - a.Polymer/in.unitMass(a.Cum)
+		dn := ad.dn[i]
 		if dn <= 0 {
-			n1 += add1
-			n2 += add2
+			n1 += ad.add1[i]
+			n2 += ad.add2[i]
 			inst[i], cum[i] = f(n1, n2), cum[i-1]
 			continue
 		}
-		r1, r2 := add1/dn, add2/dn
+		r1, r2 := ad.add1[i]/dn, ad.add2[i]/dn
 		h := dn / float64(sub)
-		rhs := func(x1, x2 float64) (float64, float64) {
-			F := f(x1, x2)
-			return r1 - F, r2 - (1 - F)
-		}
 		for range sub {
-			k1a, k1b := rhs(n1, n2)
-			k2a, k2b := rhs(n1+h/2*k1a, n2+h/2*k1b)
-			k3a, k3b := rhs(n1+h/2*k2a, n2+h/2*k2b)
-			k4a, k4b := rhs(n1+h*k3a, n2+h*k3b)
+			F1 := f(n1, n2)
+			k1a, k1b := r1-F1, r2-(1-F1)
+			F2 := f(n1+h/2*k1a, n2+h/2*k1b)
+			k2a, k2b := r1-F2, r2-(1-F2)
+			F3 := f(n1+h/2*k2a, n2+h/2*k2b)
+			k3a, k3b := r1-F3, r2-(1-F3)
+			F4 := f(n1+h*k3a, n2+h*k3b)
+			k4a, k4b := r1-F4, r2-(1-F4)
 			d1 := h / 6 * (k1a + 2*k2a + 2*k3a + k4a)
 			d2 := h / 6 * (k1b + 2*k2b + 2*k3b + k4b)
 			// Polymer of M1 formed = added − change of the unreacted M1.
 			poly1 += r1*h - d1
 			polyN += h
-			n1, n2 = math.Max(0, n1+d1), math.Max(0, n2+d2)
+			n1, n2 = n1+d1, n2+d2
+			if n1 < 0 {
+				n1 = 0
+			}
+			if n2 < 0 {
+				n2 = 0
+			}
 		}
 		inst[i] = f(n1, n2)
 		cum[i] = poly1 / polyN
@@ -112,6 +137,7 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 	rows := len(p.Schedule)
 	inst := make([][]float64, rows)
 	cum := make([][]float64, rows)
+	ad := in.additions(p)
 	drawn, tries := 0, 0
 	for drawn < samples && tries < 1000*samples {
 		tries++
@@ -121,7 +147,7 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 			continue
 		}
 		drawn++
-		a, c := in.outcome(p, Terminal{r1, r2})
+		a, c := in.outcome(p, ad, Terminal{r1, r2})
 		for i := range rows {
 			inst[i] = append(inst[i], a[i])
 			cum[i] = append(cum[i], c[i])
@@ -141,9 +167,9 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 
 // outcome returns the instantaneous and cumulative composition along the plan's schedule when
 // the monomers follow m.
-func (in *PlanInput) outcome(p *Plan, m Terminal) (inst, cum []float64) {
+func (in *PlanInput) outcome(p *Plan, ad additions, m Terminal) (inst, cum []float64) {
 	if p.Mode != PlanBatch {
-		return in.simulate(p, m, 2)
+		return in.simulate(p, ad, m, 1)
 	}
 	xs := make([]float64, len(p.Schedule))
 	for i, r := range p.Schedule {
