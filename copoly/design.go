@@ -8,8 +8,9 @@ import (
 // Design suggests where to run the next copolymerizations to shrink the joint confidence region
 // of (r1, r2) the most.
 type Design struct {
-	// TidwellMortimer holds the two feeds f1′ ≈ 2/(2 + r1) and f1″ ≈ r2/(2 + r2), the widely
-	// quoted approximation to the D-optimal design at low conversion.
+	// TidwellMortimer holds the two feeds f1″ ≈ r2/(2 + r2) and f1′ ≈ 2/(2 + r1) (in that order,
+	// ascending for any r1, r2 ≥ 0), the widely quoted approximation to the D-optimal design at
+	// low conversion.
 	TidwellMortimer [2]float64
 	// DOptimal holds the exact D-optimal pair of low-conversion feeds: the two feeds that
 	// maximise det(JᵀJ), J the sensitivities ∂F1/∂(r1, r2) of the Mayo–Lewis equation.
@@ -79,7 +80,7 @@ func NextRuns(r1, r2 float64, made []Run, conversions []float64) (Design, error)
 		}
 	}
 	var d Design
-	d.TidwellMortimer = [2]float64{2 / (2 + r1), r2 / (2 + r2)}
+	d.TidwellMortimer = [2]float64{r2 / (2 + r2), 2 / (2 + r1)} // ascending, like DOptimal
 	d.DOptimal = m.dOptimalPair()
 	d.Middle = 0.5 * (d.DOptimal[0] + d.DOptimal[1])
 

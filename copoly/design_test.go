@@ -16,9 +16,9 @@ func TestDOptimalPair(t *testing.T) {
 	if math.Abs(d.DOptimal[0]-want[0]) > 1e-6 || math.Abs(d.DOptimal[1]-want[1]) > 1e-6 {
 		t.Errorf("D-optimal pair for r = 1: %v, want %v", d.DOptimal, want)
 	}
-	// Tidwell–Mortimer feeds 2/(2 + r1) and r2/(2 + r2): 2/3 and 1/3 here (Tidwell & Mortimer
+	// Tidwell–Mortimer feeds r2/(2 + r2) and 2/(2 + r1): 1/3 and 2/3 here (Tidwell & Mortimer
 	// 1965, as the formulas are widely quoted; from memory).
-	if math.Abs(d.TidwellMortimer[0]-2.0/3) > 1e-15 || math.Abs(d.TidwellMortimer[1]-1.0/3) > 1e-15 {
+	if math.Abs(d.TidwellMortimer[0]-1.0/3) > 1e-15 || math.Abs(d.TidwellMortimer[1]-2.0/3) > 1e-15 {
 		t.Errorf("Tidwell–Mortimer feeds %v", d.TidwellMortimer)
 	}
 	// For small ratios the approximation is close to the exact optimum (St/MAH-like pair).

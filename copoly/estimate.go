@@ -182,7 +182,8 @@ func trend(v, res []float64) Trend {
 	n := len(v)
 	slope, icpt, ok := ols(v, res)
 	if !ok || n < 3 {
-		return Trend{}
+		// No spread in the variable (e.g. no conversions given): no evidence of a trend.
+		return Trend{PValue: 1}
 	}
 	var mv, sxx, sse float64
 	for _, x := range v {

@@ -136,7 +136,7 @@ export interface Region {
 }
 
 export interface NonlinearFit {
-  r1: number; r2: number; se1: number; se2: number; corr: number;
+  r1: number; r2: number; se1: number | null; se2: number | null; corr: number | null;  // null when the fit is singular
   ssr: number;                       // Σe² (unweighted) or χ² (weighted)
   weighted: boolean; n: number; dof: number;
   reducedChi2?: number; pValue?: number;   // when weighted
@@ -148,7 +148,7 @@ export interface NonlinearFit {
 }
 
 export interface EVMFit {
-  r1: number; r2: number; se1: number; se2: number; corr: number;
+  r1: number; r2: number; se1: number | null; se2: number | null; corr: number | null;
   phi: number; reducedChi2: number; pValue: number;
   feed: number[]; conversion: number[]; composition: number[];  // fitted true values per run
   jcr: [number, number][]; region: Region;
@@ -171,11 +171,48 @@ export interface FitResult {
 }
 
 export interface NextRunsResult {
-  tidwellMortimer: [number, number];   // approximate feeds 2/(2+r1), r2/(2+r2)
+  tidwellMortimer: [number, number];   // approximate feeds r2/(2+r2), 2/(2+r1), ascending
   dOptimal: [number, number];          // exact D-optimal low-conversion pair
   middle: number;                      // an extra middle feed to expose misfit
   next: { f10: number; conversion: number }[];   // best two runs given the runs made
   shrink: number;                      // factor on the region's area (0 when no runs were given)
+}
+
+// ---- Feed planning ----
+
+export interface MonomerData {       // one entry of library().monomers (fields beyond name/molarMass/source)
+  name: string; formula: string; molarMass: number; source: string;
+  state: "liquid" | "gas" | "solid";
+  density: number; densityTemp: number; densitySource: string;   // g/mL at densityTemp °C
+  heat: number; heatSource: string;                               // −ΔHp, kJ/mol
+  q: number | null; e: number | null; qeSource: string;            // Alfrey–Price Q, e (screening only)
+  hazards: string[]; hazardSource: string;
+}
+
+export interface PlanRow {
+  conversion: number;   // overall molar conversion of all monomer charged and fed so far
+  polymer: number;      // g of copolymer formed so far (reaches polymerMass at the end)
+  fed1: number; fed2: number;   // g of M1, M2 added after the initial charge, cumulative
+  f1: number; F1: number; F1cum: number;   // unreacted feed, instantaneous and cumulative copolymer
+  inventory: number;    // g of unreacted monomer in the reactor
+  time: number | null;  // min, when a rate law or a conversion–time table is given
+  pump1: number | null; pump2: number | null;   // g/min over the step ending at this row
+}
+
+export interface PlanResult {
+  mode: "batch" | "semibatch" | "shots";
+  startF1: number;                     // feed composition of the initial charge
+  initial: { m1: number; m2: number; n1: number; n2: number; v1: number | null; v2: number | null };  // g, mol, mL (liquids with a known density)
+  total: { m1: number; m2: number };   // all monomer used, charged + fed, g
+  feedF1: number; feedPerPolymer: number;   // metered stream composition; mol fed per mol polymer (semibatch)
+  stopConversion: number; productF1: number; maxDeviation: number;
+  schedule: PlanRow[];
+  shots: { polymer: number; m1: number; m2: number; time: number | null }[];
+  distribution: { edges: number[]; weights: number[]; basis: "mass" | "moles" };
+  inventoryMax: number;                // g
+  safety: { inventoryMax: number; inventoryAt: number; heat: number | null; rise: number | null; riseLimit: number; flagged: boolean; batchMass: number; heatCapacity: number; hazards: { monomer: string; hazards: string[] }[] };
+  band?: { samples: number; F1Low: number[]; F1High: number[]; F1cumLow: number[]; F1cumHigh: number[]; productLow: number; productHigh: number };  // when jcr is given
+  notes: string[];
 }
 
 export interface Project {
@@ -196,6 +233,11 @@ export interface Project {
   bench?: BenchTable;           // the bench-data grid, as typed
   level?: number;               // confidence level of the joint region (default 0.95)
   jcr?: [number, number][];     // the region of the ratios in use, when they came from a fit ("use these ratios")
+  plan?: {                      // the planning panel's inputs, as the user left them (all optional)
+    mode?: string; targetF1?: number; polymerMass?: number; tolerance?: number; stopConversion?: number;
+    finalConversion?: number; feed?: string; feedF1?: number; shots?: number;
+    rateConstant?: number; halfLife?: number; batchMass?: number; heatCapacity?: number; riseLimit?: number;
+  };
 }
 
 export interface StorageLoad {
@@ -227,6 +269,24 @@ export interface Copoly {
   pasteBench(a: { bench: BenchTable; text: string }): { bench: BenchTable } | CopolyError;  // rows appended; header names map columns
   fit(a: { runs: Run[]; level?: number }): FitResult | CopolyError;
   nextRuns(a: { r1: number; r2: number; runs?: Run[]; conversions?: number[] }): NextRunsResult | CopolyError;
+  plan(a: {
+    r1: number; r2: number; targetF1: number;
+    molarMass1: number; molarMass2: number;   // g/mol
+    polymerMass: number;                      // g of copolymer to make
+    mode: "batch" | "semibatch" | "shots";
+    monomer1?: string; monomer2?: string;     // library names: densities (mL), heats and hazards
+    tolerance?: number;                       // ± on F1, default 0.02
+    stopConversion?: number;                  // batch: default the conversion limit for the tolerance
+    finalConversion?: number;                 // semibatch/shots: overall conversion at the end, default 0.95
+    feed?: "faster" | "mixture"; feedF1?: number;   // semibatch stream (mixture default: at targetF1 = starved feed)
+    shots?: number;                           // 0/absent: the fewest within the tolerance
+    steps?: number;                           // schedule rows, default 200
+    rateConstant?: number; halfLife?: number; timeTable?: [number, number][];  // 1/min; min; (min, conversion) rows
+    heat1?: number; heat2?: number;           // −ΔHp kJ/mol (default from the library when names match)
+    batchMass?: number; heatCapacity?: number; riseLimit?: number;   // g; J/(g·K), default 2.0; K, default 50
+    jcr?: [number, number][]; samples?: number; seed?: number;       // uncertainty band (default 500 samples)
+  }): PlanResult | CopolyError;
+  starvedFeed(a: { r1: number; r2: number; targetF1: number; feedRate: number; rateConstant: number; molarMass1: number; molarMass2: number }): { inventory: number; f1: number } | CopolyError;
   qe(a: { monomer1: string; monomer2: string }): { r1: number; r2: number; q1: number; e1: number; q2: number; e2: number; source1: string; source2: string } | CopolyError;  // screening estimate
   loadProject(a?: {}): Promise<StorageLoad | CopolyError>;
   saveProject(a: { project: Project }): Promise<{ saved: true; storage: "indexeddb"; savedAt: string } | CopolyError>;
