@@ -550,9 +550,9 @@ func TestNextRuns(t *testing.T) {
 		}
 		r := call(api, "nextRuns", map[string]any{"r1": 0.8, "r2": 0.15})
 		check(t, r, d)
-		// Tidwell–Mortimer 1965 approximate feeds: 2/(2 + r1) and r2/(2 + r2).
-		if tm := floatsOf(t, r.Get("tidwellMortimer")); !scalar.EqualWithinAbsOrRel(tm[0], 2/2.8, 1e-15, 1e-15) || !scalar.EqualWithinAbsOrRel(tm[1], 0.15/2.15, 1e-15, 1e-15) {
-			t.Errorf("tidwellMortimer = %v, want [2/2.8, 0.15/2.15]", tm)
+		// Tidwell–Mortimer 1965 approximate feeds, ascending: r2/(2 + r2) and 2/(2 + r1).
+		if tm := floatsOf(t, r.Get("tidwellMortimer")); !scalar.EqualWithinAbsOrRel(tm[0], 0.15/2.15, 1e-15, 1e-15) || !scalar.EqualWithinAbsOrRel(tm[1], 2/2.8, 1e-15, 1e-15) {
+			t.Errorf("tidwellMortimer = %v, want [0.15/2.15, 2/2.8]", tm)
 		}
 		if r.Get("shrink").Float() != 0 {
 			t.Errorf("shrink with no runs = %v, want 0 (copoly.Design)", r.Get("shrink").Float())
