@@ -237,6 +237,9 @@
       notes: $("#notes").value,
     };
     delete project.savedAt;
+    // The stored region belongs to the ratios it was fitted with; typed ratios have none.
+    if (state.formJcr && state.formJcr.length) project.jcr = state.formJcr;
+    else delete project.jcr;
     return errors.length ? { errors } : { project };
   }
 
@@ -254,6 +257,9 @@
     $("#conversion").value = shortNum(p.conversion);
     $("#tolerance").value = shortNum(p.tolerance);
     for (const sel of PROJECT_INPUTS) clearFieldError($(sel));
+    state.formJcr = Array.isArray(p.jcr) && p.jcr.length ? p.jcr : null;
+    $("#fit-level").value = shortNum(p.level > 0 ? p.level : DEFAULT_LEVEL);
+    clearFieldError($("#fit-level"));
   }
 
   // ---- State, recompute and save ------------------------------------------------------------
@@ -266,6 +272,7 @@
     invalid: false,
     seed: 1,
     previous: null, // the project replaced by the demo or an import, for "Bring it back"
+    formJcr: null, // the joint confidence region of the ratios in the form, when they came from a fit
   };
   let saveTimer = 0;
 
@@ -284,6 +291,7 @@
     document.querySelectorAll(".stale-note").forEach((n) => { n.hidden = true; });
     state.project = p;
     updateBadge();
+    afterProjectChange(p);
     scheduleSave();
   }
 
@@ -358,6 +366,7 @@
     fillForm(p);
     updateBadge();
     recompute();
+    loadBench();
   }
 
   // ---- Drawing ------------------------------------------------------------------------------
@@ -416,6 +425,7 @@
     if (isError(seq)) fail(seq); else drawSequence(p, seq);
     if (isError(chains)) fail(chains); else drawChains(p, chains);
     drawLibraryNotes(p);
+    drawJcrNote(p);
     if (!errors.length) drawFeedFor(p);
     return errors;
   }
@@ -656,6 +666,941 @@
     actions.append(button("Draw other chains", () => { state.seed++; recompute(); }));
   }
 
+  // ---- Bench data -----------------------------------------------------------------------------
+  //
+  // The grid is state.project.bench (BenchTable in site/copoly.d.ts): the text of every cell as
+  // typed, saved with the project after every edit. copoly.benchRuns converts it; a cell it
+  // cannot read is marked in its row and never stops the other rows, or the saving, from going on.
+
+  const FIT_DELAY_MS = 250;
+  const MIN_FIT_RUNS = 3;
+  const MAX_ROWS = 1000;             // rows in the grid (the project file's limit)
+  const CELL_MAX = 200;              // characters in a cell or a label (the project file's limit)
+  const TABLE_MAX_BYTES = 1 << 20;   // the largest table file read (the table reader's limit)
+  // The linear methods treat each sample as made from its starting feed; above 10 % conversion
+  // that is usually no longer true (common practice, no source).
+  const LINEAR_LIMIT = 0.10;
+  const DEFAULT_LEVEL = 0.95;
+
+  const bench = {
+    started: false,   // the estimation section has been drawn once
+    columns: [],      // cell keys of the current entry forms
+    result: null,     // the last BenchResult
+    good: [],         // the converted runs, in table order, and
+    rowOf: [],        // the table row of each
+    massKey: "",      // the molar masses the last conversion used
+    fit: null,        // the last FitResult, and the runs and rows it was made from
+    fitRuns: [],
+    fitRowOf: [],
+    fitKey: "",
+    fitTimer: 0,
+    drawnRatios: "",  // r1, r2 in use when the fit plots were drawn
+    undo: null,       // {bench, text}: the grid before the last removal or paste
+  };
+
+  const emptyBench = () => ({ feedKind: "fraction", conversionKind: "none", compositionKind: "fraction",
+    element: "", carrier: 1, elementCount: 0, rows: [] });
+  const copyBench = (b) => JSON.parse(JSON.stringify(b));
+
+  // theBench returns the project's grid, giving the project an empty one when it has none.
+  function theBench() {
+    const p = state.project;
+    if (!p.bench) p.bench = emptyBench();
+    const b = p.bench;
+    if (!Array.isArray(b.rows)) b.rows = [];
+    for (const r of b.rows) if (!r.cells) r.cells = {};
+    return b;
+  }
+
+  // columnInfo is the heading and unit of a cell key.
+  function columnInfo(key, b) {
+    const el = b.element || "element";
+    switch (key) {
+      case "f10": return ["f10", "mole fraction of M1"];
+      case "mass1": return ["M1", "g charged"];
+      case "mass2": return ["M2", "g charged"];
+      case "moles1": return ["M1", "mol charged"];
+      case "moles2": return ["M2", "mol charged"];
+      case "conversion": return b.conversionKind === "mass" ? ["w", "polymer/monomer mass"] : ["X", "molar conversion"];
+      case "F1": return ["F1", "mole fraction of M1"];
+      case "massFraction1": return ["w1", "mass fraction of M1"];
+      case "integral1": return ["I1", "M1 signal integral"];
+      case "protons1": return ["H1", "protons per M1 unit"];
+      case "integral2": return ["I2", "M2 signal integral"];
+      case "protons2": return ["H2", "protons per M2 unit"];
+      case "elementPercent": return [`${el} %`, "mass %"];
+      case "sF": return ["sF", "optional"];
+      case "sX": return ["sX", "optional"];
+      case "sf": return ["sf", "optional"];
+    }
+    return [key, ""];
+  }
+
+  const FORM_HINTS = {
+    mass: "Masses charged are converted with the molar masses of step 1.",
+    moles: "",
+    massConversion: "A gravimetric conversion is turned into a molar one with the molar masses of step 1.",
+    massFraction: "A mass fraction is converted with the molar masses of step 1.",
+    nmr: "For each monomer give the integral of one signal of its units and the number of protons behind that signal (for example 5 for the aromatic protons of styrene, 3 for an OCH3).",
+    element: "Give the element's mass percentage in the copolymer; the molar masses of step 1 convert it.",
+  };
+
+  // fillBenchForms shows the grid's entry forms in the selects above it.
+  function fillBenchForms(b) {
+    $("#bench-feed-kind").value = b.feedKind || "fraction";
+    $("#bench-conversion-kind").value = b.conversionKind || "none";
+    $("#bench-composition-kind").value = b.compositionKind || "fraction";
+    $("#bench-element").value = b.element || "";
+    $("#bench-carrier").value = b.carrier === 2 ? "2" : "1";
+    $("#bench-element-count").value = b.elementCount > 0 ? shortNum(b.elementCount) : "";
+    clearFieldError($("#bench-element-count"));
+    $("#bench-element-row").hidden = b.compositionKind !== "element";
+    const hints = [];
+    if (b.feedKind === "mass") hints.push(FORM_HINTS.mass);
+    if (b.conversionKind === "mass") hints.push(FORM_HINTS.massConversion);
+    if (FORM_HINTS[b.compositionKind]) hints.push(FORM_HINTS[b.compositionKind]);
+    setText("#bench-forms-hint", hints.join(" "));
+  }
+
+  // loadBench puts the project's grid on screen from scratch (a new project, a paste, an undo).
+  function loadBench() {
+    if (!bench.started || !state.project) return;
+    const b = theBench();
+    fillBenchForms(b);
+    refreshBench(true);
+  }
+
+  // benchArgs is the argument of copoly.benchRuns; the molar masses go along when both are known.
+  function benchArgs(b) {
+    const a = { bench: b };
+    const p = state.project;
+    if (p.monomer1.molarMass > 0 && p.monomer2.molarMass > 0) {
+      a.molarMass1 = p.monomer1.molarMass;
+      a.molarMass2 = p.monomer2.molarMass;
+    }
+    return a;
+  }
+
+  // refreshBench converts the grid and shows the outcome; rebuild redraws the grid's inputs too
+  // (after a change of rows or of entry forms), otherwise only what they convert to.
+  function refreshBench(rebuild) {
+    const b = theBench();
+    const args = benchArgs(b);
+    bench.massKey = `${args.molarMass1 || 0}/${args.molarMass2 || 0}`;
+    const r = call("benchRuns", args);
+    const box = $("#bench-error");
+    if (isError(r)) {
+      box.textContent = `The table cannot be converted: ${sentence(r.error)}`;
+      box.hidden = false;
+      bench.result = null;
+      bench.good = [];
+      bench.rowOf = [];
+      if (rebuild || !bench.columns.length) buildGrid(b, bench.columns.length ? bench.columns : ["f10", "F1"]);
+      showBenchStatus(b, null);
+      scheduleFit();
+      return;
+    }
+    box.hidden = true;
+    const colsChanged = (r.columns || []).join() !== bench.columns.join();
+    bench.columns = r.columns || [];
+    if (rebuild || colsChanged) buildGrid(b, bench.columns);
+    bench.result = r;
+    bench.good = [];
+    bench.rowOf = [];
+    (r.runs || []).forEach((run, i) => {
+      if (run) { bench.good.push(run); bench.rowOf.push(i); }
+    });
+    applyBenchResult(b, r);
+    showBenchStatus(b, r);
+    scheduleFit();
+  }
+
+  const cellId = (i, key) => `bench-r${i}-${key}`;
+
+  // buildGrid draws the grid: a row number, the label, the typed cells, the converted values
+  // and a delete button per row, and under each row a line for its message.
+  function buildGrid(b, cols) {
+    const head1 = document.createElement("tr");
+    const head2 = document.createElement("tr");
+    const th = (text, attrs) => {
+      const e = document.createElement("th");
+      e.scope = "col";
+      if (Array.isArray(text)) {
+        e.append(text[0]);
+        if (text[1]) {
+          const u = document.createElement("span");
+          u.className = "col-unit";
+          u.textContent = text[1];
+          e.append(u);
+        }
+      } else e.textContent = text;
+      Object.assign(e, attrs || {});
+      return e;
+    };
+    head1.append(th("", { colSpan: 2 }), th("As typed", { colSpan: cols.length, scope: "colgroup", className: "group-typed" }),
+      th("Converted", { colSpan: 3, scope: "colgroup", className: "group-conv" }), th(""));
+    head2.append(th("Row"), th(["Sample", "label"]), ...cols.map((k) => th(columnInfo(k, b))),
+      th(["f10", "feed"], { className: "conv" }), th(["X", "molar"], { className: "conv" }), th(["F1", "copolymer"], { className: "conv" }),
+      th(""));
+    const thead = document.createElement("thead");
+    thead.append(head1, head2);
+    const tbody = document.createElement("tbody");
+    const width = cols.length + 6;
+    if (!b.rows.length) {
+      const tr = document.createElement("tr");
+      const td = document.createElement("td");
+      td.colSpan = width;
+      td.className = "empty-grid";
+      td.textContent = "No runs yet. Add a row, or paste rows from a spreadsheet below.";
+      tr.append(td);
+      tbody.append(tr);
+    }
+    b.rows.forEach((row, i) => {
+      const tr = document.createElement("tr");
+      tr.dataset.row = String(i);
+      const num = document.createElement("th");
+      num.scope = "row";
+      num.className = "row-num";
+      num.textContent = String(i + 1);
+      tr.append(num);
+      const cellInput = (key, value, label) => {
+        const td = document.createElement("td");
+        const input = document.createElement("input");
+        input.type = "text";
+        input.id = cellId(i, key);
+        input.value = value || "";
+        input.maxLength = CELL_MAX;
+        input.autocomplete = "off";
+        input.spellcheck = false;
+        input.dataset.row = String(i);
+        input.dataset.key = key;
+        if (key !== "label") input.inputMode = "decimal";
+        input.className = key === "label" ? "cell label-cell" : "cell";
+        input.setAttribute("aria-label", `row ${i + 1}, ${label}`);
+        input.addEventListener("input", onCellInput);
+        td.append(input);
+        return td;
+      };
+      tr.append(cellInput("label", row.label, "sample label"));
+      for (const k of cols) tr.append(cellInput(k, row.cells[k], columnInfo(k, b).join(", ")));
+      for (const k of ["f10", "X", "F1"]) {
+        const td = document.createElement("td");
+        td.className = "conv";
+        td.dataset.conv = k;
+        td.textContent = "";
+        tr.append(td);
+      }
+      const act = document.createElement("td");
+      const del = button("Delete", () => deleteRow(i));
+      del.className = "row-delete";
+      del.setAttribute("aria-label", `Delete row ${i + 1}`);
+      act.append(del);
+      tr.append(act);
+      const msgRow = document.createElement("tr");
+      msgRow.className = "row-msg";
+      msgRow.hidden = true;
+      const msg = document.createElement("td");
+      msg.colSpan = width;
+      msg.id = `bench-msg-${i}`;
+      msgRow.append(msg);
+      tbody.append(tr, msgRow);
+    });
+    $("#bench-table thead").replaceWith(thead);
+    $("#bench-table tbody").replaceWith(tbody);
+    $("#bench-add-row").disabled = b.rows.length >= MAX_ROWS;
+  }
+
+  // cellOfField returns the grid input named by an error field such as "runs[3].f10".
+  function cellOfField(field) {
+    const m = /^runs\[(\d+)\]\.([A-Za-z0-9]+)$/.exec(field || "");
+    return m ? document.getElementById(cellId(Number(m[1]), m[2])) : null;
+  }
+
+  // applyBenchResult shows, row by row, the converted values and the row's problem.
+  function applyBenchResult(b, r) {
+    const warnRows = new Map();
+    for (const w of r.warnings || []) {
+      if (w.row >= 0) warnRows.set(w.row, (warnRows.get(w.row) || []).concat(w.message));
+    }
+    b.rows.forEach((row, i) => {
+      const tr = document.querySelector(`#bench-table tr[data-row="${i}"]`);
+      if (!tr) return;
+      tr.querySelectorAll("input").forEach((inp) => { inp.removeAttribute("aria-invalid"); inp.removeAttribute("aria-describedby"); });
+      const run = r.runs ? r.runs[i] : null;
+      const err = r.errors ? r.errors[i] : null;
+      const conv = { f10: run ? fix(run.f10, 4) : "", X: run ? (run.conversion > 0 ? fix(run.conversion, 4) : "low") : "", F1: run ? fix(run.F1, 4) : "" };
+      tr.querySelectorAll("td.conv").forEach((td) => { td.textContent = conv[td.dataset.conv]; });
+      const msgCell = document.getElementById(`bench-msg-${i}`);
+      const msgRow = msgCell.parentElement;
+      msgRow.className = "row-msg";
+      tr.classList.remove("row-bad", "row-warn", "row-pending");
+      let text = "";
+      if (err) {
+        const input = cellOfField(err.field);
+        const pending = input && input.value.trim() === "";
+        text = pending ? `Not used yet: fill in ${columnInfo(input.dataset.key, b)[0]}.` : `Row ${i + 1}: ${sentence(err.error.replace(/^runs\[\d+\]\.?/, "").replace(/^:\s*/, ""))}`;
+        if (input) {
+          input.setAttribute("aria-invalid", "true");
+          input.setAttribute("aria-describedby", msgCell.id);
+        }
+        tr.classList.add(pending ? "row-pending" : "row-bad");
+        msgRow.classList.add(pending ? "pending" : "bad");
+      } else if (warnRows.has(i)) {
+        text = warnRows.get(i).map(sentence).join(" ");
+        tr.classList.add("row-warn");
+        msgRow.classList.add("warn");
+      }
+      msgCell.textContent = text;
+      msgRow.hidden = !text;
+    });
+    const list = $("#bench-warnings");
+    const items = (r.warnings || []).map((w) => w.message);
+    const high = bench.good.filter((run) => run.conversion > LINEAR_LIMIT).length;
+    if (high) {
+      items.push(`${high} of ${bench.good.length} runs are above ${LINEAR_LIMIT * 100} % conversion. The linear methods (Fineman–Ross, Kelen–Tüdős) ignore the drift of the feed and are biased for them; the recommended fit in step 6 takes each run's conversion into account.`);
+    }
+    list.replaceChildren(...items.map((t) => { const li = document.createElement("li"); li.textContent = sentence(t); return li; }));
+    $("#bench-warnings-box").hidden = !items.length;
+  }
+
+  function showBenchStatus(b, r) {
+    const n = b.rows.length;
+    if (!n) return setText("#bench-status", "The table is empty.");
+    if (!r) return setText("#bench-status", `${n} row${n === 1 ? "" : "s"}; none converted.`);
+    const bad = (r.errors || []).filter(Boolean).length;
+    const good = bench.good.length;
+    let text = `${n} row${n === 1 ? "" : "s"}: ${good} converted`;
+    if (bad) text += `, ${bad} not yet usable (see the marked cells)`;
+    text += good >= MIN_FIT_RUNS ? ". These go into the estimate in step 6." : `. The estimate needs at least ${MIN_FIT_RUNS} converted runs.`;
+    setText("#bench-status", text);
+  }
+
+  // benchChanged saves the grid and converts it again.
+  function benchChanged(rebuild) {
+    refreshBench(rebuild);
+    scheduleSave();
+  }
+
+  function onCellInput(ev) {
+    if (!engine || engineStopped || !state.project) return;
+    const input = ev.target;
+    const i = Number(input.dataset.row);
+    const key = input.dataset.key;
+    const row = theBench().rows[i];
+    if (!row) return;
+    if (key === "label") row.label = input.value;
+    else if (input.value === "") delete row.cells[key];
+    else row.cells[key] = input.value;
+    benchChanged(false);
+  }
+
+  function setBenchUndo(before, text) {
+    bench.undo = { bench: before, text };
+    setText("#bench-undo-text", text);
+    $("#bench-undo-bar").hidden = false;
+  }
+
+  function undoBench() {
+    const u = bench.undo;
+    $("#bench-undo-bar").hidden = true;
+    if (!u || !state.project) return;
+    bench.undo = null;
+    state.project.bench = u.bench;
+    loadBench();
+    scheduleSave();
+  }
+
+  function addRow() {
+    if (!state.project) return;
+    const b = theBench();
+    if (b.rows.length >= MAX_ROWS) return;
+    b.rows.push({ label: "", cells: {} });
+    benchChanged(true);
+    const first = document.getElementById(cellId(b.rows.length - 1, "label"));
+    if (first) first.focus();
+  }
+
+  function deleteRow(i) {
+    if (!state.project) return;
+    const b = theBench();
+    const row = b.rows[i];
+    if (!row) return;
+    setBenchUndo(copyBench(b), `Row ${i + 1}${row.label ? ` (${row.label})` : ""} deleted.`);
+    b.rows.splice(i, 1);
+    benchChanged(true);
+  }
+
+  function clearRows() {
+    if (!state.project) return;
+    const b = theBench();
+    if (!b.rows.length) return;
+    setBenchUndo(copyBench(b), `All ${b.rows.length} rows removed.`);
+    b.rows = [];
+    benchChanged(true);
+  }
+
+  // setBenchForm changes one entry form of the grid; the cells typed in other forms are kept.
+  function setBenchForm(key, value) {
+    if (!state.project) return;
+    const b = theBench();
+    b[key] = value;
+    fillBenchForms(b);
+    benchChanged(true);
+  }
+
+  function setElementCount() {
+    const input = $("#bench-element-count");
+    clearFieldError(input);
+    const raw = input.value.trim();
+    const v = raw === "" ? 0 : parseNumber(raw);
+    if (Number.isNaN(v) || v < 0) {
+      setFieldError(input, `atoms per unit = “${raw}”: enter a whole number such as 1 or 2.`);
+      return;
+    }
+    theBench().elementCount = v;
+    benchChanged(false);
+  }
+
+  // benchFieldText turns a project field such as "project.bench.rows[3].cells.f10" into words.
+  function benchFieldText(field) {
+    const m = /bench\.rows\[(\d+)\](?:\.cells\.([A-Za-z0-9]+)|\.(label))?/.exec(field || "");
+    if (!m) return "";
+    return `row ${Number(m[1]) + 1}${m[2] || m[3] ? ", " + (m[3] ? "label" : m[2]) : ""}: `;
+  }
+
+  // addTable reads a pasted block or a file's text into new rows. Nothing changes when any part
+  // of it cannot be read, or when the grid would no longer fit in a project.
+  function addTable(text, where, fail) {
+    if (!state.project) return false;
+    const before = theBench();
+    const r = call("pasteBench", { bench: before, text });
+    if (isError(r)) { fail(`${sentence(r.error)} Nothing was added.`); return false; }
+    const next = r.bench;
+    const added = next.rows.length - before.rows.length;
+    if (added <= 0) { fail("No rows were found. Nothing was added."); return false; }
+    const checked = call("checkProject", { project: { ...state.project, bench: next } });
+    if (isError(checked)) {
+      fail(`${benchFieldText(checked.field)}${sentence(checked.error.replace(/^project\./, ""))} Nothing was added.`);
+      return false;
+    }
+    setBenchUndo(copyBench(before), `${added} row${added === 1 ? "" : "s"} added from ${where}.`);
+    state.project.bench = next;
+    loadBench();
+    scheduleSave();
+    return true;
+  }
+
+  function pasteRows() {
+    const area = $("#bench-paste");
+    clearFieldError(area);
+    if (!area.value.trim()) return setFieldError(area, "Paste the cells from your spreadsheet into the box first.");
+    if (addTable(area.value, "the pasted block", (msg) => setFieldError(area, msg))) area.value = "";
+  }
+
+  async function importTable() {
+    const input = $("#bench-import");
+    const file = input.files && input.files[0];
+    input.value = "";
+    const box = $("#bench-error");
+    box.hidden = true;
+    if (!file) return;
+    const fail = (msg) => { box.textContent = `${file.name} was not read: ${msg}`; box.hidden = false; };
+    if (file.size > TABLE_MAX_BYTES) return fail(`it is ${file.size} bytes, more than the ${TABLE_MAX_BYTES} a table may have. Nothing was added.`);
+    let text;
+    try {
+      text = await file.text();
+    } catch (e) {
+      return fail("the file could not be read. Nothing was added.");
+    }
+    addTable(text, file.name, fail);
+  }
+
+  // exportTable saves the grid as typed, with column names the paste box reads back.
+  function exportTable() {
+    if (!state.project) return;
+    const b = theBench();
+    const cols = bench.columns;
+    const rows = [["label", ...cols], ...b.rows.map((r) => [r.label || "", ...cols.map((k) => r.cells[k] || "")])];
+    Plot.saveCSV(rows, `${slug(state.project.name)}-bench-data.csv`);
+  }
+
+  // ---- Estimation -----------------------------------------------------------------------------
+
+  const METHOD = {
+    nonlinear: { name: "Nonlinear least squares, integrated model", short: "nonlinear least squares on the integrated model" },
+    evm: { name: "Error-in-variables", short: "error-in-variables on the integrated model" },
+    "fineman-ross": { name: "Fineman–Ross" },
+    "inverted-fineman-ross": { name: "Inverted Fineman–Ross" },
+    "kelen-tudos": { name: "Kelen–Tüdős" },
+    "extended-kelen-tudos": { name: "Extended Kelen–Tüdős" },
+    "mayo-lewis-integrated": { name: "Mayo–Lewis intersection" },
+    swapped: { name: "Fineman–Ross, M1 and M2 swapped" },
+    linear: { name: "Linear methods" },
+  };
+  const LINEAR_METHODS = ["fineman-ross", "inverted-fineman-ross", "kelen-tudos", "extended-kelen-tudos", "mayo-lewis-integrated"];
+  const REGION_KIND = { F: "F-based, errors unknown", chi2: "χ², errors known", ellipse: "linearised ellipse" };
+  // Marker of each method on the region plot: colour and shape.
+  const MARK = {
+    nonlinear: [C.cum, "circle"],
+    evm: [C.limit, "circle"],
+    "fineman-ross": ["#5c6b7a", "square"],
+    "inverted-fineman-ross": ["#2f6fb0", "triangle"],
+    "kelen-tudos": ["#c7891a", "square"],
+    "extended-kelen-tudos": ["#6b7f1f", "triangle-down"],
+    "mayo-lewis-integrated": ["#7a4b2a", "diamond"],
+    swapped: ["#9aa5b1", "triangle"],
+  };
+
+  const rat = (v) => (Number.isFinite(v) ? (Math.abs(v) >= 100 ? v.toFixed(0) : v.toPrecision(3)) : "–");
+  const se = (v) => (Number.isFinite(v) ? v.toPrecision(2) : "–");
+  const span = (a, b) => (Number.isFinite(a) && Number.isFinite(b) ? `${rat(a)}–${rat(b)}` : "–");
+  const levelPct = (level) => `${Number((level * 100).toPrecision(4))} %`;
+
+  // currentLevel reads the confidence level box; NaN (with the error shown) when it is not valid.
+  function currentLevel() {
+    const input = $("#fit-level");
+    clearFieldError(input);
+    const raw = input.value.trim();
+    if (raw === "") return DEFAULT_LEVEL;
+    const v = parseNumber(raw);
+    if (Number.isNaN(v)) { setFieldError(input, `confidence level = “${raw}” is not a number.`); return NaN; }
+    if (!(v > 0 && v < 1)) { setFieldError(input, `confidence level = ${raw}: enter a fraction between 0 and 1, such as 0.95.`); return NaN; }
+    return v;
+  }
+
+  function onLevelInput() {
+    if (!state.project) return;
+    const v = currentLevel();
+    if (Number.isNaN(v)) return;
+    state.project.level = v;
+    scheduleSave();
+    scheduleFit();
+  }
+
+  function scheduleFit(now) {
+    clearTimeout(bench.fitTimer);
+    bench.fitTimer = setTimeout(runFit, now ? 0 : FIT_DELAY_MS);
+  }
+
+  // runRows maps "row N" in a message about the fitted runs (N counting those runs from 1) to the
+  // row of the grid.
+  function runRows(text, rowOf) {
+    return String(text).replace(/\brow (\d+)/g, (all, n) => {
+      const i = Number(n) - 1;
+      return i >= 0 && i < rowOf.length ? `row ${rowOf[i] + 1}` : all;
+    });
+  }
+
+  function runFit() {
+    if (!engine || engineStopped || !state.project) return;
+    const level = currentLevel();
+    if (Number.isNaN(level)) return;
+    const runs = bench.good;
+    if (runs.length < MIN_FIT_RUNS) {
+      bench.fit = null;
+      bench.fitKey = "";
+      $("#fit-results").hidden = true;
+      setText("#fit-status", `No estimate yet: step 5 has ${runs.length} usable run${runs.length === 1 ? "" : "s"}; at least ${MIN_FIT_RUNS}, at different feeds, are needed.`);
+      drawNext();
+      return;
+    }
+    const key = JSON.stringify([runs, level]);
+    if (key === bench.fitKey && bench.fit) return;
+    const f = call("fit", { runs, level });
+    bench.fitKey = key;
+    if (isError(f)) {
+      bench.fit = null;
+      $("#fit-results").hidden = true;
+      setText("#fit-status", `No estimate: ${sentence(runRows(f.error, bench.rowOf))}`);
+      drawNext();
+      return;
+    }
+    bench.fit = f;
+    bench.fitRuns = runs;
+    bench.fitRowOf = bench.rowOf.slice();
+    drawFit();
+    drawNext();
+  }
+
+  // recommendedFit returns the name and result of the method to report.
+  function recommendedFit(f) {
+    const name = f.methods[f.recommended] ? f.recommended : "nonlinear";
+    return [name, f.methods[name]];
+  }
+
+  function drawFit() {
+    const f = bench.fit;
+    const [recName, rec] = recommendedFit(f);
+    if (!rec) {
+      $("#fit-results").hidden = true;
+      setText("#fit-status", "No estimate: the fit gave no result.");
+      return;
+    }
+    const n = bench.fitRuns.length;
+    $("#fit-results").hidden = false;
+    setText("#fit-status", `Estimated from ${n} runs: r1 = ${rat(rec.r1)}, r2 = ${rat(rec.r2)} (${METHOD[recName].short}, ${levelPct(rec.region.level)} joint confidence region${rec.region.open ? ", open" : ""}).`);
+    drawFitTable(f, recName);
+    const use = $("#fit-use");
+    use.textContent = `Use these ratios (r1 = ${rat(rec.r1)}, r2 = ${rat(rec.r2)})`;
+    setText("#fit-use-note", "Copies the recommended r1 and r2 into step 1, with a note of where they come from, and keeps the joint confidence region with the project. Steps 2 to 4 then use them.");
+
+    const items = (f.warnings || []).map((w) => {
+      const who = w.method && METHOD[w.method] ? `${METHOD[w.method].name}: ` : "";
+      return who + sentence(runRows(w.message, bench.fitRowOf));
+    });
+    $("#fit-warnings").replaceChildren(...items.map((t) => { const li = document.createElement("li"); li.textContent = t; return li; }));
+    $("#fit-warnings-box").hidden = !items.length;
+
+    const hasX = bench.fitRuns.some((r) => r.conversion > 0);
+    const trendText = (t, what, unit) => {
+      if (!t || !Number.isFinite(t.pValue)) return `Against ${what}: not enough runs to tell.`;
+      const base = `Against ${what}: slope ${sig3(t.slope)} per unit ${unit}, p = ${sig3(t.pValue)}`;
+      return t.flagged ? `${base}. A trend: the residuals are not random; see the notes above.` : `${base}. No clear trend.`;
+    };
+    const trends = [trendText(f.trends && f.trends.feed, "the feed", "f10")];
+    trends.push(hasX ? trendText(f.trends && f.trends.conversion, "conversion", "X") : "Against conversion: no run has a conversion.");
+    $("#fit-trends").replaceChildren(...trends.map((t) => { const li = document.createElement("li"); li.textContent = t; return li; }));
+
+    const fr = f.methods["fineman-ross"], sw = f.swappedFinemanRoss;
+    setText("#fit-swap-note", fr && sw
+      ? `They depend on which monomer you call M1. From these same runs Fineman–Ross gives r1 = ${rat(fr.r1)}, r2 = ${rat(fr.r2)}; with the labels swapped it gives r1 = ${rat(sw.r1)}, r2 = ${rat(sw.r2)}. The recommended fit gives the same answer either way.`
+      : "They also depend on which monomer you call M1: swapping the labels changes their answer.");
+    drawFitPlots();
+  }
+
+  function drawFitTable(f, recName) {
+    const body = document.createElement("tbody");
+    const row = (key, label, m, opts) => {
+      const tr = document.createElement("tr");
+      tr.dataset.method = key;
+      if (opts.recommended) { tr.className = "recommended"; tr.dataset.recommended = "true"; }
+      if (opts.linear) tr.classList.add("linear");
+      const th = document.createElement("th");
+      th.scope = "row";
+      th.append(label);
+      if (opts.tag) {
+        const t = document.createElement("span");
+        t.className = opts.recommended ? "tag tag-rec" : "tag";
+        t.textContent = opts.tag;
+        th.append(" ", t);
+      }
+      tr.append(th);
+      if (!m) {
+        const td = document.createElement("td");
+        td.colSpan = 10;
+        td.className = "why-not";
+        td.textContent = opts.why || "Not computed for these runs.";
+        tr.append(td);
+        return tr;
+      }
+      const reg = m.region;
+      const weighted = key === "evm" || (key === "nonlinear" && m.weighted);
+      const cells = [
+        ["r1", rat(m.r1)], ["r2", rat(m.r2)],
+        ["se1", se(m.se1)], ["se2", se(m.se2)],
+        ["corr", Number.isFinite(m.corr) ? m.corr.toFixed(2) : "–"],
+        ["region1", reg ? span(reg.r1Min, reg.r1Max) : "–"],
+        ["region2", reg ? span(reg.r2Min, reg.r2Max) : "–"],
+        ["kind", reg ? (REGION_KIND[reg.kind] || reg.kind) + (reg.open ? " (open)" : "") : "–"],
+        ["chi2", weighted && Number.isFinite(m.reducedChi2) ? m.reducedChi2.toPrecision(3) : "–"],
+        ["p", weighted && Number.isFinite(m.pValue) ? sig3(m.pValue) : "–"],
+      ];
+      for (const [col, text] of cells) {
+        const td = document.createElement("td");
+        td.dataset.col = col;
+        td.textContent = text;
+        tr.append(td);
+      }
+      return tr;
+    };
+    const whyNot = (method) => {
+      const w = (f.warnings || []).find((x) => x.method === method && x.row < 0);
+      return w ? `Not computed: ${sentence(runRows(w.message, bench.fitRowOf))}` : "Not computed for these runs.";
+    };
+    const recLabel = recName === "evm" ? "Error-in-variables, integrated model" : METHOD.nonlinear.name;
+    body.append(row(recName, recLabel, f.methods[recName], { recommended: true, tag: "recommended" }));
+    const other = recName === "evm" ? "nonlinear" : "evm";
+    if (f.methods[other]) body.append(row(other, METHOD[other].name, f.methods[other], {}));
+    else if (other === "evm") body.append(row("evm", METHOD.evm.name, null, { why: "Needs the uncertainties sF, sf and (with a conversion) sX of every run." }));
+    const group = document.createElement("tr");
+    group.className = "group";
+    const gth = document.createElement("th");
+    gth.colSpan = 11;
+    gth.scope = "colgroup";
+    gth.textContent = "Linear — for comparison only";
+    group.append(gth);
+    body.append(group);
+    for (const key of LINEAR_METHODS) {
+      const m = f.methods[key];
+      let label = METHOD[key].name;
+      if (key === "kelen-tudos" && m && Number.isFinite(m.alpha)) label += ` (α = ${sig3(m.alpha)})`;
+      if (key === "extended-kelen-tudos" && m && Number.isFinite(m.alpha)) label += ` (α = ${sig3(m.alpha)})`;
+      body.append(row(key, label, m, { linear: true, tag: "linear", why: whyNot(key) }));
+    }
+    if (f.swappedFinemanRoss) body.append(row("swapped", METHOD.swapped.name, f.swappedFinemanRoss, { linear: true, tag: "linear" }));
+    $("#fit-table tbody").replaceWith(body);
+  }
+
+  // drawFitPlots draws the data with the fitted curve, the joint confidence region, the
+  // residuals and the two linear plots.
+  function drawFitPlots() {
+    const f = bench.fit;
+    if (!f) return;
+    const p = state.project;
+    bench.drawnRatios = `${p.r1}/${p.r2}`;
+    const [recName, rec] = recommendedFit(f);
+    const runs = bench.fitRuns;
+    const rowOf = bench.fitRowOf;
+    const labels = rowOf.map((i) => (theBench().rows[i] && theBench().rows[i].label) || `row ${i + 1}`);
+    const nl = f.methods.nonlinear;
+
+    // (a) Data and the composition curve.
+    const grid = linspace(0, 1, COMPOSITION_POINTS);
+    const comp = call("composition", { r1: rec.r1, r2: rec.r2, f1: grid });
+    const low = runs.filter((r) => !(r.conversion > 0));
+    const high = runs.filter((r) => r.conversion > 0);
+    const model = runs.map((r, i) => (nl && Number.isFinite(nl.residuals[i]) ? r.F1 - nl.residuals[i] : NaN));
+    const withX = runs.map((r, i) => i).filter((i) => runs[i].conversion > 0);
+    const layers = [{ type: "line", x: [0, 1], y: [0, 1], color: C.diag, width: 1.5, dash: "5 5" }];
+    if (!isError(comp)) layers.push({ type: "line", x: grid, y: comp.F1, color: C.inst, width: 2.6 });
+    if (withX.length && nl) {
+      layers.push({ type: "segments", x0: withX.map((i) => runs[i].f10), y0: withX.map((i) => runs[i].F1),
+        x1: withX.map((i) => runs[i].f10), y1: withX.map((i) => model[i]), color: C.feed, width: 1 });
+      layers.push({ type: "points", x: withX.map((i) => runs[i].f10), y: withX.map((i) => model[i]), color: C.cum, shape: "circle", r: 3.5, hollow: true });
+    }
+    if (low.length) layers.push({ type: "points", x: low.map((r) => r.f10), y: low.map((r) => r.F1), color: C.feed, shape: "circle", r: 5.5 });
+    if (high.length) layers.push({ type: "points", x: high.map((r) => r.f10), y: high.map((r) => r.F1), color: C.cum, shape: "square", r: 5 });
+    const legend = [{ label: `F1 at r1 = ${rat(rec.r1)}, r2 = ${rat(rec.r2)}`, color: C.inst }];
+    if (low.length) legend.push({ label: "measured, low conversion", color: C.feed, kind: "point" });
+    if (high.length) legend.push({ label: "measured, with conversion", color: C.cum, kind: "point", shape: "square" });
+    if (withX.length && nl) legend.push({ label: "model F1cum at that conversion", color: C.cum, kind: "point", hollow: true });
+    const dataSvg = Plot.chart({
+      title: `Measured composition and the fitted curve (${runs.length} runs)`,
+      width: 600, height: 470,
+      x: { min: 0, max: 1, label: "f10, mole fraction of M1 in the starting feed", ticks: 10 },
+      y: { min: 0, max: 1, label: "F1, mole fraction of M1 in the copolymer", ticks: 10 },
+      layers, legend,
+    });
+    mountFigure("fig-fit-data", dataSvg, "bench-fit", [["label", "f10", "X", "F1 measured", "F1 model (nonlinear fit)", "residual"],
+      ...runs.map((r, i) => [labels[i], r.f10, r.conversion || 0, r.F1, model[i], nl ? nl.residuals[i] : ""])]);
+
+    drawRegion(f, recName, rec);
+
+    // (d) Residuals against the feed and against conversion.
+    if (nl) {
+      const res = nl.residuals;
+      const yr = Plot.range([...res, 0], { minSpan: 0.01, pad: 0.15 });
+      const resChart = (x, xLabel, xMax, title) => Plot.chart({
+        title, width: 600, height: 330,
+        x: { min: 0, max: xMax, label: xLabel },
+        y: { min: yr[0], max: yr[1], label: "F1 measured − fitted" },
+        layers: [{ type: "hline", y: 0, color: C.diag, dash: "5 5" },
+          { type: "points", x, y: res, color: C.cum, shape: "circle", r: 5 }],
+      });
+      const fsvg = resChart(runs.map((r) => r.f10), "f10, starting feed", 1, "Residuals against the feed");
+      mountFigure("fig-res-feed", fsvg, "residuals-feed", [["label", "f10", "residual"], ...runs.map((r, i) => [labels[i], r.f10, res[i]])]);
+      const xs = runs.map((r) => r.conversion || 0);
+      const figX = document.getElementById("fig-res-conv");
+      figX.hidden = !withX.length;
+      if (withX.length) {
+        const xsvg = resChart(xs, "X, molar conversion", Math.min(1, Math.max(...xs) * 1.15 || 1), "Residuals against conversion");
+        mountFigure("fig-res-conv", xsvg, "residuals-conversion", [["label", "X", "residual"], ...runs.map((r, i) => [labels[i], xs[i], res[i]])]);
+      }
+    }
+
+    // (b) Fineman–Ross and (c) Kelen–Tüdős.
+    linearPlot("fig-fr", f.methods["fineman-ross"], "fineman-ross", labels, {
+      title: (m) => `Fineman–Ross: G = r1·H − r2, r1 = ${rat(m.r1)}, r2 = ${rat(m.r2)} (linear)`,
+      x: "H = x²/y", y: "G = x(y − 1)/y",
+    });
+    linearPlot("fig-kt", f.methods["kelen-tudos"], "kelen-tudos", labels, {
+      title: (m) => `Kelen–Tüdős, α = ${sig3(m.alpha)}: r1 = ${rat(m.r1)}, r2 = ${rat(m.r2)} (linear)`,
+      x: "ξ = H/(α + H)", y: "η = G/(α + H)", xmin: 0, xmax: 1,
+    });
+  }
+
+  function linearPlot(id, m, name, labels, o) {
+    const fig = document.getElementById(id);
+    fig.hidden = !m;
+    if (!m) return;
+    const xr = o.xmin !== undefined ? [o.xmin, o.xmax] : Plot.range([...m.x, 0], { pad: 0.08 });
+    const lineX = [xr[0], xr[1]];
+    const lineY = lineX.map((x) => m.slope * x + m.intercept);
+    const yr = Plot.range([...m.y, ...lineY], { pad: 0.1 });
+    const svg = Plot.chart({
+      title: o.title(m), width: 600, height: 380,
+      x: { min: xr[0], max: xr[1], label: o.x },
+      y: { min: yr[0], max: yr[1], label: o.y },
+      layers: [{ type: "line", x: lineX, y: lineY, color: C.feed, width: 2, dash: "7 4" },
+        { type: "points", x: m.x, y: m.y, color: C.cum, shape: "circle", r: 5 }],
+      legend: [{ label: "runs", color: C.cum, kind: "point" }, { label: "least-squares line", color: C.feed, dash: "7 4", width: 2 }],
+    });
+    mountFigure(id, svg, name, [["label", o.x, o.y], ...m.x.map((x, i) => [labels[i] || "", x, m.y[i]])]);
+  }
+
+  // drawRegion draws (e): the joint confidence region of the recommended method, every method's
+  // estimate and the ratios in use in step 1.
+  function drawRegion(f, recName, rec) {
+    const reg = rec.region;
+    const poly = (reg && reg.boundary) || rec.jcr || [];
+    const pts = [];
+    const add = (key, label, m) => { if (m && Number.isFinite(m.r1) && Number.isFinite(m.r2)) pts.push({ key, label, r1: m.r1, r2: m.r2 }); };
+    add(recName, `${recName === "evm" ? "error-in-variables" : "nonlinear fit"} (recommended)`, rec);
+    const other = recName === "evm" ? "nonlinear" : "evm";
+    add(other, other === "evm" ? "error-in-variables" : "nonlinear fit", f.methods[other]);
+    for (const key of LINEAR_METHODS) add(key, METHOD[key].name, f.methods[key]);
+    add("swapped", "Fineman–Ross, labels swapped", f.swappedFinemanRoss);
+    const p = state.project;
+    add("inuse", "in use in step 1", { r1: p.r1, r2: p.r2 });
+
+    // The plot shows the region with room around it; estimates far outside are listed as off the plot.
+    const r1s = poly.map((q) => q[0]), r2s = poly.map((q) => q[1]);
+    const box = (vals, centre) => {
+      let lo = Math.min(...vals, centre), hi = Math.max(...vals, centre);
+      const w = Math.max(hi - lo, Math.abs(centre) * 0.1, 0.02);
+      return [lo - 1.5 * w, hi + 1.5 * w];
+    };
+    const win1 = box(r1s, rec.r1), win2 = box(r2s, rec.r2);
+    const shown = pts.filter((q) => q.r1 >= win1[0] && q.r1 <= win1[1] && q.r2 >= win2[0] && q.r2 <= win2[1]);
+    const all1 = [...r1s, ...shown.map((q) => q.r1)], all2 = [...r2s, ...shown.map((q) => q.r2)];
+    const x = Plot.range(all1, { pad: 0.1, minSpan: 0.02, floor: Math.min(0, ...all1) });
+    const y = Plot.range(all2, { pad: 0.1, minSpan: 0.02, floor: Math.min(0, ...all2) });
+    const layers = [];
+    if (poly.length >= 3) layers.push({ type: "polygon", points: poly, color: C.inst, opacity: 0.16, stroke: C.inst, role: "jcr" });
+    const legend = [{ label: `${levelPct(reg.level)} region${reg.open ? " (open)" : ""}`, color: C.inst, kind: "box", opacity: 0.35 }];
+    for (const q of pts.slice().reverse()) {
+      const [color, shape] = q.key === "inuse" ? ["#1f2933", "cross"] : q.key === recName ? ["#1f2933", "diamond"] : MARK[q.key];
+      const on = shown.includes(q);
+      if (on) layers.push({ type: "point", x: q.r1, y: q.r2, color, shape, r: q.key === recName ? 7 : 5.5 });
+    }
+    for (const q of pts) {
+      const [color, shape] = q.key === "inuse" ? ["#1f2933", "cross"] : q.key === recName ? ["#1f2933", "diamond"] : MARK[q.key];
+      legend.push({ label: q.label + (shown.includes(q) ? "" : " — off the plot"), color, kind: "point", shape });
+    }
+    const svg = Plot.chart({
+      title: `Joint confidence region of r1 and r2, ${levelPct(reg.level)}${reg.open ? " — open: the data do not bound it" : ""}`,
+      width: 600, height: 560,
+      x: { min: x[0], max: x[1], label: "r1" },
+      y: { min: y[0], max: y[1], label: "r2" },
+      layers, legend,
+    });
+    mountFigure("fig-jcr", svg, "joint-confidence-region", [["r1", "r2"], ...poly.map((q) => [q[0], q[1]])]);
+  }
+
+  // useFitted copies the recommended ratios into step 1 with a note of where they come from,
+  // and keeps the region with them.
+  function useFitted() {
+    const f = bench.fit;
+    if (!f || !state.project) return;
+    const [recName, rec] = recommendedFit(f);
+    if (!rec) return;
+    const round = (v) => String(Number(v.toPrecision(4)));
+    $("#r1").value = round(rec.r1);
+    $("#r2").value = round(rec.r2);
+    const date = new Date().toISOString().slice(0, 10);
+    $("#ratio-source").value = `fitted to ${bench.fitRuns.length} runs on ${date}, ${METHOD[recName].short}, ${levelPct(rec.region.level)} JCR`;
+    state.formJcr = (rec.region.boundary || []).map((q) => [q[0], q[1]]);
+    recompute();
+    setText("#fit-use-note", state.invalid
+      ? "The ratios are in step 1, but another field there is not valid; correct it to use them."
+      : `r1 and r2 in step 1 are now ${round(rec.r1)} and ${round(rec.r2)}; steps 2 to 4 use them.`);
+  }
+
+  // drawJcrNote says, in step 1, that the ratios in use carry a stored region.
+  function drawJcrNote(p) {
+    const jcr = p.jcr;
+    const box = $("#ratio-jcr");
+    if (!jcr || jcr.length < 3) { box.hidden = true; box.textContent = ""; return; }
+    const r1 = jcr.map((q) => q[0]), r2 = jcr.map((q) => q[1]);
+    box.textContent = `Joint confidence region kept with these ratios: r1 ${rat(Math.min(...r1))} to ${rat(Math.max(...r1))}, r2 ${rat(Math.min(...r2))} to ${rat(Math.max(...r2))} (step 6).`;
+    box.hidden = false;
+  }
+
+  // ---- Next experiments and the screening estimate ----------------------------------------------
+
+  let nextSuggestion = null;
+
+  function drawNext() {
+    const p = state.project;
+    if (!p) return;
+    let r1, r2, basis;
+    const runs = bench.fit ? bench.fitRuns : bench.good;
+    if (bench.fit) {
+      const [name, rec] = recommendedFit(bench.fit);
+      r1 = rec.r1; r2 = rec.r2;
+      basis = `Planned from the recommended estimate (r1 = ${rat(r1)}, r2 = ${rat(r2)}, ${METHOD[name].short}) and the ${runs.length} runs already in the table.`;
+    } else {
+      r1 = p.r1; r2 = p.r2;
+      basis = `No estimate from bench data yet: planned from the ratios in step 1 (r1 = ${rat(r1)}, r2 = ${rat(r2)})${runs.length ? ` and the ${runs.length} usable run${runs.length === 1 ? "" : "s"} in the table` : ""}.`;
+    }
+    const d = call("nextRuns", { r1, r2, runs });
+    if (isError(d)) {
+      setText("#next-basis", `No suggestion: ${sentence(d.error)}`);
+      $("#next-results").hidden = true;
+      nextSuggestion = null;
+      return;
+    }
+    setText("#next-basis", basis);
+    $("#next-results").hidden = false;
+    nextSuggestion = d.next || [];
+    const runText = (s) => `f10 = ${fix(s.f10, 3)}, stop near X = ${fix(s.conversion, 2)}`;
+    const [a, b] = nextSuggestion;
+    setText("#next-runs", !a ? "–" : b && runText(a) === runText(b) ? `${runText(a)}, twice (a replicate)` : nextSuggestion.map(runText).join("; "));
+    setText("#next-shrink", d.shrink > 0 ? `area × ${fix(d.shrink, 2)} (to about ${Math.round(d.shrink * 100)} % of today's)` : "– (no runs yet to compare with)");
+    setText("#next-dopt", `f10 = ${fix(d.dOptimal[0], 3)} and ${fix(d.dOptimal[1], 3)}`);
+    setText("#next-tm", `f10 = ${fix(d.tidwellMortimer[0], 3)} and ${fix(d.tidwellMortimer[1], 3)}, from r2/(2 + r2) and 2/(2 + r1)`);
+    setText("#next-middle", `f10 = ${fix(d.middle, 3)}`);
+    const fraction = (theBench().feedKind || "fraction") === "fraction";
+    setText("#next-add-note", fraction
+      ? "Adds two rows with the feed filled in; fill in the conversion and the composition once you have measured them."
+      : "The table takes the feed as masses or amounts, so the two rows get the suggested feed in their label only.");
+  }
+
+  function addNextRuns() {
+    if (!state.project || !nextSuggestion || !nextSuggestion.length) return;
+    const b = theBench();
+    const fraction = (b.feedKind || "fraction") === "fraction";
+    const room = MAX_ROWS - b.rows.length;
+    nextSuggestion.slice(0, Math.max(0, room)).forEach((s, k) => {
+      const label = `next ${k + 1}: stop near X = ${fix(s.conversion, 2)}${fraction ? "" : `, f10 = ${fix(s.f10, 3)}`}`;
+      b.rows.push({ label, cells: fraction ? { f10: fix(s.f10, 3) } : {} });
+    });
+    benchChanged(true);
+    setText("#next-add-note", `Added as rows ${b.rows.length - 1} and ${b.rows.length} of the table in step 5.`);
+  }
+
+  function drawScreening(p) {
+    const box = $("#qe-box");
+    const a = p.monomer1.name && findMonomer(p.monomer1.name), b = p.monomer2.name && findMonomer(p.monomer2.name);
+    const r = a && b ? call("qe", { monomer1: a.name, monomer2: b.name }) : null;
+    if (!r || isError(r)) { box.hidden = true; return; }
+    setText("#qe-text", `Q–e scheme: r1 ≈ ${rat(r.r1)}, r2 ≈ ${rat(r.r2)} for ${a.name} (Q = ${shortNum(r.q1)}, e = ${shortNum(r.e1)}) with ${b.name} (Q = ${shortNum(r.q2)}, e = ${shortNum(r.e2)}). ` +
+      "A rough starting point for planning the first runs when there is no data yet. The scheme ignores steric effects and often misses by a factor of two or more; it is not a measured value.");
+    setText("#qe-source", `Values: ${a.name}: ${r.source1}. ${b.name}: ${r.source2}.`);
+    box.hidden = false;
+  }
+
+  // afterProjectChange brings the estimation section up to date with a new valid project.
+  function afterProjectChange(p) {
+    drawJcrNote(p);
+    if (!bench.started) return;
+    drawScreening(p);
+    const masses = p.monomer1.molarMass > 0 && p.monomer2.molarMass > 0 ? `${p.monomer1.molarMass}/${p.monomer2.molarMass}` : "0/0";
+    if (masses !== bench.massKey) refreshBench(false);
+    if (bench.fit && bench.drawnRatios !== `${p.r1}/${p.r2}`) drawFitPlots();
+    if (!bench.fit) drawNext();
+  }
+
+  // startEstimation draws steps 5 to 7 the first time, after the first results are on screen.
+  function startEstimation() {
+    if (bench.started || !state.project || engineStopped) return;
+    bench.started = true;
+    $("#fit-level").value = shortNum(state.project.level > 0 ? state.project.level : DEFAULT_LEVEL);
+    loadBench();
+    afterProjectChange(state.project);
+    scheduleFit(true);
+  }
+
   // ---- Library ------------------------------------------------------------------------------
 
   const sameName = (a, b) => a.trim().toLowerCase() === b.trim().toLowerCase();
@@ -691,6 +1636,7 @@
     $("#r1").value = shortNum(pr.r1);
     $("#r2").value = shortNum(pr.r2);
     $("#ratio-source").value = pr.source + (pr.temperature ? ` (${pr.temperature})` : "");
+    state.formJcr = null;
     recompute();
   }
 
@@ -767,11 +1713,14 @@
     fillForm(prev);
     updateBadge();
     recompute();
+    loadBench();
   }
 
   // ---- Start ----------------------------------------------------------------------------------
 
   function wire() {
+    // Ratios typed by hand no longer match the region of a fit: drop it (before recompute runs).
+    for (const sel of ["#r1", "#r2"]) $(sel).addEventListener("input", () => { state.formJcr = null; });
     for (const sel of PROJECT_INPUTS) $(sel).addEventListener("input", recompute);
     $("#target-F1").addEventListener("input", () => { if (state.project && !state.invalid) drawFeedFor(state.project); });
     $("#pair-pick").addEventListener("change", pickPair);
@@ -781,6 +1730,26 @@
     $("#import-file").addEventListener("change", importFile);
     $("#start-demo").addEventListener("click", startDemo);
     $("#undo-replace").addEventListener("click", undoReplace);
+
+    $("#bench-feed-kind").addEventListener("change", (e) => setBenchForm("feedKind", e.target.value));
+    $("#bench-conversion-kind").addEventListener("change", (e) => setBenchForm("conversionKind", e.target.value));
+    $("#bench-composition-kind").addEventListener("change", (e) => setBenchForm("compositionKind", e.target.value));
+    $("#bench-element").addEventListener("input", (e) => {
+      if (!state.project) return;
+      theBench().element = e.target.value.trim();
+      benchChanged(true);
+    });
+    $("#bench-carrier").addEventListener("change", (e) => setBenchForm("carrier", Number(e.target.value)));
+    $("#bench-element-count").addEventListener("input", setElementCount);
+    $("#bench-add-row").addEventListener("click", addRow);
+    $("#bench-clear").addEventListener("click", clearRows);
+    $("#bench-export").addEventListener("click", exportTable);
+    $("#bench-import").addEventListener("change", importTable);
+    $("#bench-undo").addEventListener("click", undoBench);
+    $("#bench-paste-add").addEventListener("click", pasteRows);
+    $("#fit-level").addEventListener("input", onLevelInput);
+    $("#fit-use").addEventListener("click", useFitted);
+    $("#next-add").addEventListener("click", addNextRuns);
   }
 
   function failStart(err) {
@@ -839,6 +1808,8 @@
     $("#engine-status").hidden = true;
     performance.mark("copoly:ready");
     readyResolve();
+    // Steps 5 to 7 (conversion of the bench grid, the fit) come after the first results.
+    setTimeout(startEstimation, 0);
   }
 
   start().catch(failStart);

@@ -100,7 +100,7 @@ const Plot = (() => {
         g.append(el("rect", { x: 4, y: -6, width: 22, height: 12, fill: e.color, "fill-opacity": e.opacity ?? 1,
           stroke: e.stroke || "none" }));
       } else if (e.kind === "point") {
-        g.append(marker(15, 0, e.shape || "circle", e.color, 5));
+        g.append(marker(15, 0, e.shape || "circle", e.color, 5, e.hollow));
       } else {
         g.append(el("line", { x1: 2, y1: 0, x2: 28, y2: 0, stroke: e.color, "stroke-width": e.width || 2.5,
           "stroke-dasharray": e.dash || null }));
@@ -112,15 +112,28 @@ const Plot = (() => {
     return y;
   }
 
-  function marker(x, y, shape, color, r) {
-    if (shape === "diamond") {
-      return el("path", { d: `M${x},${y - r * 1.3}L${x + r * 1.3},${y}L${x},${y + r * 1.3}L${x - r * 1.3},${y}Z`,
-        fill: color, stroke: "#ffffff", "stroke-width": 1.5 });
+  // marker draws one data marker; hollow draws its outline only.
+  function marker(x, y, shape, color, r, hollow) {
+    const paint = hollow
+      ? { fill: "#ffffff", stroke: color, "stroke-width": 1.8 }
+      : { fill: color, stroke: "#ffffff", "stroke-width": 1.5 };
+    const path = (d) => el("path", { d, ...paint });
+    switch (shape) {
+      case "diamond":
+        return path(`M${x},${y - r * 1.3}L${x + r * 1.3},${y}L${x},${y + r * 1.3}L${x - r * 1.3},${y}Z`);
+      case "square":
+        return el("rect", { x: x - r, y: y - r, width: 2 * r, height: 2 * r, ...paint });
+      case "triangle":
+        return path(`M${x},${y - r * 1.25}L${x + r * 1.15},${y + r * 0.8}L${x - r * 1.15},${y + r * 0.8}Z`);
+      case "triangle-down":
+        return path(`M${x},${y + r * 1.25}L${x + r * 1.15},${y - r * 0.8}L${x - r * 1.15},${y - r * 0.8}Z`);
+      case "cross": {
+        const a = r * 1.1;
+        return el("path", { d: `M${x - a},${y - a}L${x + a},${y + a}M${x - a},${y + a}L${x + a},${y - a}`,
+          fill: "none", stroke: color, "stroke-width": 2.6, "stroke-linecap": "round" });
+      }
     }
-    if (shape === "square") {
-      return el("rect", { x: x - r, y: y - r, width: 2 * r, height: 2 * r, fill: color, stroke: "#ffffff", "stroke-width": 1.5 });
-    }
-    return el("circle", { cx: x, cy: y, r, fill: color, stroke: "#ffffff", "stroke-width": 1.5 });
+    return el("circle", { cx: x, cy: y, r, ...paint });
   }
 
   // chart draws an x–y chart.
@@ -132,7 +145,12 @@ const Plot = (() => {
   //   {type: "band", y0, y1, color, opacity}                 (horizontal band across the plot)
   //   {type: "vline", x, color, dash, text}                  (vertical line with a label at the top)
   //   {type: "point", x, y, color, shape, text, anchor}      (one marker with a label)
-  // and a legend entry is {label, color, kind: "line" | "box" | "point", dash, shape, opacity}.
+  //   {type: "points", x: [], y: [], color, shape, r, hollow} (markers without labels)
+  //   {type: "segments", x0: [], y0: [], x1: [], y1: [], color, width, dash}
+  //   {type: "polygon", points: [[x, y], ...], color, opacity, stroke, role}  (a closed, filled outline)
+  //   {type: "hline", y, color, dash}                        (horizontal line across the plot)
+  // and a legend entry is {label, color, kind: "line" | "box" | "point", dash, shape, hollow, opacity}.
+  // Shapes: "circle", "square", "diamond", "triangle", "triangle-down", "cross".
   function chart(spec) {
     const W = spec.width || 600, H = spec.height || 400;
     const entries = spec.legend || [];
@@ -229,6 +247,35 @@ const Plot = (() => {
             labels.append(el("text", { x: right ? X + 6 : X - 6, y: m.t + 16, "text-anchor": right ? "start" : "end",
               fill: layer.color, "font-weight": 600 }, layer.text));
           }
+          break;
+        }
+        case "points":
+          for (let i = 0; i < layer.x.length; i++) {
+            if (!Number.isFinite(layer.x[i]) || !Number.isFinite(layer.y[i])) continue;
+            data.append(marker(sx(layer.x[i]), sy(layer.y[i]), layer.shape, layer.color, layer.r || 5, layer.hollow));
+          }
+          break;
+        case "segments":
+          for (let i = 0; i < layer.x0.length; i++) {
+            const v = [layer.x0[i], layer.y0[i], layer.x1[i], layer.y1[i]];
+            if (!v.every(Number.isFinite)) continue;
+            data.append(el("line", { x1: sx(v[0]), y1: sy(v[1]), x2: sx(v[2]), y2: sy(v[3]), stroke: layer.color,
+              "stroke-width": layer.width || 1.2, "stroke-dasharray": layer.dash || null }));
+          }
+          break;
+        case "polygon": {
+          const pts = layer.points.filter((q) => Number.isFinite(q[0]) && Number.isFinite(q[1]))
+            .map((q) => `${sx(q[0]).toFixed(2)},${sy(q[1]).toFixed(2)}`);
+          if (pts.length < 3) break;
+          data.append(el("polygon", { points: pts.join(" "), fill: layer.color, "fill-opacity": layer.opacity ?? 0.18,
+            stroke: layer.stroke || layer.color, "stroke-width": layer.width || 1.8, "stroke-linejoin": "round",
+            "data-role": layer.role || null }));
+          break;
+        }
+        case "hline": {
+          const Y = sy(layer.y);
+          data.append(el("line", { x1: m.l, y1: Y, x2: m.l + pw, y2: Y, stroke: layer.color, "stroke-width": 1.5,
+            "stroke-dasharray": layer.dash || "6 4" }));
           break;
         }
         case "point": {

@@ -594,3 +594,312 @@ func (b *tailBuffer) String() string {
 	defer b.mu.Unlock()
 	return b.buf.String()
 }
+
+// The styrene (M1) / methyl methacrylate (M2) pair for the bench-data test: r1 = 0.52, r2 = 0.46,
+// from Polymer Handbook, 4th ed. (Wiley 1999), section II, the free-radical reactivity-ratio
+// table compiled by R. Z. Greenley, the commonly quoted entry for bulk at 60 °C (values from
+// memory).
+const (
+	benchR1 = 0.52
+	benchR2 = 0.46
+	// benchTol bounds |fitted − true| for each ratio. The simulated compositions are exact
+	// Mayo–Lewis values rounded to three decimals, so the only error is that rounding (at most
+	// 0.0005 in F1), which moves these estimates by about 0.001; 0.01 leaves room for the
+	// optimiser's stopping rule (common practice, no source).
+	benchTol = 0.01
+)
+
+// benchFeeds are the starting feeds f10 of the simulated runs: spread over the whole range,
+// as a bench study would be.
+var benchFeeds = []float64{0.10, 0.20, 0.35, 0.50, 0.65, 0.80, 0.90}
+
+// mayoLewis is the instantaneous copolymer composition
+//
+//	F1 = (r1 f1² + f1 f2)/(r1 f1² + 2 f1 f2 + r2 f2²)
+//
+// (F. R. Mayo, F. M. Lewis, J. Am. Chem. Soc. 66, 1594 (1944)).
+func mayoLewis(r1, r2, f1 float64) float64 {
+	f2 := 1 - f1
+	return (r1*f1*f1 + f1*f2) / (r1*f1*f1 + 2*f1*f2 + r2*f2*f2)
+}
+
+// benchRow is one simulated sample as the test pastes it: label and the cell texts, written
+// with a decimal comma as a spreadsheet in such a locale copies them.
+type benchRow struct{ label, f10, F1 string }
+
+func simulatedRuns() []benchRow {
+	rows := make([]benchRow, len(benchFeeds))
+	for i, f := range benchFeeds {
+		comma := func(v float64, d int) string { return strings.Replace(strconv.FormatFloat(v, 'f', d, 64), ".", ",", 1) }
+		rows[i] = benchRow{label: fmt.Sprintf("S-%d", i+1), f10: comma(f, 2), F1: comma(mayoLewis(benchR1, benchR2, f), 3)}
+	}
+	return rows
+}
+
+// TestBrowserBenchData uses the bench-data grid as a chemist would: it clears the demo runs,
+// pastes a tab-separated block with decimal commas, waits for the estimate, checks the
+// recommended r1 and r2 against the ratios the data were made from and that the joint
+// confidence region is drawn, copies the ratios into step 1, reloads to see the grid and the
+// ratios come back from IndexedDB, and types a bad cell to see it marked and kept as typed.
+func TestBrowserBenchData(t *testing.T) {
+	html := pagePath(t)
+	chromium := findChromium(t)
+	pageURL := (&url.URL{Scheme: "file", Path: html}).String()
+
+	w := &watcher{pageURL: pageURL}
+	ctx, stop := startBrowser(t, chromium, w)
+	defer stop()
+	defer screenshot(t, ctx)
+
+	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
+	waitReady(t, ctx)
+	// The demo's invented runs fill the grid once the estimation section is drawn.
+	waitUntil(t, ctx, "the demo's runs in the bench grid", `
+		const n = document.querySelectorAll("#bench-table tbody tr[data-row]").length;
+		return n > 0 ? "" : "no rows in #bench-table";`, stepTimeout)
+	w.check(t, "loading the page")
+
+	click(t, ctx, "bench-clear")
+	waitUntil(t, ctx, "an empty grid after Remove all rows", `
+		const n = document.querySelectorAll("#bench-table tbody tr[data-row]").length;
+		return n === 0 ? "" : n + " rows left";`, stepTimeout)
+	setSelect(t, ctx, "bench-conversion-kind", "none")
+
+	rows := simulatedRuns()
+	lines := []string{"sample\tf10\tF1"}
+	for _, r := range rows {
+		lines = append(lines, r.label+"\t"+r.f10+"\t"+r.F1)
+	}
+	block := strings.Join(lines, "\n") + "\n"
+	t.Logf("pasted block:\n%s", block)
+	setInput(t, ctx, "bench-paste", block)
+	click(t, ctx, "bench-paste-add")
+	checkGrid(t, ctx, rows, "after pasting")
+	// The converted column shows the feed as a mole fraction with a decimal point.
+	for i, f := range benchFeeds {
+		got := evalJS[string](t, ctx, fmt.Sprintf(`(document.querySelector('#bench-table tr[data-row="%d"] td[data-conv="f10"]') || {textContent: "(none)"}).textContent.trim()`, i))
+		if v, err := strconv.ParseFloat(got, 64); err != nil || math.Abs(v-f) > 5e-5 {
+			t.Errorf("row %d: converted f10 = %q, want %.4f (the pasted %q)", i+1, got, f, rows[i].f10)
+		}
+	}
+	if v := evalJS[string](t, ctx, `document.getElementById("bench-paste").value`); v != "" {
+		t.Errorf("#bench-paste still holds %q after the rows were added", v)
+	}
+	w.check(t, "pasting the runs")
+
+	r1, r2 := checkRecommended(t, ctx, "after pasting")
+	checkRegionPolygon(t, ctx)
+	// The table gives the region's extent; the ratios the data were made from lie inside it.
+	for _, c := range []struct {
+		col  string
+		want float64
+	}{{"region1", benchR1}, {"region2", benchR2}} {
+		text := evalJS[string](t, ctx, fmt.Sprintf(`document.querySelector('#fit-table tr[data-recommended] td[data-col=%q]').textContent`, c.col))
+		lo, hi, ok := strings.Cut(strings.TrimSpace(text), "–")
+		a, err1 := strconv.ParseFloat(lo, 64)
+		b, err2 := strconv.ParseFloat(hi, 64)
+		if !ok || err1 != nil || err2 != nil || !(a <= c.want && c.want <= b) {
+			t.Errorf("#fit-table recommended %s = %q; want a range that holds %v", c.col, text, c.want)
+		}
+	}
+
+	// Use these ratios: step 1 takes the recommended values and notes their origin.
+	click(t, ctx, "fit-use")
+	waitUntil(t, ctx, "#ratio-source to name the fit", `
+		const s = document.getElementById("ratio-source").value;
+		return /fitted to 7 runs/.test(s) && /JCR/.test(s) ? "" : "#ratio-source = " + JSON.stringify(s);`, stepTimeout)
+	checkFieldNear(t, ctx, "r1", r1, 1e-3, "after Use these ratios")
+	checkFieldNear(t, ctx, "r2", r2, 1e-3, "after Use these ratios")
+	waitUntil(t, ctx, "#ratio-jcr to say a region is kept", `
+		const e = document.getElementById("ratio-jcr");
+		return e.checkVisibility() && /region/.test(e.textContent) ? "" : "#ratio-jcr: " + JSON.stringify(e.textContent);`, stepTimeout)
+	waitStored(t, ctx, len(rows))
+	w.check(t, "using the fitted ratios")
+
+	// Reload: the grid, as typed, and the ratios with their region come back from IndexedDB.
+	run(t, ctx, "reload", chromedp.Reload())
+	waitReady(t, ctx)
+	checkGrid(t, ctx, rows, "after a reload")
+	checkFieldNear(t, ctx, "r1", r1, 1e-3, "after a reload")
+	checkFieldNear(t, ctx, "r2", r2, 1e-3, "after a reload")
+	checkRecommended(t, ctx, "after a reload")
+	checkRegionPolygon(t, ctx)
+	waitUntil(t, ctx, "#ratio-jcr after a reload", `
+		return document.getElementById("ratio-jcr").checkVisibility() ? "" : "#ratio-jcr is hidden";`, stepTimeout)
+	checkNoFatalBanner(t, ctx)
+	w.check(t, "reloading the page")
+
+	// A cell that is not a number is marked in its row, kept as typed, and does not stop the
+	// other rows from being saved.
+	const bad = "0,4x"
+	setInput(t, ctx, "bench-r2-F1", bad)
+	waitUntil(t, ctx, "the bad cell to be marked", `
+		const c = document.getElementById("bench-r2-F1");
+		if (c.getAttribute("aria-invalid") !== "true") return "aria-invalid=" + c.getAttribute("aria-invalid");
+		const m = document.getElementById(c.getAttribute("aria-describedby") || "");
+		if (!m || !m.checkVisibility()) return "no visible message for the cell";
+		return m.textContent.includes("0,4x") ? "" : "message: " + JSON.stringify(m.textContent);`, stepTimeout)
+	waitUntil(t, ctx, "the estimate from the six good runs", `
+		const s = document.getElementById("fit-status").textContent;
+		return /from 6 runs/.test(s) ? "" : "#fit-status: " + JSON.stringify(s);`, stepTimeout)
+	waitStoredCell(t, ctx, 2, "F1", bad)
+	run(t, ctx, "reload", chromedp.Reload())
+	waitReady(t, ctx)
+	waitUntil(t, ctx, "the bad cell kept as typed after a reload", `
+		const c = document.getElementById("bench-r2-F1");
+		if (!c) return "no #bench-r2-F1";
+		return c.value === "0,4x" && c.getAttribute("aria-invalid") === "true" ? "" : "value " + JSON.stringify(c.value) + ", aria-invalid " + c.getAttribute("aria-invalid");`, stepTimeout)
+	checkNoFatalBanner(t, ctx)
+	w.check(t, "typing a bad cell and reloading")
+}
+
+// click clicks the button (or other element) with the id.
+func click(t *testing.T, ctx context.Context, id string) {
+	t.Helper()
+	problem := evalJS[string](t, ctx, fmt.Sprintf(`((id) => {
+		const el = document.getElementById(id);
+		if (!el) return "no #" + id;
+		if (el.disabled) return "#" + id + " is disabled";
+		if (!el.checkVisibility()) return "#" + id + " is hidden";
+		el.click();
+		return "";
+	})(%s)`, jsString(id)))
+	if problem != "" {
+		t.Fatalf("clicking #%s: %s", id, problem)
+	}
+}
+
+// setSelect chooses the option with the value in the select with the id, as a person does.
+func setSelect(t *testing.T, ctx context.Context, id, value string) {
+	t.Helper()
+	problem := evalJS[string](t, ctx, fmt.Sprintf(`((id, v) => {
+		const el = document.getElementById(id);
+		if (!el) return "no #" + id;
+		if (![...el.options].some(o => o.value === v)) return "#" + id + " has no option " + v;
+		el.value = v;
+		el.dispatchEvent(new Event("change", {bubbles: true}));
+		return "";
+	})(%s, %s)`, jsString(id), jsString(value)))
+	if problem != "" {
+		t.Fatalf("choosing %q in #%s: %s", value, id, problem)
+	}
+}
+
+// checkGrid waits until the bench grid shows exactly rows, each cell holding the text as pasted
+// (with its decimal comma), and no cell marked invalid.
+func checkGrid(t *testing.T, ctx context.Context, rows []benchRow, when string) {
+	t.Helper()
+	want, _ := json.Marshal(func() [][3]string {
+		out := make([][3]string, len(rows))
+		for i, r := range rows {
+			out[i] = [3]string{r.label, r.f10, r.F1}
+		}
+		return out
+	}())
+	waitUntil(t, ctx, "the bench grid to hold the pasted rows "+when, fmt.Sprintf(`
+		const want = %s;
+		const trs = [...document.querySelectorAll("#bench-table tbody tr[data-row]")];
+		if (trs.length !== want.length) return trs.length + " rows, want " + want.length;
+		for (let i = 0; i < want.length; i++) {
+			const got = ["label", "f10", "F1"].map(k => (document.getElementById("bench-r" + i + "-" + k) || {value: "(no cell)"}).value);
+			if (JSON.stringify(got) !== JSON.stringify(want[i])) return "row " + (i + 1) + ": " + JSON.stringify(got) + ", want " + JSON.stringify(want[i]);
+		}
+		const bad = document.querySelectorAll('#bench-table input[aria-invalid="true"]').length;
+		return bad ? bad + " cells marked invalid" : "";`, want), stepTimeout)
+}
+
+// checkRecommended waits for the estimate and checks the recommended method's r1 and r2 against
+// the ratios the simulated data were made from; it returns them as shown.
+func checkRecommended(t *testing.T, ctx context.Context, when string) (r1, r2 float64) {
+	t.Helper()
+	waitUntil(t, ctx, "the recommended estimate in #fit-table "+when, `
+		const tr = document.querySelector("#fit-table tr[data-recommended]");
+		if (!tr || !tr.checkVisibility()) return "no visible recommended row; #fit-status: " + document.getElementById("fit-status").textContent;
+		return /from 7 runs/.test(document.getElementById("fit-status").textContent) ? "" : "#fit-status: " + document.getElementById("fit-status").textContent;`, stepTimeout)
+	got := evalJS[[3]string](t, ctx, `(() => {
+		const tr = document.querySelector("#fit-table tr[data-recommended]");
+		return [tr.dataset.method, tr.querySelector('[data-col="r1"]').textContent, tr.querySelector('[data-col="r2"]').textContent];
+	})()`)
+	if got[0] != "nonlinear" {
+		t.Errorf("%s: the recommended method is %q; without uncertainties it must be nonlinear least squares", when, got[0])
+	}
+	var err1, err2 error
+	r1, err1 = strconv.ParseFloat(strings.TrimSpace(got[1]), 64)
+	r2, err2 = strconv.ParseFloat(strings.TrimSpace(got[2]), 64)
+	if err1 != nil || err2 != nil || math.Abs(r1-benchR1) > benchTol || math.Abs(r2-benchR2) > benchTol {
+		t.Errorf("%s: recommended r1 = %q, r2 = %q; want %v ± %v and %v ± %v", when, got[1], got[2], benchR1, benchTol, benchR2, benchTol)
+	}
+	t.Logf("%s: recommended (%s) r1 = %s, r2 = %s", when, got[0], got[1], got[2])
+	return r1, r2
+}
+
+// checkRegionPolygon checks that the region plot holds the joint confidence region as a
+// polygon of at least 8 distinct points, all inside the drawing.
+func checkRegionPolygon(t *testing.T, ctx context.Context) {
+	t.Helper()
+	waitUntil(t, ctx, "the joint confidence region polygon in #fig-jcr", `
+		const svg = document.querySelector("#fig-jcr svg");
+		if (!svg) return "no svg in #fig-jcr";
+		const poly = svg.querySelector('polygon[data-role="jcr"]');
+		if (!poly) return "no region polygon";
+		const [, , W, H] = svg.getAttribute("viewBox").split(/\s+/).map(Number);
+		const pts = poly.getAttribute("points").trim().split(/\s+/).map(p => p.split(",").map(Number));
+		const distinct = new Set(pts.map(p => p.join(","))).size;
+		if (distinct < 8) return distinct + " distinct points";
+		const out = pts.filter(([x, y]) => !(x >= 0 && x <= W && y >= 0 && y <= H));
+		return out.length ? out.length + " points outside the drawing" : "";`, stepTimeout)
+}
+
+// checkFieldNear checks that the input with the id holds a number within tol of want.
+func checkFieldNear(t *testing.T, ctx context.Context, id string, want, tol float64, when string) {
+	t.Helper()
+	got := evalJS[string](t, ctx, fmt.Sprintf(`(document.getElementById(%s) || {value: "(no such input)"}).value`, jsString(id)))
+	v, err := strconv.ParseFloat(strings.TrimSpace(got), 64)
+	if err != nil || math.Abs(v-want) > tol {
+		t.Errorf("%s: #%s = %q, want %v ± %v", when, id, got, want, tol)
+	}
+}
+
+// storedProject evaluates body with `p`, the project the page's module reads back from
+// IndexedDB, until body returns ""; it fails the test after stepTimeout.
+func storedProject(t *testing.T, ctx context.Context, what, body string) {
+	t.Helper()
+	deadline := time.Now().Add(stepTimeout)
+	for {
+		got, err := chromedp.Run(ctx, chromedp.Evaluate[string](`(async () => {
+			const r = await window.copoly.loadProject({});
+			if (!r || r.error) return "loadProject: " + JSON.stringify(r);
+			const p = r.project;
+			if (!p) return "nothing stored";
+			try {`+body+`} catch (e) { return String(e); }
+		})()`, chromedp.EvalAwaitPromise))
+		if err != nil {
+			t.Fatalf("reading the stored project: %v", err)
+		}
+		if got == "" {
+			return
+		}
+		if time.Now().After(deadline) {
+			t.Fatalf("waited %v for %s; the stored project: %s", stepTimeout, what, got)
+		}
+		run(t, ctx, "poll", chromedp.Sleep(pollInterval))
+	}
+}
+
+// waitStored waits until the stored project holds n bench rows and a joint confidence region.
+func waitStored(t *testing.T, ctx context.Context, n int) {
+	t.Helper()
+	storedProject(t, ctx, fmt.Sprintf("%d bench rows and a region to be saved", n), fmt.Sprintf(`
+		const rows = p.bench && p.bench.rows ? p.bench.rows.length : 0;
+		if (rows !== %d) return rows + " rows stored";
+		return Array.isArray(p.jcr) && p.jcr.length >= 8 ? "" : "jcr: " + JSON.stringify(p.jcr);`, n))
+}
+
+// waitStoredCell waits until the stored bench row holds text in the cell key.
+func waitStoredCell(t *testing.T, ctx context.Context, row int, key, text string) {
+	t.Helper()
+	storedProject(t, ctx, fmt.Sprintf("row %d, %s = %q to be saved", row+1, key, text), fmt.Sprintf(`
+		const r = p.bench && p.bench.rows[%d];
+		const v = r && r.cells ? r.cells[%s] : undefined;
+		return v === %s ? "" : "cell: " + JSON.stringify(v);`, row, jsString(key), jsString(text)))
+}

@@ -2,9 +2,11 @@
 
 // Package browsertest opens the built page, dist/copoly.html, from file:// in headless Chromium
 // and uses it as a person would: it types reactivity ratios, reads the results, reloads the page
-// to see the project come back from IndexedDB, and types a bad value to see it refused. The page
-// must do all this without a console error, an uncaught exception or any request beyond its own
-// file.
+// to see the project come back from IndexedDB, and types a bad value to see it refused. A second
+// test pastes simulated bench data (decimal commas, tab-separated) into the bench grid, checks
+// the estimated reactivity ratios and the drawn joint confidence region, copies the ratios into
+// the pair panel, and reloads to see the grid kept as typed. The page must do all this without a
+// console error, an uncaught exception or any request beyond its own file.
 //
 // The package has only a test. Run it through make, which builds the page first:
 //
