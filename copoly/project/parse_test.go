@@ -32,6 +32,14 @@ func TestParseRoundTrip(t *testing.T) {
 	fitted.Bench.Rows = append(fitted.Bench.Rows, BenchRow{Label: `quote " and tab 	`, Cells: map[string]string{"sX": "", "integral1": "1e3"}})
 	emptyBench := Demo()
 	emptyBench.Bench = &Bench{}
+	noPlan := Demo()
+	noPlan.Plan = nil
+	emptyPlan := Demo()
+	emptyPlan.Plan = &Plan{}
+	fullPlan := Demo()
+	fullPlan.Plan = &Plan{Mode: "shots", TargetF1: 0.35, PolymerMass: 12.5, Tolerance: 0.01, StopConversion: 0.4,
+		FinalConversion: 0.9, Feed: "mixture", FeedF1: 0.55, Shots: 9, RateConstant: 0.004, HalfLife: 170,
+		BatchMass: 40, HeatCapacity: 1.9, RiseLimit: 20}
 	tests := []struct {
 		name string
 		p    Project
@@ -42,6 +50,9 @@ func TestParseRoundTrip(t *testing.T) {
 		{"no bench", noBench},
 		{"fitted, odd cells", fitted},
 		{"empty bench", emptyBench},
+		{"no plan", noPlan},
+		{"empty plan", emptyPlan},
+		{"every plan key", fullPlan},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {

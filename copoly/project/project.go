@@ -28,16 +28,18 @@
 //	    "rows": [{"label": "…", "cells": {"f10": "0.100", "conversion": "0,04", "F1": "0.295"}}]
 //	  },
 //	  "level": 0.95,
-//	  "jcr": [[0.71, 0.15], [0.80, 0.14], …]
+//	  "jcr": [[0.71, 0.15], [0.80, 0.14], …],
+//	  "plan": {"mode": "semibatch", "targetF1": 0.5, "polymerMass": 1000, "rateConstant": 0.01}
 //	}
 //
 // "format" must be "copoly-project". "version" is [Version]; a file with a larger version was
 // made by a newer copoly and is refused with an error that says so, rather than read wrongly.
-// "invented", "savedAt", "bench", "level" and "jcr" are optional and left out when empty, so a
-// file without them (written before they existed) still reads. "bench" is the bench-data grid
-// as typed ([Bench]); "level" the confidence level of the joint region of a fit (0 or absent
-// means 0.95); "jcr" the joint confidence region of the ratios in use when they came from a fit,
-// as (r1, r2) points. The same object, with the same keys, is the Project of the JavaScript API
+// "invented", "savedAt", "bench", "level", "jcr" and "plan" are optional and left out when
+// empty, so a file without them (written before they existed) still reads. "bench" is the
+// bench-data grid as typed ([Bench]); "level" the confidence level of the joint region of a fit
+// (0 or absent means 0.95); "jcr" the joint confidence region of the ratios in use when they
+// came from a fit, as (r1, r2) points; "plan" the inputs of the feed-planning panel ([Plan]),
+// each key left out when not given. The same object, with the same keys, is the Project of the JavaScript API
 // (site/copoly.d.ts).
 //
 // # Errors
@@ -133,6 +135,9 @@ type Project struct {
 	// JCR is the joint confidence region of R1 and R2 as a closed polygon of (r1, r2) points,
 	// when the ratios in use came from a fit; at most MaxJCRPoints points, each finite and ≥ 0.
 	JCR [][2]float64 `json:"jcr,omitempty"`
+	// Plan holds the inputs of the feed-planning panel as the user left them, or nil when there
+	// are none.
+	Plan *Plan `json:"plan,omitempty"`
 }
 
 // Validate reports the first invalid value of p as a *copoly.InputError or *copoly.FieldError
@@ -207,7 +212,13 @@ func (p Project) Validate() error {
 	if p.Level != 0 && !(p.Level > 0 && p.Level < 1) {
 		return &copoly.InputError{Field: "project.level", Value: p.Level, Reason: "the confidence level must lie between 0 and 1, e.g. 0.95 (0 = the default 0.95)", Err: copoly.ErrOutOfRange}
 	}
-	return checkJCR("project.jcr", p.JCR)
+	if err := checkJCR("project.jcr", p.JCR); err != nil {
+		return err
+	}
+	if p.Plan != nil {
+		return CheckPlan("project.plan", *p.Plan)
+	}
+	return nil
 }
 
 // checkVersion accepts only Version, and says so plainly when v comes from a newer copoly.
@@ -256,6 +267,19 @@ func Demo() Project {
 			"copolymerizations can run away. Follow your local codes, safety data sheets and licensed practice.",
 		Invented: true,
 		Bench:    &bench,
+		// Invented demo settings for the planning panel, not a recipe anyone has run: a
+		// semi-batch making 1 kg of a 50:50 (mol) copolymer, an assumed first-order rate
+		// constant, and an assumed 2.5 kg reactor charge for the adiabatic-rise check.
+		Plan: &Plan{
+			Mode:         copoly.PlanSemibatch,
+			TargetF1:     0.5,
+			PolymerMass:  1000,
+			Tolerance:    0.02,
+			RateConstant: 0.01,
+			BatchMass:    2500,
+			HeatCapacity: 2.0,
+			RiseLimit:    50,
+		},
 	}
 }
 
