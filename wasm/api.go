@@ -15,7 +15,8 @@ import (
 // reads its argument into a fresh DTO, applies defaults, calls copoly and converts the result.
 // Input checks that need science (ranges of ratios, feeds, conversions) are left to copoly; the
 // bridge only checks what the JS form of the input adds: presence, JS types, whole numbers,
-// the "basis" word and that molar masses come in pairs.
+// the "basis" word, that molar masses come in pairs, and an explicit 0 where copoly would read
+// 0 as "use the default".
 
 // Defaults of the optional arguments (site/copoly.d.ts).
 const (
@@ -25,6 +26,7 @@ const (
 	defaultChainCount  = 12
 	defaultChainLength = 60
 	defaultSeed        = 1
+	defaultBandSamples = 500
 	maxSeed            = 1<<53 - 1 // the largest whole number a JS number holds exactly
 )
 
@@ -51,6 +53,8 @@ func newAPI(st *storage) js.Value {
 		{"pasteBench", argRequired, pasteBench},
 		{"fit", argRequired, fit},
 		{"nextRuns", argRequired, nextRuns},
+		{"plan", argRequired, plan},
+		{"starvedFeed", argRequired, starvedFeed},
 		{"qe", argRequired, qe},
 	} {
 		api.Set(m.name, wrap(m.name, m.policy, m.fn))
@@ -273,7 +277,16 @@ func library(js.Value) (any, error) {
 	ms, ps := copoly.Monomers(), copoly.Pairs()
 	out := libraryOut{Monomers: make([]monomerOut, len(ms)), Pairs: make([]pairOut, len(ps))}
 	for i, m := range ms {
-		out.Monomers[i] = monomerOut{Name: m.Name, Formula: m.Formula, MolarMass: m.MolarMass, Source: m.Source}
+		o := monomerOut{Name: m.Name, Formula: m.Formula, MolarMass: m.MolarMass, Source: m.Source, Hazards: []string{}}
+		if pr, ok := copoly.PropertiesOf(m.Name); ok {
+			o.State, o.Density, o.DensityTemp, o.DensitySource = pr.State, pr.Density, pr.DensityTemp, pr.DensitySource
+			o.Heat, o.HeatSource = pr.HeatOfPolymerization, pr.HeatSource
+			o.Hazards, o.HazardSource = orNoTexts(pr.Hazards), pr.HazardSource
+		}
+		if q, ok := copoly.QEOf(m.Name); ok {
+			o.Q, o.E, o.QESource = &q.Q, &q.E, q.Source
+		}
+		out.Monomers[i] = o
 	}
 	for i, p := range ps {
 		out.Pairs[i] = pairOut{Monomer1: p.Monomer1, Monomer2: p.Monomer2, R1: p.R1, R2: p.R2, Temperature: p.Temperature, Source: p.Source}
@@ -539,6 +552,158 @@ func nextRuns(arg js.Value) (any, error) {
 		out.Next[i] = suggestionOut{F10: s.F10, Conversion: s.Conversion}
 	}
 	return out, nil
+}
+
+// plan: a recipe and schedule for a target copolymer composition (copoly.MakePlan), with the
+// safety figures and, when the joint confidence region of the ratios is given, the band of
+// outcomes over it (copoly.PlanBand). Monomers named as in the built-in list lend their heats of
+// polymerization (unless heat1 or heat2 is given), their densities for the volumes of the charge
+// and their hazard classes. An empty jcr (or timeTable) counts as not given.
+func plan(arg js.Value) (any, error) {
+	var in planIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	pi, err := in.planInput()
+	if err != nil {
+		return nil, err
+	}
+	samples, err := intIn("samples", in.Samples, defaultBandSamples, 1, copoly.MaxBandSamples)
+	if err != nil {
+		return nil, err
+	}
+	seed, err := intIn("seed", in.Seed, defaultSeed, 0, maxSeed)
+	if err != nil {
+		return nil, err
+	}
+	var lib [2]*copoly.Properties // process data of monomer1 and monomer2, nil when not built in
+	var hazards []hazardsOut
+	var notes []string
+	for i, name := range []*string{in.Monomer1, in.Monomer2} {
+		if name == nil || *name == "" {
+			continue
+		}
+		pr, ok := copoly.PropertiesOf(*name)
+		if !ok {
+			notes = append(notes, fmt.Sprintf("monomer%d %q is not in the built-in list: no density, heat of polymerization or hazards were taken for it.", i+1, *name))
+			continue
+		}
+		lib[i] = &pr
+		hazards = append(hazards, hazardsOut{Monomer: *name, Hazards: orNoTexts(pr.Hazards)})
+	}
+	if in.Heat1 == nil && lib[0] != nil {
+		pi.Heat1 = lib[0].HeatOfPolymerization
+	}
+	if in.Heat2 == nil && lib[1] != nil {
+		pi.Heat2 = lib[1].HeatOfPolymerization
+	}
+
+	p, err := copoly.MakePlan(pi)
+	if err != nil {
+		return nil, err
+	}
+	out := planDTO(p, millilitres(p.Charge1, lib[0]), millilitres(p.Charge2, lib[1]), hazards)
+	out.Notes = append(out.Notes, notes...)
+	if len(in.JCR) > 0 {
+		region := make([][2]float64, len(in.JCR))
+		for i, pt := range in.JCR {
+			region[i] = [2]float64{pt[0], pt[1]} // decode read each point as a pair
+		}
+		b, err := copoly.PlanBand(pi, p, region, samples, uint64(seed))
+		if err != nil {
+			return nil, err
+		}
+		out.Band = bandDTO(b)
+	}
+	if path := nonFinite(out); path != "" {
+		return nil, fmt.Errorf("copoly: the plan holds a value that is not a finite number (%s); it is not shown", path)
+	}
+	v := toJS(out)
+	if out.Band == nil {
+		v.Delete("band")
+	}
+	return v, nil
+}
+
+// planInput converts the argument of plan to copoly's input. An absent option stays 0, copoly's
+// default. A 0 given on purpose for an option whose 0 copoly reads as "use the default" is
+// refused rather than silently replaced; where the d.ts gives 0 a meaning (shots, heats, batch
+// mass, rate constant, half-life) it is passed on.
+func (in planIn) planInput() (copoly.PlanInput, error) {
+	pi := copoly.PlanInput{
+		Model:    copoly.Terminal{R1: in.R1, R2: in.R2},
+		TargetF1: in.TargetF1, MolarMass1: in.MolarMass1, MolarMass2: in.MolarMass2,
+		PolymerMass: in.PolymerMass, Mode: in.Mode,
+	}
+	for _, o := range []struct {
+		field string
+		v     *float64
+		dst   *float64
+		zero  string // why an explicit 0 is refused; "" when 0 is passed on
+	}{
+		{"tolerance", in.Tolerance, &pi.Tolerance, "must be above 0 (leave it out for the default 0.02)"},
+		{"stopConversion", in.StopConversion, &pi.StopConversion, "must be above 0 (leave it out for the conversion limit of the tolerance)"},
+		{"finalConversion", in.FinalConversion, &pi.FinalConversion, "must be above 0 (leave it out for the default 0.95)"},
+		{"feedF1", in.FeedF1, &pi.FeedF1, "must be above 0 (leave it out for a stream at the target composition; for M2 alone use the feed \"faster\")"},
+		{"rateConstant", in.RateConstant, &pi.RateConstant, ""},
+		{"halfLife", in.HalfLife, &pi.HalfLife, ""},
+		{"heat1", in.Heat1, &pi.Heat1, ""},
+		{"heat2", in.Heat2, &pi.Heat2, ""},
+		{"batchMass", in.BatchMass, &pi.BatchMass, ""},
+		{"heatCapacity", in.HeatCapacity, &pi.HeatCapacity, "must be above 0, in J/(g·K) (leave it out for the default 2.0)"},
+		{"riseLimit", in.RiseLimit, &pi.RiseLimit, "must be above 0, in K (leave it out for the default 50)"},
+	} {
+		if o.v == nil {
+			continue
+		}
+		if *o.v == 0 && o.zero != "" {
+			return copoly.PlanInput{}, &copoly.InputError{Field: o.field, Value: 0, Reason: o.zero, Err: copoly.ErrOutOfRange}
+		}
+		*o.dst = *o.v
+	}
+	if in.Feed != nil {
+		pi.Feed = *in.Feed // "" is copoly's default, "faster"
+	}
+	shots, err := intIn("shots", in.Shots, 0, 0, copoly.MaxShots)
+	if err != nil {
+		return copoly.PlanInput{}, err
+	}
+	steps, err := intIn("steps", in.Steps, 0, 1, copoly.MaxPlanSteps)
+	if err != nil {
+		return copoly.PlanInput{}, err
+	}
+	pi.Shots, pi.Steps = shots, steps
+	if len(in.TimeTable) > 0 {
+		pi.TimeTable = make([][2]float64, len(in.TimeTable))
+		for i, row := range in.TimeTable {
+			pi.TimeTable[i] = [2]float64{row[0], row[1]} // decode read each row as a pair
+		}
+	}
+	return pi, nil
+}
+
+// millilitres is a unit conversion: the volume in mL of mass g of a built-in monomer at its
+// library density, or nil when the monomer is not built in, is not a liquid at room
+// temperature, or has no density.
+func millilitres(mass float64, pr *copoly.Properties) *float64 {
+	if pr == nil || pr.State != copoly.StateLiquid || !(pr.Density > 0) {
+		return nil
+	}
+	v := mass / pr.Density
+	return &v
+}
+
+// starvedFeed: the unreacted inventory of a starved feed at the quasi-steady state.
+func starvedFeed(arg js.Value) (any, error) {
+	var in starvedFeedIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	inv, f1, err := copoly.Terminal{R1: in.R1, R2: in.R2}.StarvedFeed(in.TargetF1, in.FeedRate, in.RateConstant, in.MolarMass1, in.MolarMass2)
+	if err != nil {
+		return nil, err
+	}
+	return starvedFeedOut{Inventory: inv, F1: f1}, nil
 }
 
 // qe: the screening estimate of the ratios from the built-in Q–e values of two monomers.

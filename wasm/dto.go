@@ -174,11 +174,24 @@ type chainsOut struct {
 	Samples []string `js:"samples"`
 }
 
+// monomerOut is the MonomerData of the d.ts: a built-in monomer with its process data
+// (copoly.PropertiesOf) and Q–e values (copoly.QEOf; q and e null when it has none).
 type monomerOut struct {
-	Name      string  `js:"name"`
-	Formula   string  `js:"formula"`
-	MolarMass float64 `js:"molarMass"`
-	Source    string  `js:"source"`
+	Name          string   `js:"name"`
+	Formula       string   `js:"formula"`
+	MolarMass     float64  `js:"molarMass"`
+	Source        string   `js:"source"`
+	State         string   `js:"state"`
+	Density       float64  `js:"density"`
+	DensityTemp   float64  `js:"densityTemp"`
+	DensitySource string   `js:"densitySource"`
+	Heat          float64  `js:"heat"`
+	HeatSource    string   `js:"heatSource"`
+	Q             *float64 `js:"q"`
+	E             *float64 `js:"e"`
+	QESource      string   `js:"qeSource"`
+	Hazards       []string `js:"hazards"`
+	HazardSource  string   `js:"hazardSource"`
 }
 
 type pairOut struct {
@@ -424,6 +437,193 @@ type qeOut struct {
 	Source2 string  `js:"source2"`
 }
 
+// planIn is the argument of plan. The pointer fields are optional; absent means copoly's
+// default (a zero in copoly.PlanInput), and apply checks the few whose zero would silently
+// select a default the caller did not ask for.
+type planIn struct {
+	R1              float64     `js:"r1"`
+	R2              float64     `js:"r2"`
+	TargetF1        float64     `js:"targetF1"`
+	MolarMass1      float64     `js:"molarMass1"`
+	MolarMass2      float64     `js:"molarMass2"`
+	PolymerMass     float64     `js:"polymerMass"`
+	Mode            string      `js:"mode"`
+	Monomer1        *string     `js:"monomer1"`
+	Monomer2        *string     `js:"monomer2"`
+	Tolerance       *float64    `js:"tolerance"`
+	StopConversion  *float64    `js:"stopConversion"`
+	FinalConversion *float64    `js:"finalConversion"`
+	Feed            *string     `js:"feed"`
+	FeedF1          *float64    `js:"feedF1"`
+	Shots           *float64    `js:"shots"`
+	Steps           *float64    `js:"steps"`
+	RateConstant    *float64    `js:"rateConstant"`
+	HalfLife        *float64    `js:"halfLife"`
+	TimeTable       [][]float64 `js:"timeTable" copoly:"optional" limit:"timeTable" pair:"time, conversion"`
+	Heat1           *float64    `js:"heat1"`
+	Heat2           *float64    `js:"heat2"`
+	BatchMass       *float64    `js:"batchMass"`
+	HeatCapacity    *float64    `js:"heatCapacity"`
+	RiseLimit       *float64    `js:"riseLimit"`
+	JCR             [][]float64 `js:"jcr" copoly:"optional" limit:"jcr"`
+	Samples         *float64    `js:"samples"`
+	Seed            *float64    `js:"seed"`
+}
+
+type planRowOut struct {
+	Conversion float64  `js:"conversion"`
+	Polymer    float64  `js:"polymer"`
+	Fed1       float64  `js:"fed1"`
+	Fed2       float64  `js:"fed2"`
+	Feed       float64  `js:"f1"`
+	Inst       float64  `js:"F1"`
+	Cum        float64  `js:"F1cum"`
+	Inventory  float64  `js:"inventory"`
+	Time       *float64 `js:"time"`  // null without a time axis
+	Pump1      *float64 `js:"pump1"` // null without a time axis
+	Pump2      *float64 `js:"pump2"`
+}
+
+// initialOut is the initial charge: g, mol, and mL for a liquid of known density (else null).
+type initialOut struct {
+	M1 float64  `js:"m1"`
+	M2 float64  `js:"m2"`
+	N1 float64  `js:"n1"`
+	N2 float64  `js:"n2"`
+	V1 *float64 `js:"v1"`
+	V2 *float64 `js:"v2"`
+}
+
+type totalOut struct {
+	M1 float64 `js:"m1"`
+	M2 float64 `js:"m2"`
+}
+
+type shotOut struct {
+	Polymer float64  `js:"polymer"`
+	M1      float64  `js:"m1"`
+	M2      float64  `js:"m2"`
+	Time    *float64 `js:"time"` // null without a time axis
+}
+
+type hazardsOut struct {
+	Monomer string   `js:"monomer"`
+	Hazards []string `js:"hazards"`
+}
+
+type safetyOut struct {
+	InventoryMax float64      `js:"inventoryMax"`
+	InventoryAt  float64      `js:"inventoryAt"`
+	Heat         *float64     `js:"heat"` // null when a heat of polymerization is not known
+	Rise         *float64     `js:"rise"`
+	RiseLimit    float64      `js:"riseLimit"`
+	Flagged      bool         `js:"flagged"`
+	BatchMass    float64      `js:"batchMass"`
+	HeatCapacity float64      `js:"heatCapacity"`
+	Hazards      []hazardsOut `js:"hazards"`
+}
+
+type bandOut struct {
+	Samples     int       `js:"samples"`
+	InstLow     []float64 `js:"F1Low"`
+	InstHigh    []float64 `js:"F1High"`
+	CumLow      []float64 `js:"F1cumLow"`
+	CumHigh     []float64 `js:"F1cumHigh"`
+	ProductLow  float64   `js:"productLow"`
+	ProductHigh float64   `js:"productHigh"`
+}
+
+// planOut is the PlanResult of the d.ts; band is removed when nil.
+type planOut struct {
+	Mode           string       `js:"mode"`
+	StartF1        float64      `js:"startF1"`
+	Initial        initialOut   `js:"initial"`
+	Total          totalOut     `js:"total"`
+	FeedF1         float64      `js:"feedF1"`
+	FeedPerPolymer float64      `js:"feedPerPolymer"`
+	StopConversion float64      `js:"stopConversion"`
+	ProductF1      float64      `js:"productF1"`
+	MaxDeviation   float64      `js:"maxDeviation"`
+	Schedule       []planRowOut `js:"schedule"`
+	Shots          []shotOut    `js:"shots"`
+	Distribution   histogramOut `js:"distribution"`
+	InventoryMax   float64      `js:"inventoryMax"`
+	Safety         safetyOut    `js:"safety"`
+	Band           *bandOut     `js:"band"`
+	Notes          []string     `js:"notes"`
+}
+
+// planDTO converts a plan: NaN times, pump rates, heat, rise and volumes become null; v1 and v2
+// are the volumes of the charge from the library densities (see millilitres); hazards the
+// library's hazard classes of the monomers named.
+func planDTO(p *copoly.Plan, v1, v2 *float64, hazards []hazardsOut) planOut {
+	out := planOut{
+		Mode:    p.Mode,
+		StartF1: p.StartF1,
+		Initial: initialOut{M1: p.Charge1, M2: p.Charge2, N1: p.Moles1, N2: p.Moles2,
+			V1: orFinite(v1, p.Volume1), V2: orFinite(v2, p.Volume2)},
+		Total:          totalOut{M1: p.Total1, M2: p.Total2},
+		FeedF1:         p.FeedF1,
+		FeedPerPolymer: p.FeedPerPolymer,
+		StopConversion: p.StopConversion,
+		ProductF1:      p.ProductF1,
+		MaxDeviation:   p.MaxDeviation,
+		Schedule:       make([]planRowOut, len(p.Schedule)),
+		Shots:          make([]shotOut, len(p.Shots)),
+		Distribution:   histogramOut{Edges: orEmpty(p.Distribution.Edges), Weights: orEmpty(p.Distribution.Weights), Basis: p.Distribution.Basis},
+		InventoryMax:   p.Safety.InventoryMax,
+		Safety: safetyOut{
+			InventoryMax: p.Safety.InventoryMax, InventoryAt: p.Safety.InventoryAt,
+			Heat: finiteOrNil(p.Safety.Heat), Rise: finiteOrNil(p.Safety.Rise),
+			RiseLimit: p.Safety.RiseLimit, Flagged: p.Safety.Flagged,
+			BatchMass: p.Safety.BatchMass, HeatCapacity: p.Safety.HeatCapacity,
+			Hazards: hazards,
+		},
+		Notes: orNoTexts(p.Notes),
+	}
+	if out.Safety.Hazards == nil {
+		out.Safety.Hazards = []hazardsOut{}
+	}
+	for i, r := range p.Schedule {
+		out.Schedule[i] = planRowOut{Conversion: r.Conversion, Polymer: r.Polymer, Fed1: r.Fed1, Fed2: r.Fed2,
+			Feed: r.Feed, Inst: r.Inst, Cum: r.Cum, Inventory: r.Inventory,
+			Time: finiteOrNil(r.Time), Pump1: finiteOrNil(r.Pump1), Pump2: finiteOrNil(r.Pump2)}
+	}
+	for i, s := range p.Shots {
+		out.Shots[i] = shotOut{Polymer: s.Polymer, M1: s.Mass1, M2: s.Mass2, Time: finiteOrNil(s.Time)}
+	}
+	return out
+}
+
+func bandDTO(b copoly.Band) *bandOut {
+	return &bandOut{Samples: b.Samples, InstLow: orEmpty(b.InstLow), InstHigh: orEmpty(b.InstHigh),
+		CumLow: orEmpty(b.CumLow), CumHigh: orEmpty(b.CumHigh), ProductLow: b.ProductLow, ProductHigh: b.ProductHigh}
+}
+
+// orFinite returns &x when x is finite (a volume copoly gives), else v (the one the bridge
+// worked out, or nil).
+func orFinite(v *float64, x float64) *float64 {
+	if f := finiteOrNil(x); f != nil {
+		return f
+	}
+	return v
+}
+
+type starvedFeedIn struct {
+	R1           float64 `js:"r1"`
+	R2           float64 `js:"r2"`
+	TargetF1     float64 `js:"targetF1"`
+	FeedRate     float64 `js:"feedRate"`
+	RateConstant float64 `js:"rateConstant"`
+	MolarMass1   float64 `js:"molarMass1"`
+	MolarMass2   float64 `js:"molarMass2"`
+}
+
+type starvedFeedOut struct {
+	Inventory float64 `js:"inventory"`
+	F1        float64 `js:"f1"`
+}
+
 // finiteOrNil returns &x, or nil (null in JavaScript) when x is NaN or infinite.
 func finiteOrNil(x float64) *float64 {
 	if math.IsNaN(x) || math.IsInf(x, 0) {
@@ -436,6 +636,14 @@ func finiteOrNil(x float64) *float64 {
 func orEmpty(s []float64) []float64 {
 	if s == nil {
 		return []float64{}
+	}
+	return s
+}
+
+// orNoTexts returns s, or an empty slice for nil.
+func orNoTexts(s []string) []string {
+	if s == nil {
+		return []string{}
 	}
 	return s
 }
@@ -501,6 +709,73 @@ type projectDTO struct {
 	Bench       *benchDTO         `js:"bench"`
 	Level       float64           `js:"level" copoly:"optional"`
 	JCR         [][]float64       `js:"jcr" copoly:"optional" limit:"jcr"`
+	Plan        *projectPlanDTO   `js:"plan"`
+}
+
+// projectPlanDTO is the plan of a Project, read from JavaScript; planValue writes one. Every key
+// is optional (0 or "" = not given, as in project.Plan). Shots is a float64 so that 2.5 can be
+// refused by name instead of being truncated.
+type projectPlanDTO struct {
+	Mode            string  `js:"mode" copoly:"optional"`
+	TargetF1        float64 `js:"targetF1" copoly:"optional"`
+	PolymerMass     float64 `js:"polymerMass" copoly:"optional"`
+	Tolerance       float64 `js:"tolerance" copoly:"optional"`
+	StopConversion  float64 `js:"stopConversion" copoly:"optional"`
+	FinalConversion float64 `js:"finalConversion" copoly:"optional"`
+	Feed            string  `js:"feed" copoly:"optional"`
+	FeedF1          float64 `js:"feedF1" copoly:"optional"`
+	Shots           float64 `js:"shots" copoly:"optional"`
+	RateConstant    float64 `js:"rateConstant" copoly:"optional"`
+	HalfLife        float64 `js:"halfLife" copoly:"optional"`
+	BatchMass       float64 `js:"batchMass" copoly:"optional"`
+	HeatCapacity    float64 `js:"heatCapacity" copoly:"optional"`
+	RiseLimit       float64 `js:"riseLimit" copoly:"optional"`
+}
+
+// plan converts the plan of a Project read from JavaScript and checks it (project.CheckPlan).
+func (d projectPlanDTO) plan(field string) (project.Plan, error) {
+	if d.Shots != math.Trunc(d.Shots) || math.Abs(d.Shots) > 1e9 {
+		return project.Plan{}, &copoly.InputError{Field: field + ".shots", Value: d.Shots, Reason: "must be a whole number (0 or absent = the fewest within the tolerance)", Err: copoly.ErrOutOfRange}
+	}
+	pl := project.Plan{
+		Mode: d.Mode, TargetF1: d.TargetF1, PolymerMass: d.PolymerMass, Tolerance: d.Tolerance,
+		StopConversion: d.StopConversion, FinalConversion: d.FinalConversion, Feed: d.Feed, FeedF1: d.FeedF1,
+		Shots: int(d.Shots), RateConstant: d.RateConstant, HalfLife: d.HalfLife,
+		BatchMass: d.BatchMass, HeatCapacity: d.HeatCapacity, RiseLimit: d.RiseLimit,
+	}
+	return pl, project.CheckPlan(field, pl)
+}
+
+// planValue returns pl as the plan object of a Project: like the file format it holds only the
+// keys given (not 0 or ""), in the order of the d.ts.
+func planValue(pl project.Plan) js.Value {
+	v := object.New()
+	for _, kv := range []struct {
+		key string
+		v   any
+	}{
+		{"mode", pl.Mode}, {"targetF1", pl.TargetF1}, {"polymerMass", pl.PolymerMass}, {"tolerance", pl.Tolerance},
+		{"stopConversion", pl.StopConversion}, {"finalConversion", pl.FinalConversion},
+		{"feed", pl.Feed}, {"feedF1", pl.FeedF1}, {"shots", pl.Shots},
+		{"rateConstant", pl.RateConstant}, {"halfLife", pl.HalfLife},
+		{"batchMass", pl.BatchMass}, {"heatCapacity", pl.HeatCapacity}, {"riseLimit", pl.RiseLimit},
+	} {
+		switch x := kv.v.(type) {
+		case string:
+			if x != "" {
+				v.Set(kv.key, x)
+			}
+		case float64:
+			if x != 0 {
+				v.Set(kv.key, x)
+			}
+		case int:
+			if x != 0 {
+				v.Set(kv.key, x)
+			}
+		}
+	}
+	return v
 }
 
 // benchDTO is the BenchTable of the d.ts, read from JavaScript; benchValue writes one. Only the
@@ -614,11 +889,18 @@ func (d projectDTO) project() (project.Project, error) {
 			p.JCR[i] = [2]float64{pt[0], pt[1]} // decode read each point as a pair
 		}
 	}
+	if d.Plan != nil {
+		pl, err := d.Plan.plan("project.plan")
+		if err != nil {
+			return project.Project{}, err
+		}
+		p.Plan = &pl
+	}
 	return p, p.Validate()
 }
 
 // projectValue returns p as a JS object; like the file format it leaves out invented when false,
-// savedAt when empty, bench when nil, level when 0 and jcr when empty.
+// savedAt when empty, bench and plan when nil, level when 0 and jcr when empty.
 func projectValue(p project.Project) js.Value {
 	var jcr [][]float64
 	for _, pt := range p.JCR {
@@ -658,6 +940,11 @@ func projectValue(p project.Project) js.Value {
 	}
 	if len(jcr) == 0 {
 		v.Delete("jcr")
+	}
+	if p.Plan != nil {
+		v.Set("plan", planValue(*p.Plan))
+	} else {
+		v.Delete("plan")
 	}
 	return v
 }
@@ -725,7 +1012,7 @@ func snapshot(v js.Value, t reflect.Type, prefix string) (js.Value, error) {
 				panic("copoly: decode has no limit named " + name)
 			}
 		}
-		cv, err := copyValue(fv, ft, field, limit)
+		cv, err := copyValue(fv, ft, field, limit, sf.Tag.Get("pair"))
 		if err != nil {
 			return js.Value{}, err
 		}
@@ -737,21 +1024,23 @@ func snapshot(v js.Value, t reflect.Type, prefix string) (js.Value, error) {
 // limits are the largest sizes of the inputs that carry a limit:"name" tag: entries of a list,
 // keys of a map, or UTF-16 code units of a text (checked before the text is copied into Go).
 var limits = map[string]int{
-	"runs":  copoly.MaxRuns,
-	"rows":  project.MaxRows,
-	"cells": project.MaxCells,
-	"jcr":   project.MaxJCRPoints,
-	"text":  copoly.MaxTableBytes,
+	"runs":      copoly.MaxRuns,
+	"rows":      project.MaxRows,
+	"cells":     project.MaxCells,
+	"jcr":       project.MaxJCRPoints,
+	"timeTable": copoly.MaxTimeRows,
+	"text":      copoly.MaxTableBytes,
 }
 
 // copyValue checks one present JS value against the Go type it will be converted to and
 // returns it, or a plain copy for objects and arrays. limit is the size limit of the field, 0
 // for none (or the default of a list of numbers).
 //
-// It reads float64, string, bool, structs, []float64, [][]float64 (a list of (r1, r2) pairs,
-// each exactly two numbers), slices of structs (each entry read as an object, named field[i])
-// and map[string]string (an object whose values are all texts, named field.key).
-func copyValue(v js.Value, t reflect.Type, field string, limit int) (js.Value, error) {
+// It reads float64, string, bool, structs, []float64, [][]float64 (a list of pairs, each
+// exactly two numbers; pair names the two in messages, from the field's pair:"…" tag, "r1, r2"
+// when empty), slices of structs (each entry read as an object, named field[i]) and
+// map[string]string (an object whose values are all texts, named field.key).
+func copyValue(v js.Value, t reflect.Type, field string, limit int, pair string) (js.Value, error) {
 	jt, ok := typeOf(v)
 	switch t.Kind() {
 	case reflect.Float64:
@@ -787,10 +1076,13 @@ func copyValue(v js.Value, t reflect.Type, field string, limit int) (js.Value, e
 			}
 			return copyNumbers(v, field, limit)
 		case et.Kind() == reflect.Slice && et.Elem().Kind() == reflect.Float64 && limit > 0:
-			return copyList(v, field, limit, "a list of [r1, r2] pairs", func(e js.Value, f string) (js.Value, error) {
+			if pair == "" {
+				pair = "r1, r2"
+			}
+			return copyList(v, field, limit, "a list of ["+pair+"] pairs", func(e js.Value, f string) (js.Value, error) {
 				cp, err := copyNumbers(e, f, 2)
 				if errors.Is(err, copoly.ErrTooMany) || err == nil && cp.Length() != 2 {
-					return js.Value{}, &copoly.FieldError{Field: f, Reason: "must be a pair [r1, r2] of two numbers", Err: errWrongType}
+					return js.Value{}, &copoly.FieldError{Field: f, Reason: "must be a pair [" + pair + "] of two numbers", Err: errWrongType}
 				}
 				return cp, err
 			})

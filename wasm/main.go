@@ -28,6 +28,11 @@
 //	copoly.pasteBench({bench, text}) → {bench}
 //	copoly.fit({runs, level?})
 //	copoly.nextRuns({r1, r2, runs?, conversions?})
+//	copoly.plan({r1, r2, targetF1, molarMass1, molarMass2, polymerMass, mode, monomer1?, monomer2?,
+//	             tolerance?, stopConversion?, finalConversion?, feed?, feedF1?, shots?, steps?,
+//	             rateConstant?, halfLife?, timeTable?, heat1?, heat2?, batchMass?, heatCapacity?,
+//	             riseLimit?, jcr?, samples?, seed?})
+//	copoly.starvedFeed({r1, r2, targetF1, feedRate, rateConstant, molarMass1, molarMass2})
 //	copoly.qe({monomer1, monomer2})
 //	copoly.loadProject()             → Promise
 //	copoly.saveProject({project})    → Promise
@@ -35,7 +40,7 @@
 // Every method takes one plain object (optional for library, demoProject and loadProject) and
 // returns one plain object. Bad input never throws: the result is then {error, field}, where
 // field names the input at fault ("r1", "f1[3]", "runs[2].F1", "bench.rows[3].cells.f10",
-// "project.monomer1.molarMass", "arguments").
+// "timeTable[2]", "jcr[5][0]", "project.monomer1.molarMass", "project.plan.mode", "arguments").
 // A Go panic inside a method is recovered and reported the same way with an "internal error"
 // message, so the module keeps answering. loadProject and saveProject return Promises that
 // always resolve, never reject.
