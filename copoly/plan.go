@@ -67,6 +67,9 @@ type PlanInput struct {
 	// the monomer and polymer of the plan alone, a bulk process); HeatCapacity in J/(g·K), 0
 	// means 2.0; RiseLimit the adiabatic rise in K above which the plan is flagged, 0 means 50.
 	Heat1, Heat2, BatchMass, HeatCapacity, RiseLimit float64
+	// Density1 and Density2 are the liquid densities of the monomers in g/mL for the volumes of
+	// the charge; 0 means not known (or not a liquid): no volume.
+	Density1, Density2 float64
 }
 
 // PlanRow is one row of a plan's schedule. Masses are in g, cumulative since the start.
@@ -116,8 +119,8 @@ type Plan struct {
 	// StartF1 is the feed composition f1 of the initial charge (the feed giving TargetF1).
 	StartF1 float64
 	// Charge1 and Charge2 are the masses of M1 and M2 charged at the start (g); Moles1, Moles2
-	// the same in mol; Volume1, Volume2 in mL at the library density when it is known (NaN
-	// otherwise, and for gases and solids).
+	// the same in mol; Volume1, Volume2 in mL at [PlanInput.Density1] and Density2 (NaN when a
+	// density is not given).
 	Charge1, Charge2, Moles1, Moles2, Volume1, Volume2 float64
 	// Total1 and Total2 are all the M1 and M2 used, charged plus fed (g).
 	Total1, Total2 float64
@@ -201,8 +204,24 @@ func (in *PlanInput) validate() error {
 			return &InputError{Field: r.field, Value: r.v, Reason: "cannot be negative", Err: ErrOutOfRange}
 		}
 	}
-	if in.Heat1 > 1000 || in.Heat2 > 1000 {
-		return &InputError{Field: "heat1", Value: math.Max(in.Heat1, in.Heat2), Reason: "a heat of polymerization is in kJ/mol, below 1000", Err: ErrOutOfRange}
+	for _, h := range []struct {
+		field string
+		v     float64
+	}{{"heat1", in.Heat1}, {"heat2", in.Heat2}} {
+		if h.v > 1000 {
+			return &InputError{Field: h.field, Value: h.v, Reason: "a heat of polymerization is in kJ/mol, below 1000", Err: ErrOutOfRange}
+		}
+	}
+	for _, d := range []struct {
+		field string
+		v     float64
+	}{{"density1", in.Density1}, {"density2", in.Density2}} {
+		if err := checkFinite(d.field, d.v); err != nil {
+			return err
+		}
+		if d.v < 0 || d.v > 25 {
+			return &InputError{Field: d.field, Value: d.v, Reason: "a density is in g/mL, between 0 and 25 (0 when not known)", Err: ErrOutOfRange}
+		}
 	}
 	if in.FeedF1 > 1 {
 		return &InputError{Field: "feedF1", Value: in.FeedF1, Reason: "a mole fraction must lie between 0 and 1", Err: ErrOutOfRange}
@@ -528,11 +547,13 @@ func (in *PlanInput) shotPlan(p *Plan) error {
 		return &InputError{Field: "finalConversion", Value: in.FinalConversion, Reason: fmt.Sprintf("with %.3g mol added per mol of polymer the final conversion cannot exceed %.4g", a, 1/a), Err: ErrOutOfRange}
 	}
 	n := in.Shots
-	const rowsPer = 10
+	// Rows per interval: about Steps rows in all, at least two per interval (the largest
+	// deviation is at the end of an interval, which every choice includes).
+	rowsFor := func(k int) int { return max(2, (in.Steps+k)/(k+1)) }
 	if n == 0 {
 		// The fewest shots that keep F1 within the tolerance: the deviation falls as shots are
 		// added, so double, then bisect.
-		ok := func(k int) bool { _, _, d := in.runShots(p, k, rowsPer); return d <= in.Tolerance }
+		ok := func(k int) bool { _, _, d := in.runShots(p, k, rowsFor(k)); return d <= in.Tolerance }
 		hi := 1
 		for !ok(hi) {
 			if hi >= MaxShots {
@@ -555,7 +576,18 @@ func (in *PlanInput) shotPlan(p *Plan) error {
 		n = hi
 		p.Notes = append(p.Notes, fmt.Sprintf("%d shots keep the instantaneous composition within ±%g.", n, in.Tolerance))
 	}
-	rows, shots, dev := in.runShots(p, n, rowsPer)
+	rows, shots, dev := in.runShots(p, n, rowsFor(n))
+	if math.IsInf(dev, 1) {
+		// Fewer shots than the reactor needs: find the fewest that can make the polymer.
+		least := n + 1
+		for least < MaxShots {
+			if _, _, d := in.runShots(p, least, rowsFor(least)); !math.IsInf(d, 1) {
+				break
+			}
+			least++
+		}
+		return &InputError{Field: "shots", Value: float64(n), Reason: fmt.Sprintf("too few shots: between shots the reactor runs out of the slower monomer before the polymer is made; use at least %d, or a lower final conversion", least), Err: ErrOutOfRange}
+	}
 	// The run made polymer of a slightly different mean unit mass than the target's; every
 	// amount scales with the charge, so scale the plan to the polymer mass asked.
 	k := in.PolymerMass / rows[len(rows)-1].Polymer
@@ -625,6 +657,12 @@ func (in *PlanInput) finish(p *Plan) {
 	last := p.Schedule[len(p.Schedule)-1]
 	p.Total1, p.Total2 = p.Charge1+last.Fed1, p.Charge2+last.Fed2
 	p.Volume1, p.Volume2 = math.NaN(), math.NaN()
+	if in.Density1 > 0 {
+		p.Volume1 = p.Charge1 / in.Density1
+	}
+	if in.Density2 > 0 {
+		p.Volume2 = p.Charge2 / in.Density2
+	}
 	// Time from a measured table, by interpolation in conversion.
 	if len(in.TimeTable) >= 2 && math.IsNaN(p.RateConstant) {
 		for i := range p.Schedule {

@@ -250,3 +250,25 @@ func TestPlanValidates(t *testing.T) {
 		t.Errorf("unreachable target: %v", err)
 	}
 }
+
+func TestPlanShotsTooFewAndVolumes(t *testing.T) {
+	in := stBA(PlanShots)
+	in.FinalConversion = 0.99
+	in.Shots = 1
+	if _, err := MakePlan(in); Field(err) != "shots" {
+		t.Errorf("one shot to 99 %%: error %v, want field shots", err)
+	}
+	in = stBA(PlanSemibatch)
+	in.Density1, in.Density2 = 0.9059, 0.8986 // g/mL at 20 °C, Merck-Index-style entries
+	p, err := MakePlan(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(p.Volume1-p.Charge1/0.9059) > 1e-12 || math.Abs(p.Volume2-p.Charge2/0.8986) > 1e-12 {
+		t.Errorf("volumes %v %v", p.Volume1, p.Volume2)
+	}
+	in.Heat2 = 2000
+	if _, err := MakePlan(in); Field(err) != "heat2" {
+		t.Errorf("heat2 2000: %v", err)
+	}
+}

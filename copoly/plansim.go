@@ -135,6 +135,19 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 	}
 	rng := rand.New(rand.NewPCG(seed, 0x6a6372))
 	rows := len(p.Schedule)
+	// A batch drifts smoothly: its band is computed at about 50 rows and interpolated between
+	// them. Semi-batch and shot plans are replayed row by row (their additions are per row).
+	idx := make([]int, 0, rows)
+	stride := 1
+	if p.Mode == PlanBatch {
+		stride = max(1, (rows+49)/50)
+	}
+	for i := 0; i < rows; i += stride {
+		idx = append(idx, i)
+	}
+	if idx[len(idx)-1] != rows-1 {
+		idx = append(idx, rows-1)
+	}
 	inst := make([][]float64, rows)
 	cum := make([][]float64, rows)
 	ad := in.additions(p)
@@ -147,33 +160,47 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 			continue
 		}
 		drawn++
-		a, c := in.outcome(p, ad, Terminal{r1, r2})
-		for i := range rows {
-			inst[i] = append(inst[i], a[i])
-			cum[i] = append(cum[i], c[i])
+		a, c := in.outcome(p, ad, idx, Terminal{r1, r2})
+		for k, i := range idx {
+			inst[i] = append(inst[i], a[k])
+			cum[i] = append(cum[i], c[k])
 		}
 	}
 	if drawn < samples {
 		return Band{}, &FieldError{Field: "jcr", Reason: "the region has no area to sample from", Err: ErrOutOfRange}
 	}
 	b := Band{Samples: drawn, InstLow: make([]float64, rows), InstHigh: make([]float64, rows), CumLow: make([]float64, rows), CumHigh: make([]float64, rows)}
-	for i := range rows {
+	for _, i := range idx {
 		b.InstLow[i], b.InstHigh[i] = quantiles(inst[i])
 		b.CumLow[i], b.CumHigh[i] = quantiles(cum[i])
+	}
+	for k := 1; k < len(idx); k++ {
+		i0, i1 := idx[k-1], idx[k]
+		for i := i0 + 1; i < i1; i++ {
+			t := float64(i-i0) / float64(i1-i0)
+			for _, v := range [][]float64{b.InstLow, b.InstHigh, b.CumLow, b.CumHigh} {
+				v[i] = v[i0] + t*(v[i1]-v[i0])
+			}
+		}
 	}
 	b.ProductLow, b.ProductHigh = b.CumLow[rows-1], b.CumHigh[rows-1]
 	return b, nil
 }
 
-// outcome returns the instantaneous and cumulative composition along the plan's schedule when
-// the monomers follow m.
-func (in *PlanInput) outcome(p *Plan, ad additions, m Terminal) (inst, cum []float64) {
+// outcome returns the instantaneous and cumulative composition at the schedule rows idx when the
+// monomers follow m.
+func (in *PlanInput) outcome(p *Plan, ad additions, idx []int, m Terminal) (inst, cum []float64) {
 	if p.Mode != PlanBatch {
-		return in.simulate(p, ad, m, 1)
+		a, c := in.simulate(p, ad, m, 1)
+		inst, cum = make([]float64, len(idx)), make([]float64, len(idx))
+		for k, i := range idx {
+			inst[k], cum[k] = a[i], c[i]
+		}
+		return inst, cum
 	}
-	xs := make([]float64, len(p.Schedule))
-	for i, r := range p.Schedule {
-		xs[i] = r.Conversion
+	xs := make([]float64, len(idx))
+	for k, i := range idx {
+		xs[k] = p.Schedule[i].Conversion
 	}
 	b, _ := newBatch(m, p.StartF1)
 	for i := range xs {
