@@ -366,6 +366,7 @@
     fillForm(p);
     updateBadge();
     recompute();
+    dropBenchUndo();
     loadBench();
   }
 
@@ -938,7 +939,9 @@
       if (err) {
         const input = cellOfField(err.field);
         const pending = input && input.value.trim() === "";
-        text = pending ? `Not used yet: fill in ${columnInfo(input.dataset.key, b)[0]}.` : `Row ${i + 1}: ${sentence(err.error.replace(/^runs\[\d+\]\.?/, "").replace(/^:\s*/, ""))}`;
+        const said = err.error.replace(/^runs\[\d+\]\.?/, "").replace(/^:\s*/, "");
+        text = pending ? `Not used yet: fill in ${columnInfo(input.dataset.key, b)[0]}.`
+          : sentence(/\brow \d+/i.test(said) ? said : `Row ${i + 1}: ${said}`);
         if (input) {
           input.setAttribute("aria-invalid", "true");
           input.setAttribute("aria-describedby", msgCell.id);
@@ -959,8 +962,20 @@
     if (high) {
       items.push(`${high} of ${bench.good.length} runs are above ${LINEAR_LIMIT * 100} % conversion. The linear methods (Fineman–Ross, Kelen–Tüdős) ignore the drift of the feed and are biased for them; the recommended fit in step 6 takes each run's conversion into account.`);
     }
-    list.replaceChildren(...items.map((t) => { const li = document.createElement("li"); li.textContent = sentence(t); return li; }));
-    $("#bench-warnings-box").hidden = !items.length;
+    fillList(list, items);
+    $("#bench-warnings-box").hidden = !items.length || !b.rows.length;
+  }
+
+  // capital starts a message with a capital letter unless it starts with a symbol such as r1.
+  const capital = (t) => (/^[a-z]{3,}\b/.test(t) ? t[0].toUpperCase() + t.slice(1) : t);
+
+  // fillList puts the messages into the list as items, each a sentence.
+  function fillList(list, messages) {
+    list.replaceChildren(...messages.map((t) => {
+      const li = document.createElement("li");
+      li.textContent = capital(sentence(t));
+      return li;
+    }));
   }
 
   function showBenchStatus(b, r) {
@@ -998,6 +1013,12 @@
     bench.undo = { bench: before, text };
     setText("#bench-undo-text", text);
     $("#bench-undo-bar").hidden = false;
+  }
+
+  // dropBenchUndo forgets the grid's undo when a whole new project replaces it.
+  function dropBenchUndo() {
+    bench.undo = null;
+    $("#bench-undo-bar").hidden = true;
   }
 
   function undoBench() {
@@ -1074,7 +1095,7 @@
     if (!state.project) return false;
     const before = theBench();
     const r = call("pasteBench", { bench: before, text });
-    if (isError(r)) { fail(`${sentence(r.error)} Nothing was added.`); return false; }
+    if (isError(r)) { fail(`${capital(sentence(r.error.replace(/^(paste|table):\s*/, "")))} Nothing was added.`); return false; }
     const next = r.bench;
     const added = next.rows.length - before.rows.length;
     if (added <= 0) { fail("No rows were found. Nothing was added."); return false; }
@@ -1246,9 +1267,9 @@
 
     const items = (f.warnings || []).map((w) => {
       const who = w.method && METHOD[w.method] ? `${METHOD[w.method].name}: ` : "";
-      return who + sentence(runRows(w.message, bench.fitRowOf));
+      return who + capital(sentence(runRows(w.message, bench.fitRowOf)));
     });
-    $("#fit-warnings").replaceChildren(...items.map((t) => { const li = document.createElement("li"); li.textContent = t; return li; }));
+    fillList($("#fit-warnings"), items);
     $("#fit-warnings-box").hidden = !items.length;
 
     const hasX = bench.fitRuns.some((r) => r.conversion > 0);
@@ -1259,7 +1280,7 @@
     };
     const trends = [trendText(f.trends && f.trends.feed, "the feed", "f10")];
     trends.push(hasX ? trendText(f.trends && f.trends.conversion, "conversion", "X") : "Against conversion: no run has a conversion.");
-    $("#fit-trends").replaceChildren(...trends.map((t) => { const li = document.createElement("li"); li.textContent = t; return li; }));
+    fillList($("#fit-trends"), trends);
 
     const fr = f.methods["fineman-ross"], sw = f.swappedFinemanRoss;
     setText("#fit-swap-note", fr && sw
@@ -1713,6 +1734,7 @@
     fillForm(prev);
     updateBadge();
     recompute();
+    dropBenchUndo();
     loadBench();
   }
 
@@ -1747,6 +1769,7 @@
     $("#bench-import").addEventListener("change", importTable);
     $("#bench-undo").addEventListener("click", undoBench);
     $("#bench-paste-add").addEventListener("click", pasteRows);
+    $("#bench-paste").addEventListener("input", () => clearFieldError($("#bench-paste")));
     $("#fit-level").addEventListener("input", onLevelInput);
     $("#fit-use").addEventListener("click", useFitted);
     $("#next-add").addEventListener("click", addNextRuns);
