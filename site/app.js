@@ -1212,6 +1212,9 @@
     });
   }
 
+  // fitMessage is a message of the fit in the grid's row numbers, without a leading field name.
+  const fitMessage = (text) => runRows(String(text).replace(/^runs:\s*/, ""), bench.fitRowOf);
+
   function runFit() {
     if (!engine || engineStopped || !state.project) return;
     const level = currentLevel();
@@ -1259,15 +1262,18 @@
     }
     const n = bench.fitRuns.length;
     $("#fit-results").hidden = false;
-    setText("#fit-status", `Estimated from ${n} runs: r1 = ${rat(rec.r1)}, r2 = ${rat(rec.r2)} (${METHOD[recName].short}, ${levelPct(rec.region.level)} joint confidence region${rec.region.open ? ", open" : ""}).`);
+    const reg = rec.region || {};
+    setText("#fit-status", `Estimated from ${n} runs: r1 = ${rat(rec.r1)}, r2 = ${rat(rec.r2)} (${METHOD[recName].short}` +
+      (reg.level ? `, ${levelPct(reg.level)} joint confidence region${reg.open ? ", open" : ""}).` : ")."));
     drawFitTable(f, recName);
     const use = $("#fit-use");
     use.textContent = `Use these ratios (r1 = ${rat(rec.r1)}, r2 = ${rat(rec.r2)})`;
     setText("#fit-use-note", "Copies the recommended r1 and r2 into step 1, with a note of where they come from, and keeps the joint confidence region with the project. Steps 2 to 4 then use them.");
 
     const items = (f.warnings || []).map((w) => {
-      const who = w.method && METHOD[w.method] ? `${METHOD[w.method].name}: ` : "";
-      return who + capital(sentence(runRows(w.message, bench.fitRowOf)));
+      const text = fitMessage(w.message);
+      const name = w.method && METHOD[w.method] ? METHOD[w.method].name : "";
+      return name && !text.toLowerCase().includes(name.toLowerCase()) ? `${name}: ${text}` : text;
     });
     fillList($("#fit-warnings"), items);
     $("#fit-warnings-box").hidden = !items.length;
@@ -1336,7 +1342,7 @@
     };
     const whyNot = (method) => {
       const w = (f.warnings || []).find((x) => x.method === method && x.row < 0);
-      return w ? `Not computed: ${sentence(runRows(w.message, bench.fitRowOf))}` : "Not computed for these runs.";
+      return w ? `Not computed: ${sentence(fitMessage(w.message))}` : "Not computed for these runs.";
     };
     const recLabel = recName === "evm" ? "Error-in-variables, integrated model" : METHOD.nonlinear.name;
     body.append(row(recName, recLabel, f.methods[recName], { recommended: true, tag: "recommended" }));
@@ -1462,7 +1468,7 @@
   // drawRegion draws (e): the joint confidence region of the recommended method, every method's
   // estimate and the ratios in use in step 1.
   function drawRegion(f, recName, rec) {
-    const reg = rec.region;
+    const reg = rec.region || { level: DEFAULT_LEVEL, open: false, boundary: rec.jcr || [] };
     const poly = (reg && reg.boundary) || rec.jcr || [];
     const pts = [];
     const add = (key, label, m) => { if (m && Number.isFinite(m.r1) && Number.isFinite(m.r2)) pts.push({ key, label, r1: m.r1, r2: m.r2 }); };
@@ -1519,8 +1525,9 @@
     $("#r1").value = round(rec.r1);
     $("#r2").value = round(rec.r2);
     const date = new Date().toISOString().slice(0, 10);
-    $("#ratio-source").value = `fitted to ${bench.fitRuns.length} runs on ${date}, ${METHOD[recName].short}, ${levelPct(rec.region.level)} JCR`;
-    state.formJcr = (rec.region.boundary || []).map((q) => [q[0], q[1]]);
+    const reg = rec.region || { level: DEFAULT_LEVEL, boundary: rec.jcr || [] };
+    $("#ratio-source").value = `fitted to ${bench.fitRuns.length} runs on ${date}, ${METHOD[recName].short}, ${levelPct(reg.level)} JCR`;
+    state.formJcr = (reg.boundary || []).map((q) => [q[0], q[1]]);
     recompute();
     setText("#fit-use-note", state.invalid
       ? "The ratios are in step 1, but another field there is not valid; correct it to use them."
