@@ -640,7 +640,8 @@ func simulatedRuns() []benchRow {
 // pastes a tab-separated block with decimal commas, waits for the estimate, checks the
 // recommended r1 and r2 against the ratios the data were made from and that the joint
 // confidence region is drawn, copies the ratios into step 1, reloads to see the grid and the
-// ratios come back from IndexedDB, and types a bad cell to see it marked and kept as typed.
+// ratios come back from IndexedDB, types r1 by hand to see the stored region dropped, and types
+// a bad cell to see it marked and kept as typed.
 func TestBrowserBenchData(t *testing.T) {
 	html := pagePath(t)
 	chromium := findChromium(t)
@@ -728,6 +729,15 @@ func TestBrowserBenchData(t *testing.T) {
 		return document.getElementById("ratio-jcr").checkVisibility() ? "" : "#ratio-jcr is hidden";`, stepTimeout)
 	checkNoFatalBanner(t, ctx)
 	w.check(t, "reloading the page")
+
+	// Ratios typed by hand are no longer the fitted ones: the stored region goes with them.
+	setInput(t, ctx, "r1", "0.53")
+	waitUntil(t, ctx, "#ratio-jcr to disappear after typing r1", `
+		return document.getElementById("ratio-jcr").checkVisibility() ? "#ratio-jcr still shown" : "";`, stepTimeout)
+	storedProject(t, ctx, "the stored project to drop its region after r1 was typed", `
+		if (p.r1 !== 0.53) return "r1 = " + p.r1;
+		return p.jcr === undefined || p.jcr === null || p.jcr.length === 0 ? "" : "jcr has " + p.jcr.length + " points";`)
+	w.check(t, "typing r1 by hand")
 
 	// A cell that is not a number is marked in its row, kept as typed, and does not stop the
 	// other rows from being saved.
