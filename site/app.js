@@ -46,11 +46,28 @@
   // Unsupported is a start failure caused by a browser without the features the page needs.
   class Unsupported extends Error {}
 
-  function base64Bytes(text) {
-    if (typeof Uint8Array.fromBase64 === "function") return Uint8Array.fromBase64(text);
-    const bin = atob(text);
-    const out = new Uint8Array(bin.length);
-    for (let i = 0; i < bin.length; i++) out[i] = bin.charCodeAt(i);
+  // text7Bytes decodes the module's text (site/build/text7.go): 7-bit groups, one per ASCII
+  // character, except the codes of NUL, CR and "<", which travel with the following group in one
+  // character U+0080 + (k << 7 | next), or as U+0200 + k at the very end.
+  const TEXT7_ILLEGAL = [0x00, 0x0d, 0x3c];
+  function text7Bytes(text, n) {
+    const out = new Uint8Array(n);
+    let acc = 0, bits = 0, j = 0;
+    const push = (g) => {
+      acc = ((acc << 7) | g) & 0x7fff;
+      bits += 7;
+      if (bits >= 8) {
+        bits -= 8;
+        if (j < n) out[j++] = (acc >> bits) & 0xff;
+      }
+    };
+    for (let i = 0; i < text.length; i++) {
+      const c = text.charCodeAt(i);
+      if (c < 0x80) push(c);
+      else if (c < 0x200) { const v = c - 0x80; push(TEXT7_ILLEGAL[v >> 7]); push(v & 0x7f); }
+      else push(TEXT7_ILLEGAL[c - 0x200]);
+    }
+    if (j !== n) throw new Error("the embedded module is damaged");
     return out;
   }
 
@@ -63,7 +80,7 @@
       throw new Unsupported("this browser lacks WebAssembly or DecompressionStream");
     }
     performance.mark("copoly:start");
-    const gz = base64Bytes(block.textContent.trim());
+    const gz = text7Bytes(block.textContent, Number(block.dataset.gzipBytes));
     block.textContent = ""; // the 1.7 MB of text is no longer needed
     const stream = new Blob([gz]).stream().pipeThrough(new DecompressionStream("gzip"));
     performance.mark("copoly:decoded");

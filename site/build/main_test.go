@@ -10,6 +10,7 @@ import (
 	"os"
 	"regexp"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 	"testing/fstest"
@@ -19,7 +20,7 @@ var (
 	cspRe    = regexp.MustCompile(`<meta http-equiv="Content-Security-Policy" content="([^"]*)">`)
 	scriptRe = regexp.MustCompile(`(?s)<script>(.*?)</script>`)
 	styleRe  = regexp.MustCompile(`(?s)<style>(.*?)</style>`)
-	dataRe   = regexp.MustCompile(`<script type="application/octet-stream" id="copoly-wasm" data-encoding="gzip\+base64" data-bytes="(\d+)">([A-Za-z0-9+/=]*)</script>`)
+	dataRe   = regexp.MustCompile(`<script type="application/octet-stream" id="copoly-wasm" data-encoding="gzip\+text7" data-bytes="(\d+)" data-gzip-bytes="(\d+)">([^<\x00\r]*)</script>`)
 	// anyScript finds every script element, executable or not, to blank out code before
 	// looking at the markup.
 	anyScript = regexp.MustCompile(`(?s)<script[^>]*>.*?</script>|<style>.*?</style>`)
@@ -68,9 +69,10 @@ func decodeModule(t *testing.T, page string) []byte {
 	if len(m) != 1 {
 		t.Fatalf("page has %d module data blocks, want 1", len(m))
 	}
-	gz, err := base64.StdEncoding.DecodeString(m[0][2])
-	if err != nil {
-		t.Fatalf("module block is not base64: %v", err)
+	n, _ := strconv.Atoi(m[0][2])
+	gz, ok := decodeText7(m[0][3], n)
+	if !ok {
+		t.Fatalf("module block is not text7 of %d bytes", n)
 	}
 	zr, err := gzip.NewReader(bytes.NewReader(gz))
 	if err != nil {
