@@ -106,6 +106,15 @@ func Parse(data []byte) (Project, error) {
 	if len(p.JCR) == 0 {
 		p.JCR = nil // "jcr": [] is no region, as Marshal writes it (by leaving the key out)
 	}
+	// Likewise "userMonomers": [] and "hazards": [] are none.
+	if len(p.UserMonomers) == 0 {
+		p.UserMonomers = nil
+	}
+	for i := range p.UserMonomers {
+		if len(p.UserMonomers[i].Hazards) == 0 {
+			p.UserMonomers[i].Hazards = nil
+		}
+	}
 	if err := p.Validate(); err != nil {
 		return Project{}, err
 	}

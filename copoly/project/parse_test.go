@@ -273,6 +273,9 @@ func FuzzParse(f *testing.F) {
 		strings.Replace(minimal, `"r1":0.5`, `"bench":{"feedKind":"mass","conversionKind":"none","compositionKind":"nmr","element":"","carrier":0,"elementCount":0,"rows":[{"label":"S1","cells":{"mass1":"5,0","mass2":"x","integral1":"1e3","protons1":"5"}}]},"r1":0.5`, 1),
 		strings.Replace(minimal, `"r1":0.5`, `"bench":{"rows":[{"cells":{"__proto__":"1","f10":"0.5"}}]},"r1":0.5`, 1),
 		strings.Replace(minimal, `"r1":0.5`, `"bench":{"carrier":2.5,"rows":null},"r1":0.5`, 1),
+		strings.Replace(minimal, `"r1":0.5`, `"userMonomers":[{"name":"X","molarMass":100.1,"density":1.1,"densityTemp":20,"state":"liquid","heat":55,"q":0.5,"e":-0.3,"hazards":["toxic","stains"],"note":"n"}],"r1":0.5`, 1),
+		strings.Replace(minimal, `"r1":0.5`, `"userMonomers":[{"name":"X","hazards":[]},{"name":"x"}],"r1":0.5`, 1),
+		strings.Replace(minimal, `"r1":0.5`, `"userMonomers":[null,{"name":"Y","state":"gas","hazards":[" "]}],"r1":0.5`, 1),
 	} {
 		f.Add([]byte(seed))
 	}

@@ -29,17 +29,20 @@
 //	  },
 //	  "level": 0.95,
 //	  "jcr": [[0.71, 0.15], [0.80, 0.14], …],
-//	  "plan": {"mode": "semibatch", "targetF1": 0.5, "polymerMass": 1000, "rateConstant": 0.01}
+//	  "plan": {"mode": "semibatch", "targetF1": 0.5, "polymerMass": 1000, "rateConstant": 0.01},
+//	  "userMonomers": [{"name": "…", "molarMass": 198.22, "density": 1.05, "densityTemp": 20,
+//	    "state": "liquid", "heat": 0, "q": 0, "e": 0, "hazards": ["irritant"], "note": "…"}]
 //	}
 //
 // "format" must be "copoly-project". "version" is [Version]; a file with a larger version was
 // made by a newer copoly and is refused with an error that says so, rather than read wrongly.
-// "invented", "savedAt", "bench", "level", "jcr" and "plan" are optional and left out when
-// empty, so a file without them (written before they existed) still reads. "bench" is the
+// "invented", "savedAt", "bench", "level", "jcr", "plan" and "userMonomers" are optional and left
+// out when empty, so a file without them (written before they existed) still reads. "bench" is the
 // bench-data grid as typed ([Bench]); "level" the confidence level of the joint region of a fit
 // (0 or absent means 0.95); "jcr" the joint confidence region of the ratios in use when they
 // came from a fit, as (r1, r2) points; "plan" the inputs of the feed-planning panel ([Plan]),
-// each key left out when not given. The same object, with the same keys, is the Project of the JavaScript API
+// each key left out when not given; "userMonomers" the monomers the user added to the library
+// ([UserMonomer]), each with its process data. The same object, with the same keys, is the Project of the JavaScript API
 // (site/copoly.d.ts).
 //
 // # Errors
@@ -138,6 +141,9 @@ type Project struct {
 	// Plan holds the inputs of the feed-planning panel as the user left them, or nil when there
 	// are none.
 	Plan *Plan `json:"plan,omitempty"`
+	// UserMonomers are the monomers the user added to the library, at most MaxUserMonomers, or
+	// nil when there are none.
+	UserMonomers []UserMonomer `json:"userMonomers,omitempty"`
 }
 
 // Validate reports the first invalid value of p as a *copoly.InputError or *copoly.FieldError
@@ -216,9 +222,11 @@ func (p Project) Validate() error {
 		return err
 	}
 	if p.Plan != nil {
-		return CheckPlan("project.plan", *p.Plan)
+		if err := CheckPlan("project.plan", *p.Plan); err != nil {
+			return err
+		}
 	}
-	return nil
+	return checkUserMonomers("project.userMonomers", p.UserMonomers)
 }
 
 // checkVersion accepts only Version, and says so plainly when v comes from a newer copoly.
