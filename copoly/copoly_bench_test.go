@@ -113,14 +113,14 @@ func BenchmarkPlan(b *testing.B) {
 	in := PlanInput{Model: Terminal{0.80, 0.15}, TargetF1: 0.5, MolarMass1: 104.152, MolarMass2: 128.171,
 		PolymerMass: 1000, Mode: PlanSemibatch, RateConstant: 0.01}
 	region := [][2]float64{{0.75, 0.13}, {0.85, 0.13}, {0.85, 0.17}, {0.75, 0.17}}
-	b.Run("semibatch-200", func(b *testing.B) {
+	b.Run("semibatch-200-steps", func(b *testing.B) {
 		b.ReportAllocs()
 		for b.Loop() {
 			sinkP, _ = MakePlan(in)
 		}
 	})
 	p, _ := MakePlan(in)
-	b.Run("band-500", func(b *testing.B) {
+	b.Run("band-500-samples", func(b *testing.B) {
 		b.ReportAllocs()
 		for b.Loop() {
 			sinkB, _ = PlanBand(in, p, region, 500, 1)

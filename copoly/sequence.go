@@ -79,7 +79,14 @@ func (m Terminal) Sequence(f1 float64) (Sequence, error) {
 func (m Terminal) sequence(f1 float64) Sequence {
 	p11, p12, p21, p22 := m.transitions(f1)
 	s := Sequence{P11: p11, P12: p12, P21: p21, P22: p22}
-	s.F1 = m.Instantaneous(f1)
+	// The stationary composition of the chain; equal to the Mayo–Lewis F1 (tested), and
+	// cheaper. The edge f1 = 0 or 1 with a zero ratio (both P12 and P21 of the missing monomer
+	// undefined) falls back to the one-sided limit.
+	if d := p12 + p21; d > 0 {
+		s.F1 = p21 / d
+	} else {
+		s.F1 = m.Instantaneous(f1)
+	}
 	F2 := 1 - s.F1
 	s.D11 = s.F1 * p11
 	s.D22 = F2 * p22

@@ -170,6 +170,73 @@ func write(w io.Writer, native, wasm *run) {
 		fmt.Fprintf(w, "\nwasm/native over %d benchmarks: median %.2fx, range %.2fx to %.2fx\n",
 			len(ratios), ratios[len(ratios)/2], ratios[0], ratios[len(ratios)-1])
 	}
+	writeBudgets(w, native, wasm)
+}
+
+// budget is a speed target of the project: a set of benchmarks (matched by name prefix,
+// summed) whose js/wasm time must stay under a limit, or whose wasm/native ratio must.
+type budget struct {
+	what     string
+	prefixes []string
+	maxMs    float64 // limit on the summed js/wasm time per operation, 0 for none
+	maxRatio float64 // limit on wasm/native of each benchmark matched, 0 for none
+}
+
+// budgets are the targets set in the project's issues.
+var budgets = []budget{
+	{"composition, drift and sequences: wasm within 3x of native", []string{"Composition", "Drift", "Sequence", "ConversionLimit", "CompositionDistribution"}, 0, 3},
+	{"full fit of 20 runs with every method and a 95 % JCR: under 50 ms in js/wasm", []string{"Estimate/20-runs"}, 50, 0},
+	{"semi-batch plan of 200 steps with a 500-sample band: under 100 ms in js/wasm", []string{"Plan/semibatch-200-steps", "Plan/band-500-samples"}, 100, 0},
+}
+
+func writeBudgets(w io.Writer, native, wasm *run) {
+	ns := func(r result) float64 { return r.nsPerOp }
+	fmt.Fprintln(w, "\nspeed budgets:")
+	for _, b := range budgets {
+		var sum float64
+		var worst float64
+		found, exact := 0, true
+		for _, k := range wasm.order {
+			_, name, _ := strings.Cut(k, "\t")
+			match := false
+			for _, p := range b.prefixes {
+				if name == p || strings.HasPrefix(name, p+"/") {
+					match = true
+				}
+			}
+			if !match {
+				continue
+			}
+			found++
+			wn := median(wasm.results[k], ns)
+			sum += wn
+			if nn := median(native.results[k], ns); nn > 0 && wn > 0 {
+				worst = max(worst, wn/nn)
+			} else {
+				exact = false
+			}
+		}
+		verdict := "not measured"
+		switch {
+		case found == 0:
+		case b.maxMs > 0:
+			ms := sum / 1e6
+			verdict = fmt.Sprintf("%.1f ms in js/wasm: ", ms)
+			if ms <= b.maxMs {
+				verdict += "HOLDS"
+			} else {
+				verdict += "EXCEEDED"
+			}
+		case b.maxRatio > 0 && exact:
+			verdict = fmt.Sprintf("worst ratio %.2fx: ", worst)
+			if worst <= b.maxRatio {
+				verdict += "HOLDS"
+			} else {
+				verdict += "EXCEEDED"
+			}
+		}
+		fmt.Fprintf(w, "  %-80s %s\n", b.what, verdict)
+	}
 }
 
 // num formats a figure, or "-" when it was not reported: whole numbers from 1000 up, else four
