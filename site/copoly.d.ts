@@ -238,6 +238,21 @@ export interface Project {
     finalConversion?: number; feed?: string; feedF1?: number; shots?: number;
     rateConstant?: number; halfLife?: number; batchMass?: number; heatCapacity?: number; riseLimit?: number;
   };
+  userMonomers?: UserMonomer[]; // monomers the user added to the library, at most 100; absent when none
+}
+
+// A monomer of the user's own, saved with the project. Only the name is required; a number 0
+// means not given, except e, which counts only when q > 0 and may be negative.
+export interface UserMonomer {
+  name: string;                  // 1..200 characters, unique within the project (case ignored)
+  molarMass: number;             // g/mol
+  density: number;               // g/mL, at most 25, at densityTemp °C
+  densityTemp: number;
+  state: "liquid" | "gas" | "solid" | "";
+  heat: number;                  // −ΔHp, kJ/mol, at most 1000
+  q: number; e: number;          // Alfrey–Price Q–e
+  hazards: string[];             // words of MonomerData.hazards or the user's own, ≤ 100 characters each, at most 20
+  note: string;                  // where the values come from, ≤ 1000 characters
 }
 
 export interface StorageLoad {

@@ -710,6 +710,50 @@ type projectDTO struct {
 	Level       float64           `js:"level" copoly:"optional"`
 	JCR         [][]float64       `js:"jcr" copoly:"optional" limit:"jcr"`
 	Plan        *projectPlanDTO   `js:"plan"`
+	// UserMonomers is the UserMonomer list of the d.ts; absent, null or [] means none.
+	UserMonomers []userMonomerDTO `js:"userMonomers" copoly:"optional" limit:"userMonomers"`
+}
+
+// userMonomerDTO is one UserMonomer of a Project, both ways. Only the name is required; an
+// absent number is 0 (not given), an absent state or note "", absent hazards none.
+type userMonomerDTO struct {
+	Name        string   `js:"name"`
+	MolarMass   float64  `js:"molarMass" copoly:"optional"`
+	Density     float64  `js:"density" copoly:"optional"`
+	DensityTemp float64  `js:"densityTemp" copoly:"optional"`
+	State       string   `js:"state" copoly:"optional"`
+	Heat        float64  `js:"heat" copoly:"optional"`
+	Q           float64  `js:"q" copoly:"optional"`
+	E           float64  `js:"e" copoly:"optional"`
+	Hazards     []string `js:"hazards" copoly:"optional" limit:"hazards"`
+	Note        string   `js:"note" copoly:"optional"`
+}
+
+// userMonomers converts the user monomers read from JavaScript (validated with the project).
+func userMonomers(ds []userMonomerDTO) []project.UserMonomer {
+	if len(ds) == 0 {
+		return nil
+	}
+	ms := make([]project.UserMonomer, len(ds))
+	for i, d := range ds {
+		var hazards []string
+		if len(d.Hazards) > 0 {
+			hazards = d.Hazards
+		}
+		ms[i] = project.UserMonomer{Name: d.Name, MolarMass: d.MolarMass, Density: d.Density, DensityTemp: d.DensityTemp,
+			State: d.State, Heat: d.Heat, Q: d.Q, E: d.E, Hazards: hazards, Note: d.Note}
+	}
+	return ms
+}
+
+// userMonomersOut returns ms as UserMonomer objects, every key present and hazards always a list.
+func userMonomersOut(ms []project.UserMonomer) []userMonomerDTO {
+	out := make([]userMonomerDTO, len(ms))
+	for i, m := range ms {
+		out[i] = userMonomerDTO{Name: m.Name, MolarMass: m.MolarMass, Density: m.Density, DensityTemp: m.DensityTemp,
+			State: m.State, Heat: m.Heat, Q: m.Q, E: m.E, Hazards: orNoTexts(m.Hazards), Note: m.Note}
+	}
+	return out
 }
 
 // projectPlanDTO is the plan of a Project, read from JavaScript; planValue writes one. Every key
@@ -860,21 +904,22 @@ func (d projectDTO) project() (project.Project, error) {
 		return project.Project{}, &copoly.InputError{Field: "project.version", Value: d.Version, Reason: "must be a whole number", Err: copoly.ErrOutOfRange}
 	}
 	p := project.Project{
-		Format:      d.Format,
-		Version:     int(d.Version),
-		Name:        d.Name,
-		Monomer1:    project.Monomer{Name: d.Monomer1.Name, MolarMass: d.Monomer1.MolarMass},
-		Monomer2:    project.Monomer{Name: d.Monomer2.Name, MolarMass: d.Monomer2.MolarMass},
-		R1:          d.R1,
-		R2:          d.R2,
-		RatioSource: d.RatioSource,
-		F10:         d.F10,
-		Conversion:  d.Conversion,
-		Tolerance:   d.Tolerance,
-		Notes:       d.Notes,
-		Invented:    d.Invented,
-		SavedAt:     d.SavedAt,
-		Level:       d.Level,
+		Format:       d.Format,
+		Version:      int(d.Version),
+		Name:         d.Name,
+		Monomer1:     project.Monomer{Name: d.Monomer1.Name, MolarMass: d.Monomer1.MolarMass},
+		Monomer2:     project.Monomer{Name: d.Monomer2.Name, MolarMass: d.Monomer2.MolarMass},
+		R1:           d.R1,
+		R2:           d.R2,
+		RatioSource:  d.RatioSource,
+		F10:          d.F10,
+		Conversion:   d.Conversion,
+		Tolerance:    d.Tolerance,
+		Notes:        d.Notes,
+		Invented:     d.Invented,
+		SavedAt:      d.SavedAt,
+		Level:        d.Level,
+		UserMonomers: userMonomers(d.UserMonomers),
 	}
 	if d.Bench != nil {
 		b, err := d.Bench.bench("project.bench")
@@ -900,7 +945,7 @@ func (d projectDTO) project() (project.Project, error) {
 }
 
 // projectValue returns p as a JS object; like the file format it leaves out invented when false,
-// savedAt when empty, bench and plan when nil, level when 0 and jcr when empty.
+// savedAt when empty, bench and plan when nil, level when 0, and jcr and userMonomers when empty.
 func projectValue(p project.Project) js.Value {
 	var jcr [][]float64
 	for _, pt := range p.JCR {
@@ -945,6 +990,11 @@ func projectValue(p project.Project) js.Value {
 		v.Set("plan", planValue(*p.Plan))
 	} else {
 		v.Delete("plan")
+	}
+	if len(p.UserMonomers) > 0 {
+		v.Set("userMonomers", toJS(userMonomersOut(p.UserMonomers)))
+	} else {
+		v.Delete("userMonomers")
 	}
 	return v
 }
@@ -1030,6 +1080,9 @@ var limits = map[string]int{
 	"jcr":       project.MaxJCRPoints,
 	"timeTable": copoly.MaxTimeRows,
 	"text":      copoly.MaxTableBytes,
+
+	"userMonomers": project.MaxUserMonomers,
+	"hazards":      project.MaxHazards,
 }
 
 // copyValue checks one present JS value against the Go type it will be converted to and
@@ -1038,8 +1091,9 @@ var limits = map[string]int{
 //
 // It reads float64, string, bool, structs, []float64, [][]float64 (a list of pairs, each
 // exactly two numbers; pair names the two in messages, from the field's pair:"…" tag, "r1, r2"
-// when empty), slices of structs (each entry read as an object, named field[i]) and
-// map[string]string (an object whose values are all texts, named field.key).
+// when empty), slices of structs (each entry read as an object, named field[i]), []string (a
+// list of texts, named field[i]) and map[string]string (an object whose values are all texts,
+// named field.key).
 func copyValue(v js.Value, t reflect.Type, field string, limit int, pair string) (js.Value, error) {
 	jt, ok := typeOf(v)
 	switch t.Kind() {
@@ -1085,6 +1139,13 @@ func copyValue(v js.Value, t reflect.Type, field string, limit int, pair string)
 					return js.Value{}, &copoly.FieldError{Field: f, Reason: "must be a pair [" + pair + "] of two numbers", Err: errWrongType}
 				}
 				return cp, err
+			})
+		case et.Kind() == reflect.String && limit > 0:
+			return copyList(v, field, limit, "a list of texts", func(e js.Value, f string) (js.Value, error) {
+				if jt, ok := typeOf(e); !ok || jt != js.TypeString {
+					return js.Value{}, wrongType(f, "text", e)
+				}
+				return e, nil
 			})
 		case et.Kind() == reflect.Struct && limit > 0:
 			return copyList(v, field, limit, "a list of objects", func(e js.Value, f string) (js.Value, error) {
