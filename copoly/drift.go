@@ -60,6 +60,66 @@ type batch struct {
 	xmax float64
 	// Meyer–Lowry exponents and the singular point δ.
 	alpha, beta, gamma, delta float64
+	// model, when not nil, is the model of a batch that is not terminal (m is then unused and
+	// closed false).
+	model Model
+}
+
+// inst returns the instantaneous composition of the batch's model at feed f.
+func (b *batch) inst(f float64) float64 {
+	if b.model != nil {
+		return b.model.Instantaneous(f)
+	}
+	return b.m.Instantaneous(f)
+}
+
+// newModelBatch is newBatch for any model. For a model other than [Terminal] the batch is
+// integrated numerically; the end point of the drift is the nearest fixed point f = F1(f) in
+// the direction of drift, found by scanning in steps of 0.001 and bisecting, or 0 or 1.
+func newModelBatch(model Model, f10 float64) (*batch, error) {
+	if t, ok := model.(Terminal); ok {
+		return newBatch(t, f10)
+	}
+	if err := model.Validate(); err != nil {
+		return nil, err
+	}
+	if err := CheckFraction("f10", f10); err != nil {
+		return nil, err
+	}
+	b := &batch{model: model, f10: f10, xmax: 1}
+	g := func(f float64) float64 { return f - model.Instantaneous(f) }
+	d := g(f10)
+	if d == 0 {
+		b.still, b.end = true, f10
+		return b, nil
+	}
+	step := 1e-3
+	edge := 1.0
+	if d < 0 {
+		step, edge = -step, 0
+	}
+	b.end = edge
+	prev := f10
+	for f := f10 + step; (step > 0 && f < 1) || (step < 0 && f > 0); f += step {
+		if g(f)*d <= 0 {
+			lo, hi := prev, f
+			for range 60 {
+				mid := 0.5 * (lo + hi)
+				if g(mid)*d > 0 {
+					lo = mid
+				} else {
+					hi = mid
+				}
+			}
+			b.end = 0.5 * (lo + hi)
+			break
+		}
+		prev = f
+	}
+	if (b.end == 0 || b.end == 1) && model.Instantaneous(b.end) != b.end {
+		b.xmax = 1 - math.Exp(b.skeistLog(b.end))
+	}
+	return b, nil
 }
 
 // nearSingular is the distance from r1 = 1, r2 = 1 and r1 + r2 = 2 below which the Meyer–Lowry
@@ -141,7 +201,7 @@ func (b *batch) skeistLog(f float64) float64 {
 	g := func(u float64) float64 {
 		dv := s * math.Exp(u)
 		fv := b.end + dv
-		return dv / (b.m.Instantaneous(fv) - fv)
+		return dv / (b.inst(fv) - fv)
 	}
 	// The integrand is smooth; split the range so each panel stays short.
 	const panel = 4.0
@@ -328,7 +388,7 @@ func (b *batch) odeFeed(dst, xs []float64) {
 	g := func(y float64) float64 {
 		dv := s * math.Exp(y)
 		f := b.end + dv
-		return (f - b.m.Instantaneous(f)) / dv
+		return (f - b.inst(f)) / dv
 	}
 	ts := make([]float64, len(xs))
 	for i, x := range xs {
@@ -357,7 +417,7 @@ func (b *batch) odeFeed(dst, xs []float64) {
 // current instantaneous compositions is returned instead (exact to first order in X).
 func (b *batch) cumulative(x, f1 float64) float64 {
 	if x < 1e-7 {
-		return 0.5 * (b.m.Instantaneous(b.f10) + b.m.Instantaneous(f1))
+		return 0.5 * (b.inst(b.f10) + b.inst(f1))
 	}
 	c := (b.f10 - (1-x)*f1) / x
 	return math.Min(1, math.Max(0, c))
@@ -405,6 +465,20 @@ func (m Terminal) Drift(f10 float64, conversion []float64) (*Drift, error) {
 	if err != nil {
 		return nil, err
 	}
+	return b.drift(conversion)
+}
+
+// DriftOf is [Terminal.Drift] for any model: for a [Penultimate] or [Implicit] model the
+// Skeist equation is integrated numerically (the Meyer–Lowry form is terminal only).
+func DriftOf(model Model, f10 float64, conversion []float64) (*Drift, error) {
+	b, err := newModelBatch(model, f10)
+	if err != nil {
+		return nil, err
+	}
+	return b.drift(conversion)
+}
+
+func (b *batch) drift(conversion []float64) (*Drift, error) {
 	if err := b.checkConversions(conversion); err != nil {
 		return nil, err
 	}
@@ -425,9 +499,9 @@ func (m Terminal) Drift(f10 float64, conversion []float64) (*Drift, error) {
 	}
 	b.feedAt(d.Feed, conversion)
 	for i, x := range conversion {
-		d.Inst[i] = m.Instantaneous(d.Feed[i])
+		d.Inst[i] = b.inst(d.Feed[i])
 		if x >= b.xmax && b.xmax == 1 {
-			d.Cum[i] = f10
+			d.Cum[i] = b.f10
 		} else {
 			d.Cum[i] = b.cumulative(x, d.Feed[i])
 		}
