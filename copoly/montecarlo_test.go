@@ -1,0 +1,158 @@
+package copoly
+
+import (
+	"math"
+	"testing"
+)
+
+// The Monte Carlo checks compare seeded simulations with analytic results within a stated number
+// of standard errors (5σ: a false alarm below 1e-6 per check).
+
+func TestSimulateChainsTerminalFixedLength(t *testing.T) {
+	m := Terminal{0.52, 0.46} // St/MMA, Polymer Handbook table
+	const n, count = 50, 20000
+	st, err := SimulateChains(ChainOptions{Model: m, F10: 0.5, Length: n, Count: count, Seed: 3, Functional: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	F1 := m.Instantaneous(0.5)
+	// Mean composition: the chain starts stationary, so E[F] = F1 exactly; its standard error
+	// is √(Var/count).
+	if se := math.Sqrt(st.Variance / count); math.Abs(st.Mean-F1) > 5*se {
+		t.Errorf("mean chain composition %v, F1 %v (5σ = %v)", st.Mean, F1, 5*se)
+	}
+	// Chain-to-chain variance against Stockmayer's F1 F2 κ/n: the sample variance of count
+	// chains has a relative standard error about √(2/count) ≈ 1 %; end effects at n = 50 add
+	// O(1/n) ≈ 2 %: allow 8 %.
+	if r := st.Variance / st.StockmayerVariance; math.Abs(r-1) > 0.08 {
+		t.Errorf("variance %v, Stockmayer %v (ratio %v)", st.Variance, st.StockmayerVariance, r)
+	}
+	// Chains without M2: F1 P11^(n−1), binomial standard error.
+	p := st.ExpectedNonFunctional
+	if se := math.Sqrt(p * (1 - p) / count); math.Abs(st.NonFunctional-p) > 5*se+1e-12 {
+		t.Errorf("non-functional %v, analytic %v", st.NonFunctional, p)
+	}
+	if len(st.Samples) != 12 || len(st.Samples[0]) != n || st.Units != n*count {
+		t.Errorf("samples %d of %d units, units %d", len(st.Samples), len(st.Samples[0]), st.Units)
+	}
+}
+
+func TestSimulateChainsFloryAndFunctionality(t *testing.T) {
+	// A hydroxy-functional acrylic: M2 is the functional monomer at a small share.
+	m := Terminal{0.80, 0.15}
+	const count = 40000
+	st, err := SimulateChains(ChainOptions{Model: m, F10: 0.9, DPn: 15, Count: count, Seed: 5, Functional: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var sum float64
+	for _, l := range st.Lengths {
+		sum += float64(l)
+	}
+	// Most-probable distribution: mean length DPn, standard deviation √(DPn(DPn − 1)).
+	if mean, se := sum/count, math.Sqrt(15*14/float64(count)); math.Abs(mean-15) > 5*se {
+		t.Errorf("mean length %v, want 15", mean)
+	}
+	p := st.ExpectedNonFunctional // F1 (1 − p)/(1 − p P11), derived from the geometric sum
+	if se := math.Sqrt(p * (1 - p) / count); math.Abs(st.NonFunctional-p) > 5*se {
+		t.Errorf("non-functional %v, analytic %v", st.NonFunctional, p)
+	}
+}
+
+// For r1 = r2 = 1 the units are independent (Bernoulli), so the functional units per chain of
+// fixed length n are binomial(n, F2) (the binomial limit).
+func TestSimulateChainsBinomialLimit(t *testing.T) {
+	const n, count, f2 = 20, 50000, 0.1
+	st, err := SimulateChains(ChainOptions{Model: Terminal{1, 1}, F10: 1 - f2, Length: n, Count: count, Seed: 9, Functional: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	prob := math.Pow(1-f2, n) // k = 0
+	for k := 0; k < len(st.FunctionalCounts) && k <= 6; k++ {
+		if k > 0 {
+			prob *= float64(n-k+1) / float64(k) * f2 / (1 - f2)
+		}
+		got := float64(st.FunctionalCounts[k]) / count
+		if se := math.Sqrt(prob * (1 - prob) / count); math.Abs(got-prob) > 5*se {
+			t.Errorf("chains with %d functional units: %v, binomial %v", k, got, prob)
+		}
+	}
+}
+
+func TestSimulateChainsPenultimateAndDrift(t *testing.T) {
+	pm := Penultimate{0.3, 0.6, 0.05, 0.1}
+	st, err := SimulateChains(ChainOptions{Model: pm, F10: 0.4, Length: 100, Count: 5000, Seed: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if se := math.Sqrt(st.Variance / 5000); math.Abs(st.Mean-pm.Instantaneous(0.4)) > 5*se {
+		t.Errorf("penultimate mean %v, F1 %v", st.Mean, pm.Instantaneous(0.4))
+	}
+	// With drift and a constant DPn, chains are born evenly over conversion, so their
+	// unit-weighted composition is the cumulative F̄1 of the batch (monomer balance).
+	m := Terminal{0.40, 0.04}
+	st, err = SimulateChains(ChainOptions{Model: m, F10: 0.3, Conversion: 0.8, DPn: 50, Count: 20000, Seed: 4})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, _ := m.Drift(0.3, []float64{0.8})
+	// The grid of 512 birth conversions and the sampling leave about 0.005.
+	if math.Abs(st.WeightMean-d.Cum[0]) > 0.005 {
+		t.Errorf("weight-average chain composition %v, cumulative F̄1 %v", st.WeightMean, d.Cum[0])
+	}
+	if !math.IsNaN(st.StockmayerVariance) {
+		t.Error("Stockmayer variance given with drift")
+	}
+}
+
+func TestStockmayer(t *testing.T) {
+	m := Terminal{0.52, 0.46}
+	const dpn = 40.0
+	F1 := m.Instantaneous(0.5)
+	// The Gaussian of the shortest chains reaches beyond [0, 1] (the continuous approximation);
+	// bins over F1 ± 2 catch all of it, so the identities below hold exactly.
+	edges := make([]float64, 201)
+	for i := range edges {
+		edges[i] = F1 - 2 + 4*float64(i)/200
+	}
+	w, err := m.Stockmayer(0.5, dpn, edges)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var sum, mean, sq float64
+	for i, v := range w {
+		c := 0.5 * (edges[i] + edges[i+1])
+		sum += v
+		mean += v * c
+		sq += v * (c - F1) * (c - F1)
+	}
+	// Weight fractions sum to 1; the mean is F1; the weight-average variance is
+	// F1 F2 κ Σ n(1−p)²p^(n−1)/n = F1 F2 κ (1 − p) = F1 F2 κ/DPn (geometric sum, by hand).
+	kappa := math.Sqrt(1 - 4*F1*(1-F1)*(1-0.52*0.46))
+	want := F1 * (1 - F1) * kappa / dpn
+	// Binned data overstate a variance by h²/12 (Sheppard's correction, W. F. Sheppard 1898).
+	h := edges[1] - edges[0]
+	if math.Abs(sum-1) > 1e-3 || math.Abs(mean/sum-F1) > 1e-3 || math.Abs((sq/sum-h*h/12)/want-1) > 1e-3 {
+		t.Errorf("sum %v mean %v variance %v (want %v)", sum, mean/sum, sq/sum, want)
+	}
+}
+
+func TestSimulateChainsValidates(t *testing.T) {
+	m := Terminal{1, 1}
+	for _, tc := range []struct {
+		opt   ChainOptions
+		field string
+	}{
+		{ChainOptions{Model: m, F10: 0.5, Count: 10}, "length"},
+		{ChainOptions{Model: m, F10: 0.5, Length: 10, Count: 0}, "count"},
+		{ChainOptions{Model: m, F10: 0.5, DPn: 0.5, Count: 10}, "dpn"},
+		{ChainOptions{Model: m, F10: 0.5, DPn: 1e5, Count: 1000}, "count"},
+		{ChainOptions{Model: m, F10: 1.5, Length: 10, Count: 10}, "f10"},
+		{ChainOptions{Model: m, F10: 0.5, Length: 10, Count: 10, Functional: 3}, "functional"},
+		{ChainOptions{Model: Penultimate{-1, 1, 1, 1}, F10: 0.5, Length: 10, Count: 10}, "r11"},
+	} {
+		if _, err := SimulateChains(tc.opt); Field(err) != tc.field {
+			t.Errorf("%+v: error %v, want field %s", tc.opt, err, tc.field)
+		}
+	}
+}
