@@ -127,3 +127,23 @@ func BenchmarkPlan(b *testing.B) {
 		}
 	})
 }
+
+var sinkC *ChainStats
+
+// BenchmarkChains grows 10⁶ units by Monte Carlo: 10⁴ chains of 100 units at a constant feed,
+// and 10⁴ chains of a most-probable distribution with DPn 100 over a batch drifting to X = 0.8.
+func BenchmarkChains(b *testing.B) {
+	m := Terminal{0.80, 0.15}
+	b.Run("1e6-units", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			sinkC, _ = SimulateChains(ChainOptions{Model: m, F10: 0.5, Length: 100, Count: 10000, Seed: 1, Functional: 2})
+		}
+	})
+	b.Run("1e6-units-drift", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			sinkC, _ = SimulateChains(ChainOptions{Model: m, F10: 0.5, Conversion: 0.8, DPn: 100, Count: 10000, Seed: 1, Functional: 2})
+		}
+	})
+}
