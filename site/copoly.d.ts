@@ -83,6 +83,39 @@ export interface SequenceResult extends SequenceStats {
 
 export interface ChainsResult {
   samples: string[];            // each chain as a string of "1" and "2", e.g. "1122121..."
+  // The fields below come with the simulation options (dpn, conversion, functional, model):
+  compositions?: number[];      // F1 of each chain
+  lengths?: number[];           // units per chain
+  functionalCounts?: number[];  // [k] = chains with k functional units
+  nonFunctional?: number;       // fraction of chains without a functional unit
+  expectedNonFunctional?: number | null;  // analytic (terminal, constant feed), else null
+  mean?: number; variance?: number; weightMean?: number;
+  stockmayerVariance?: number | null;     // F1 F2 κ ⟨1/n⟩ (terminal, constant feed), else null
+  units?: number;
+  histogram?: { edges: number[]; weights: number[] };     // chain compositions, weighted by units
+  stockmayer?: number[] | null;           // Stockmayer's weight fractions on the same bins (terminal, constant feed, dpn)
+}
+
+// Model options accepted by composition, drift and sequence (and chains): the terminal model by
+// default (r1, r2), or
+export type ModelArgs =
+  | { model?: "terminal"; r1: number; r2: number }
+  | { model: "penultimate"; r11: number; r21: number; r22: number; r12: number }
+  | { model: "implicit"; r1: number; r2: number; s1: number; s2: number };
+
+export interface TriadRow { f10: number; F1?: number; A111?: number; A112?: number; A212?: number; A222?: number; A221?: number; A121?: number }
+
+export interface ModelFitResult { model: "terminal" | "penultimate"; params: number[]; se: (number | null)[]; ssr: number; n: number; k: number; aic: number; aicc: number }
+
+export interface DiscriminationResult {
+  terminal: ModelFitResult; penultimate: ModelFitResult;
+  F: number; pValue: number | null; deltaAIC: number; supported: boolean; verdict: string;
+  predicted: { terminal: TriadRow[]; penultimate: TriadRow[] };   // each model's F1 and triads at the runs' feeds
+}
+
+export interface AveragesResult {
+  Mn: number; Mw: number; Mz: number; dispersity: number;
+  size?: { unitMass: number; DPn: number; DPw: number; units1: number; units2: number };  // when F1 and both molar masses are given
 }
 
 export interface Monomer { name: string; molarMass: number; source: string }
@@ -233,6 +266,9 @@ export interface Project {
   bench?: BenchTable;           // the bench-data grid, as typed
   level?: number;               // confidence level of the joint region (default 0.95)
   jcr?: [number, number][];     // the region of the ratios in use, when they came from a fit ("use these ratios")
+  model?: { kind: "terminal" | "penultimate" | "implicit"; r11?: number; r21?: number; r22?: number; r12?: number; s1?: number; s2?: number };  // the sequences panel's model (terminal uses r1, r2)
+  triads?: TriadRow[];          // measured triads, as entered
+  sizeBins?: { low: number; high: number; numberFraction?: number; weightFraction?: number }[];  // chain-size panel
   plan?: {                      // the planning panel's inputs, as the user left them (all optional)
     mode?: string; targetF1?: number; polymerMass?: number; tolerance?: number; stopConversion?: number;
     finalConversion?: number; feed?: string; feedF1?: number; shots?: number;
@@ -263,18 +299,23 @@ export interface StorageLoad {
 
 export interface Copoly {
   version: string;
-  composition(a: { r1: number; r2: number; f1: number[] }): CompositionResult | CopolyError;
+  composition(a: ModelArgs & { f1: number[] }): CompositionResult | CopolyError;   // classification and azeotrope: terminal only (null otherwise)
   feedFor(a: { r1: number; r2: number; targetF1: number }): FeedResult | CopolyError;
-  drift(a: {
-    r1: number; r2: number; f10: number;
+  drift(a: ModelArgs & {
+    f10: number;
     conversion: number[];                      // increasing, each in [0,1]
     basis?: "molar" | "mass";                  // what `conversion` holds; default "molar"; "mass" needs molar masses
     molarMass1?: number; molarMass2?: number;  // g/mol, both or neither
     tolerance?: number;                        // default 0.02
     bins?: number;                             // default 20, 1..200
   }): DriftResult | CopolyError;
-  sequence(a: { r1: number; r2: number; f1: number; conversion?: number; maxLength?: number }): SequenceResult | CopolyError;
-  chains(a: { r1: number; r2: number; f10: number; count?: number; length?: number; seed?: number }): ChainsResult | CopolyError;
+  sequence(a: ModelArgs & { f1: number; conversion?: number; maxLength?: number }): SequenceResult | CopolyError;  // batch and runLengths: terminal only
+  chains(a: ModelArgs & { f10: number; count?: number; length?: number; seed?: number;
+    dpn?: number; conversion?: number; functional?: 1 | 2; bins?: number }): ChainsResult | CopolyError;  // count ≤ 100000, count × length ≤ 2·10⁷
+  discriminate(a: { runs: TriadRow[] }): DiscriminationResult | CopolyError;
+  averages(a: { bins?: { low: number; high: number; numberFraction?: number; weightFraction?: number }[];
+    slices?: { mass: number; signal: number }[];            // one of bins or slices
+    F1?: number; molarMass1?: number; molarMass2?: number }): AveragesResult | CopolyError;
   library(a?: {}): { monomers: Monomer[]; pairs: RatioPair[] };
   demoProject(a?: {}): { project: Project };
   checkProject(a: { project: Project }): { project: Project } | CopolyError;
