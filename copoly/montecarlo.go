@@ -366,3 +366,22 @@ func (m Terminal) Stockmayer(f1, dpn float64, edges []float64) ([]float64, error
 	}
 	return out, nil
 }
+
+// Histogram returns the chain-composition distribution of the simulated chains, each chain
+// weighted by its number of units (a weight distribution, comparable with [Terminal.Stockmayer]),
+// over bins equal bins spanning the compositions found (at least 0.01 wide).
+func (st *ChainStats) Histogram(bins int) (Histogram, error) {
+	if bins < 1 || bins > MaxBins {
+		return Histogram{}, &InputError{Field: "bins", Value: float64(bins), Reason: fmt.Sprintf("the number of bins must be between 1 and %d", MaxBins), Err: ErrOutOfRange}
+	}
+	if len(st.Compositions) == 0 {
+		return Histogram{}, &FieldError{Field: "count", Reason: "no chains", Err: ErrOutOfRange}
+	}
+	w := make([]float64, len(st.Lengths))
+	for i, n := range st.Lengths {
+		w[i] = float64(n)
+	}
+	h := binned(st.Compositions, w, bins)
+	h.Basis = "units"
+	return h, nil
+}

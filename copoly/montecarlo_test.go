@@ -156,3 +156,27 @@ func TestSimulateChainsValidates(t *testing.T) {
 		}
 	}
 }
+
+func TestChainHistogram(t *testing.T) {
+	st, err := SimulateChains(ChainOptions{Model: Terminal{0.52, 0.46}, F10: 0.5, DPn: 40, Count: 20000, Seed: 8})
+	if err != nil {
+		t.Fatal(err)
+	}
+	h, err := st.Histogram(30)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var sum, mean float64
+	for i, w := range h.Weights {
+		sum += w
+		mean += w * 0.5 * (h.Edges[i] + h.Edges[i+1])
+	}
+	// Unit-weighted mean composition equals the weight mean of the simulation (up to half a
+	// bin), and the weights sum to 1.
+	if math.Abs(sum-1) > 1e-12 || math.Abs(mean-st.WeightMean) > 0.5*(h.Edges[1]-h.Edges[0]) {
+		t.Errorf("sum %v, mean %v, weight mean %v", sum, mean, st.WeightMean)
+	}
+	if _, err := st.Histogram(0); Field(err) != "bins" {
+		t.Errorf("bins 0: %v", err)
+	}
+}
