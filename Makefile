@@ -45,6 +45,7 @@ test-fixtures:
 	else echo "*** SKIPPED fixture re-check: no $(PY) ***"; fi
 	@if [ -x "$(PY)" ] && $(PY) -c 'import scipy' 2>/dev/null; then \
 		$(PY) testdata/fit_scipy.py --check || exit 1; \
+		$(PY) testdata/plan_scipy.py --check || exit 1; \
 		$(PY) testdata/averages_numpy.py --check || exit 1; \
 		$(PY) testdata/skeist_scipy.py --check; \
 	elif [ -n "$$CI" ]; then echo "FAIL: $(PY) with scipy is required in CI (apt-get install -y python3-scipy)"; exit 1; \
