@@ -385,6 +385,7 @@
     recompute();
     dropBenchUndo();
     loadBench();
+    loadPlanPanel(p);
   }
 
   // ---- Drawing ------------------------------------------------------------------------------
@@ -1628,6 +1629,7 @@
   // afterProjectChange brings the estimation section up to date with a new valid project.
   function afterProjectChange(p) {
     drawJcrNote(p);
+    if (planUI.started) planProjectChanged(p);
     if (!bench.started) return;
     drawScreening(p);
     const masses = p.monomer1.molarMass > 0 && p.monomer2.molarMass > 0 ? `${p.monomer1.molarMass}/${p.monomer2.molarMass}` : "0/0";
@@ -1646,6 +1648,841 @@
     scheduleFit(true);
   }
 
+  // ---- Monomer data and monomers of your own (step 8) ----------------------------------------------
+  //
+  // The user's own monomers are state.project.userMonomers (UserMonomer in site/copoly.d.ts). A
+  // name typed in step 1 is looked up there first, then in the built-in library.
+
+  const ownMonomers = () => (state.project && Array.isArray(state.project.userMonomers) ? state.project.userMonomers : []);
+  const findOwn = (name) => ownMonomers().find((m) => sameName(m.name, name));
+
+  // monomerEntry returns {own, m} for the monomer called name, or null when neither list has it.
+  function monomerEntry(name) {
+    if (!name) return null;
+    const own = findOwn(name);
+    if (own) return { own: true, m: own };
+    const lib = findMonomer(name);
+    return lib ? { own: false, m: lib } : null;
+  }
+
+  const STATE_TEXT = { liquid: "liquid", gas: "gas (handled under pressure)", solid: "solid" };
+  const READ_SDS = "Read the supplier's safety data sheet.";
+
+  // withSDS ends a hazard source with the advice to read the data sheet, unless it says so already.
+  const withSDS = (source) => (/data sheet|SDS/.test(source) ? source : (source ? sentence(source) + " " : "") + READ_SDS);
+
+  // monomerFacts lists [label, value, source] for one entry.
+  function monomerFacts(e) {
+    const m = e.m;
+    const given = (v) => Number.isFinite(v) && v > 0;
+    const yours = `Your entry${m.note ? `: ${m.note}` : ""}`;
+    const src = (libSource) => (e.own ? yours : libSource || "");
+    const hasQE = e.own ? given(m.q) : m.q !== null && m.q !== undefined;
+    return [
+      ["Molar mass", given(m.molarMass) ? `${shortNum(m.molarMass)} g/mol${m.formula ? ` (${m.formula})` : ""}` : "not given", src(m.source)],
+      ["State at room temperature", STATE_TEXT[m.state] || "not given", ""],
+      ["Density", given(m.density) ? `${shortNum(m.density)} g/mL at ${shortNum(m.densityTemp)} °C` : "not given", given(m.density) ? src(m.densitySource) : ""],
+      ["Heat of polymerization, −ΔHp", given(m.heat) ? `${shortNum(m.heat)} kJ/mol` : "not given", given(m.heat) ? src(m.heatSource) : ""],
+      ["Q, e", hasQE ? `Q = ${shortNum(m.q)}, e = ${shortNum(m.e)}` : "not given", hasQE ? src(m.qeSource) : ""],
+      ["Hazards", m.hazards && m.hazards.length ? m.hazards.join(", ") : "none listed here", withSDS(src(m.hazardSource))],
+    ];
+  }
+
+  // drawMonomerData lists the data of the two monomers of step 1, each value with its source.
+  function drawMonomerData(p) {
+    for (const [which, mono] of [[1, p.monomer1], [2, p.monomer2]]) {
+      const box = $(`#md-${which}`);
+      const h = document.createElement("h4");
+      const e = monomerEntry(mono.name);
+      h.textContent = `M${which}: ${mono.name || "no name yet"}${e && e.own ? " (yours)" : ""}`;
+      if (!e) {
+        const note = document.createElement("p");
+        note.className = "hint";
+        note.textContent = mono.name
+          ? "Not in the library. Add it below as a monomer of your own to give the plan its density, heat of polymerization and hazards."
+          : "Name the monomer in step 1.";
+        box.replaceChildren(h, note);
+        continue;
+      }
+      const dl = document.createElement("dl");
+      for (const [label, value, source] of monomerFacts(e)) {
+        const row = document.createElement("div");
+        const dt = document.createElement("dt");
+        dt.textContent = label;
+        const dd = document.createElement("dd");
+        dd.textContent = value;
+        if (source) {
+          const s = document.createElement("span");
+          s.className = "source";
+          s.textContent = source;
+          dd.append(s);
+        }
+        row.append(dt, dd);
+        dl.append(row);
+      }
+      box.replaceChildren(h, dl);
+    }
+  }
+
+  // The form of a monomer of your own: [selector, key of UserMonomer, label].
+  const OWN_NUMBERS = [
+    ["#um-mass", "molarMass", "molar mass"],
+    ["#um-density", "density", "density"],
+    ["#um-density-temp", "densityTemp", "density temperature"],
+    ["#um-heat", "heat", "heat of polymerization"],
+    ["#um-q", "q", "Q"],
+    ["#um-e", "e", "e"],
+  ];
+  const OWN_INPUTS = ["#um-name", ...OWN_NUMBERS.map((n) => n[0]), "#um-hazards-other", "#um-note"];
+  const OWN_FIELD = { name: ["#um-name", "name"], state: ["#um-name", "state"], hazards: ["#um-hazards-other", "hazards"],
+    note: ["#um-note", "note"], ...Object.fromEntries(OWN_NUMBERS.map(([sel, key, label]) => [key, [sel, label]])) };
+  const own = { editing: -1, undo: null, hazardWords: [] };
+
+  // buildHazardBoxes offers the hazard words of the built-in monomers as check boxes.
+  function buildHazardBoxes() {
+    const words = [];
+    for (const m of state.library.monomers) for (const h of m.hazards || []) if (!words.includes(h)) words.push(h);
+    own.hazardWords = words;
+    $("#um-hazard-boxes").replaceChildren(...words.map((w, i) => {
+      const label = document.createElement("label");
+      label.className = "check";
+      const box = document.createElement("input");
+      box.type = "checkbox";
+      box.id = `um-haz-${i}`;
+      box.value = w;
+      label.append(box, " ", w);
+      return label;
+    }));
+  }
+
+  function clearOwnForm() {
+    for (const sel of OWN_INPUTS) { $(sel).value = ""; clearFieldError($(sel)); }
+    $("#um-state").value = "";
+    document.querySelectorAll("#um-hazard-boxes input").forEach((b) => { b.checked = false; });
+    own.editing = -1;
+    $("#um-save").textContent = "Save this monomer";
+  }
+
+  function editOwn(i) {
+    const m = ownMonomers()[i];
+    if (!m) return;
+    clearOwnForm();
+    own.editing = i;
+    $("#um-name").value = m.name;
+    for (const [sel, key] of OWN_NUMBERS) $(sel).value = m[key] !== 0 && Number.isFinite(m[key]) ? shortNum(m[key]) : "";
+    $("#um-state").value = m.state || "";
+    const other = [];
+    for (const h of m.hazards || []) {
+      const i = own.hazardWords.indexOf(h);
+      if (i >= 0) $(`#um-haz-${i}`).checked = true; else other.push(h);
+    }
+    $("#um-hazards-other").value = other.join("; ");
+    $("#um-note").value = m.note || "";
+    $("#um-save").textContent = `Save the changes to ${m.name}`;
+    $("#own-box").open = true;
+    $("#um-name").focus();
+  }
+
+  // setOwn replaces the list of the user's monomers after checking the project with it; it
+  // returns the check's error, or null.
+  function setOwn(list) {
+    const checked = call("checkProject", { project: { ...state.project, userMonomers: list } });
+    if (isError(checked)) return checked;
+    if (checked.project.userMonomers) state.project.userMonomers = checked.project.userMonomers;
+    else delete state.project.userMonomers;
+    ownChanged();
+    scheduleSave();
+    return null;
+  }
+
+  // ownChanged redraws everything that shows the user's monomers.
+  function ownChanged() {
+    fillMonomerPickers();
+    drawOwnList();
+    if (!state.project) return;
+    drawLibraryNotes(state.project);
+    if (planUI.started) planProjectChanged(state.project);
+  }
+
+  function saveOwn() {
+    if (!state.project) return;
+    for (const sel of OWN_INPUTS) clearFieldError($(sel));
+    $("#um-undo").hidden = true;
+    const errors = [];
+    const name = $("#um-name").value.trim();
+    if (!name) errors.push([$("#um-name"), "Give the monomer a name."]);
+    else if (findMonomer(name)) errors.push([$("#um-name"), `“${name}” is already in the library; give yours another name, such as “${name} (our lot)”.`]);
+    const m = { name, state: $("#um-state").value, note: $("#um-note").value.trim() };
+    for (const [sel, key, label] of OWN_NUMBERS) {
+      const raw = $(sel).value.trim();
+      const v = raw === "" ? 0 : parseNumber(raw);
+      if (Number.isNaN(v)) errors.push([$(sel), `${label} = “${raw}” is not a number.`]);
+      m[key] = v;
+    }
+    m.hazards = [...document.querySelectorAll("#um-hazard-boxes input:checked")].map((b) => b.value);
+    for (const h of $("#um-hazards-other").value.split(";").map((t) => t.trim()).filter(Boolean)) {
+      if (!m.hazards.includes(h)) m.hazards.push(h);
+    }
+    if (errors.length) {
+      for (const [input, message] of errors) setFieldError(input, message);
+      return;
+    }
+    const list = ownMonomers().slice();
+    let at = own.editing >= 0 && own.editing < list.length ? own.editing : list.findIndex((x) => sameName(x.name, name));
+    const replaced = at >= 0;
+    if (replaced) list[at] = m; else { at = list.length; list.push(m); }
+    const err = setOwn(list);
+    if (err) {
+      const f = /^project\.userMonomers(?:\[(\d+)\])?(?:\.(\w+))?/.exec(err.field || "");
+      const [sel, label] = (f && f[2] && OWN_FIELD[f[2]]) || [];
+      const text = err.error.replace(/^project\.userMonomers\[\d+\]\.\w+(\[\d+\])?/, label || "value").replace(/^project\./, "");
+      if (f && sel && (f[1] === undefined || Number(f[1]) === at)) setFieldError($(sel), capital(text));
+      else setText("#um-status", `Not saved: ${sentence(text)}`);
+      return;
+    }
+    clearOwnForm();
+    setText("#um-status", `${name} is ${replaced ? "updated" : "saved"} with the project.`);
+  }
+
+  function removeOwn(i) {
+    const before = ownMonomers().slice();
+    const gone = before[i];
+    if (!gone) return;
+    const list = before.slice();
+    list.splice(i, 1);
+    const err = setOwn(list);
+    if (err) return setText("#um-status", `Not removed: ${sentence(err.error)}`);
+    if (own.editing >= 0) clearOwnForm();
+    own.undo = before;
+    setText("#um-status", `${gone.name} is removed.`);
+    $("#um-undo").hidden = false;
+  }
+
+  function undoOwn() {
+    $("#um-undo").hidden = true;
+    const before = own.undo;
+    own.undo = null;
+    if (!before || !state.project) return;
+    const err = setOwn(before);
+    setText("#um-status", err ? `Not brought back: ${sentence(err.error)}` : "Brought back.");
+  }
+
+  function drawOwnList() {
+    const list = ownMonomers();
+    setText("#own-count", list.length ? `(${list.length})` : "");
+    $("#own-list").replaceChildren(...list.map((m, i) => {
+      const li = document.createElement("li");
+      const name = document.createElement("span");
+      name.className = "own-name";
+      name.textContent = `${m.name}${m.molarMass > 0 ? `, ${shortNum(m.molarMass)} g/mol` : ""}`;
+      const edit = button("Edit", () => editOwn(i));
+      edit.setAttribute("aria-label", `Edit ${m.name}`);
+      const del = button("Remove", () => removeOwn(i));
+      del.setAttribute("aria-label", `Remove ${m.name}`);
+      del.className = "row-delete";
+      li.append(name, edit, del);
+      return li;
+    }));
+  }
+
+  // ---- Feed planning (step 8) ----------------------------------------------------------------------
+  //
+  // The panel's inputs are saved in state.project.plan (the plan of a Project in site/copoly.d.ts):
+  // a box's value is saved when it reads as a number the plan accepts; a box whose text is not
+  // valid keeps its text on screen, is marked, and leaves the saved value as it was.
+
+  const PLAN_DELAY_MS = 250;
+  const PLAN_EVERY = 10; // the schedule shows every 10th row (and the last) unless asked for all
+  const planUI = { started: false, timer: 0, key: "", result: null, args: null, allRows: false, dirty: false };
+
+  // PLAN_BOXES: [selector, key of copoly.plan's argument, label, saved in project.plan].
+  const PLAN_BOXES = [
+    ["#plan-target", "targetF1", "wanted F1", true],
+    ["#plan-mass", "polymerMass", "copolymer to make", true],
+    ["#plan-tolerance", "tolerance", "tolerance", true],
+    ["#plan-stop", "stopConversion", "stopping conversion", true],
+    ["#plan-final", "finalConversion", "final conversion", true],
+    ["#plan-feed-f1", "feedF1", "f1 of the mixture", true],
+    ["#plan-shots", "shots", "number of shots", true],
+    ["#plan-k", "rateConstant", "rate constant", true],
+    ["#plan-half", "halfLife", "half-life", true],
+    ["#plan-batch-mass", "batchMass", "reactor contents", true],
+    ["#plan-cp", "heatCapacity", "heat capacity", true],
+    ["#plan-rise-limit", "riseLimit", "limit on the rise", true],
+    ["#plan-heat1", "heat1", "−ΔHp of M1", false],
+    ["#plan-heat2", "heat2", "−ΔHp of M2", false],
+  ];
+  const PLAN_MODES = ["batch", "semibatch", "shots"];
+  const MODE_TEXT = { batch: "batch", semibatch: "semi-batch", shots: "shot additions" };
+
+  // planField returns the box named by a field of copoly.plan ("timeTable[3][1]" is the table).
+  function planField(field) {
+    const key = String(field || "").replace(/\[.*$/, "");
+    if (key === "timeTable") return $("#plan-table");
+    if (key === "mode") return $("#plan-mode");
+    if (key === "feed") return $("#plan-feed");
+    const b = PLAN_BOXES.find((x) => x[1] === key);
+    return b ? $(b[0]) : null;
+  }
+
+  // planMessage puts the panel's words in place of the API's field name at the start of a message.
+  function planMessage(text) {
+    return capital(String(text)
+      .replace(/^timeTable\[(\d+)\]\[0\]/, (a, i) => `time in row ${Number(i) + 1} of the table`)
+      .replace(/^timeTable\[(\d+)\]\[1\]/, (a, i) => `conversion in row ${Number(i) + 1} of the table`)
+      .replace(/^timeTable\[(\d+)\]/, (a, i) => `row ${Number(i) + 1} of the table`)
+      .replace(/^timeTable/, "the table")
+      .replace(/^([A-Za-z0-9]+)(?= =|:)/, (a, k) => { const b = PLAN_BOXES.find((x) => x[1] === k); return b ? b[2] : a; }));
+  }
+
+  // fieldUsed reports whether a box of the panel takes part in the plan for the chosen options.
+  function fieldUsed(field) {
+    const mode = $("#plan-mode").value, feed = $("#plan-feed").value, rate = $("#plan-rate").value;
+    const d = field.dataset;
+    return (!d.modes || d.modes.split(" ").includes(mode)) && (!d.feed || d.feed === feed) && (!d.rate || d.rate === rate);
+  }
+
+  function showPlanFields() {
+    document.querySelectorAll("#plan .plan-inputs .field").forEach((f) => { f.hidden = !fieldUsed(f); });
+  }
+
+  function fillPlanForm(p) {
+    const pl = p.plan || {};
+    for (const [sel, key, , saved] of PLAN_BOXES) {
+      const input = $(sel);
+      input.value = saved && pl[key] > 0 ? shortNum(pl[key]) : "";
+      clearFieldError(input);
+    }
+    $("#plan-mode").value = PLAN_MODES.includes(pl.mode) ? pl.mode : "semibatch";
+    $("#plan-feed").value = pl.feed === "mixture" ? "mixture" : "faster";
+    $("#plan-rate").value = pl.rateConstant > 0 ? "k" : pl.halfLife > 0 ? "half" : "none";
+    $("#plan-table").value = "";
+    clearFieldError($("#plan-table"));
+    showPlanFields();
+  }
+
+  // currentF1 is the instantaneous copolymer composition at the feed of step 3, the default target.
+  function currentF1(p) {
+    const r = call("composition", { r1: p.r1, r2: p.r2, f1: [p.f10] });
+    return isError(r) ? NaN : r.F1[0];
+  }
+
+  // planProjectChanged brings the panel up to date with a new valid project or monomer list.
+  function planProjectChanged(p) {
+    drawMonomerData(p);
+    const F = currentF1(p);
+    $("#plan-target").placeholder = Number.isFinite(F) ? fix(F, 3) : "";
+    setText("#plan-target-unit", Number.isFinite(F) ? `blank = ${fix(F, 3)}, step 3's` : "copolymer");
+    $("#plan-tolerance").placeholder = shortNum(p.tolerance);
+    for (const [which, mono] of [[1, p.monomer1], [2, p.monomer2]]) {
+      const e = monomerEntry(mono.name);
+      const heat = e && e.m.heat > 0 ? e.m.heat : NaN;
+      $(`#plan-heat${which}`).placeholder = Number.isFinite(heat) ? shortNum(heat) : "";
+      setText(`#plan-heat${which}-source`, !e || !Number.isFinite(heat)
+        ? "Not known here: enter a value to estimate the temperature rise."
+        : `Blank = ${shortNum(heat)}, ${e.own ? "your entry" : "the library's value"} (see Monomer data).`);
+    }
+    schedulePlan();
+  }
+
+  function schedulePlan(now) {
+    clearTimeout(planUI.timer);
+    planUI.timer = setTimeout(runPlan, now ? 0 : PLAN_DELAY_MS);
+  }
+
+  function onPlanInput(ev) {
+    if (ev && ev.target) clearFieldError(ev.target);
+    planUI.dirty = true;
+    schedulePlan();
+  }
+
+  // parseTimeTable reads two pasted columns, time in min and conversion (a fraction or "35 %"), a
+  // header line allowed; it returns {rows} or {error}.
+  function parseTimeTable(text) {
+    const rows = [];
+    const lines = text.split(/\r\n|\r|\n/);
+    for (let i = 0; i < lines.length; i++) {
+      const line = lines[i].trim();
+      if (!line) continue;
+      let cells = line.split(/\t|;/);
+      if (cells.length < 2) cells = line.split(/\s+/);
+      if (cells.length < 2) cells = line.split(",");
+      cells = cells.map((c) => c.trim()).filter(Boolean);
+      const read = (c) => {
+        const m = /^(.*?)\s*%$/.exec(c);
+        return m ? parseNumber(m[1]) / 100 : parseNumber(c);
+      };
+      const v = cells.map(read);
+      if (!rows.length && v.some(Number.isNaN)) continue; // a header line
+      if (cells.length !== 2) return { error: `line ${i + 1}: give two columns, time in min and conversion; found ${cells.length}.` };
+      const k = v.findIndex(Number.isNaN);
+      if (k >= 0) return { error: `line ${i + 1}: “${cells[k]}” is not a number.` };
+      rows.push(v);
+    }
+    if (rows.length < 2) return { error: "give at least two rows of time and conversion." };
+    return { rows };
+  }
+
+  // readPlan reads the panel: {args} for copoly.plan, {values} of the boxes that read as numbers,
+  // the {errors} beside boxes, or a {blocked} reason in words.
+  function readPlan(p) {
+    const values = {};
+    const errors = [];
+    for (const [sel, key, label] of PLAN_BOXES) {
+      const input = $(sel);
+      const raw = input.value.trim();
+      if (raw === "") continue;
+      const v = parseNumber(raw);
+      if (Number.isNaN(v)) {
+        if (fieldUsed(input.closest(".field"))) errors.push({ input, message: `${label} = “${raw}” is not a number.` });
+        continue;
+      }
+      values[key] = v;
+    }
+    const mode = $("#plan-mode").value;
+    const out = { values, errors, mode };
+    if (!(values.polymerMass !== undefined)) errors.push({ input: $("#plan-mass"), message: "Enter how much copolymer to make, in g." });
+    const rate = $("#plan-rate").value;
+    if (rate === "k" && values.rateConstant === undefined && !errors.some((e) => e.input.id === "plan-k")) errors.push({ input: $("#plan-k"), message: "Enter the rate constant, or choose no rate law." });
+    if (rate === "half" && values.halfLife === undefined && !errors.some((e) => e.input.id === "plan-half")) errors.push({ input: $("#plan-half"), message: "Enter the half-life, or choose no rate law." });
+    let table = null;
+    if (rate === "table") {
+      const t = parseTimeTable($("#plan-table").value);
+      if (t.error) errors.push({ input: $("#plan-table"), message: capital(t.error) });
+      else table = t.rows;
+    }
+    const missing = [[1, p.monomer1], [2, p.monomer2]].filter(([, m]) => !(m.molarMass > 0)).map(([w]) => `M${w}`);
+    if (missing.length) out.blocked = `No plan yet: the plan weighs the monomers, so give the molar mass of ${missing.join(" and ")} in step 1.`;
+    if (errors.length || out.blocked) return out;
+
+    const F = currentF1(p);
+    const args = {
+      r1: p.r1, r2: p.r2, mode,
+      targetF1: values.targetF1 !== undefined ? values.targetF1 : F,
+      molarMass1: p.monomer1.molarMass, molarMass2: p.monomer2.molarMass,
+      polymerMass: values.polymerMass,
+      tolerance: values.tolerance !== undefined ? values.tolerance : p.tolerance,
+    };
+    const use = (key) => {
+      const sel = PLAN_BOXES.find((b) => b[1] === key)[0];
+      if (values[key] !== undefined && fieldUsed($(sel).closest(".field"))) args[key] = values[key];
+    };
+    ["stopConversion", "finalConversion", "feedF1", "shots", "rateConstant", "halfLife", "batchMass", "heatCapacity", "riseLimit", "heat1", "heat2"].forEach(use);
+    if (mode === "semibatch") args.feed = $("#plan-feed").value;
+    if (table) args.timeTable = table;
+    // Library monomers lend the module their densities, heats and hazards by name; for the user's
+    // own, the page passes the heat and works out the volume itself (drawPlan).
+    for (const [which, mono] of [[1, p.monomer1], [2, p.monomer2]]) {
+      const e = monomerEntry(mono.name);
+      if (e && e.own) {
+        if (args[`heat${which}`] === undefined && e.m.heat > 0) args[`heat${which}`] = e.m.heat;
+      } else if (mono.name) {
+        args[`monomer${which}`] = e ? e.m.name : mono.name;
+      }
+    }
+    if (Array.isArray(p.jcr) && p.jcr.length >= 3) args.jcr = p.jcr;
+    out.args = args;
+    return out;
+  }
+
+  // savePlanInputs keeps the panel's valid values in the project (see the section comment);
+  // refused names the box the plan refused, if any.
+  function savePlanInputs(read, refused) {
+    if (!planUI.dirty || !state.project) return;
+    planUI.dirty = false;
+    const prev = state.project.plan || {};
+    const next = { ...prev, mode: read.mode };
+    if (read.mode === "semibatch" || prev.feed) next.feed = $("#plan-feed").value;
+    for (const [sel, key, , saved] of PLAN_BOXES) {
+      if (!saved) continue;
+      const raw = $(sel).value.trim();
+      const v = read.values[key];
+      if (raw === "") delete next[key];
+      else if (Number.isFinite(v) && v >= 0 && key !== refused && (key !== "shots" || Number.isInteger(v))) next[key] = v;
+    }
+    const rate = $("#plan-rate").value;
+    if (rate !== "k") delete next.rateConstant;
+    if (rate !== "half") delete next.halfLife;
+    if (JSON.stringify(next) === JSON.stringify(prev)) return;
+    const checked = call("checkProject", { project: { ...state.project, plan: next } });
+    if (isError(checked)) return; // never store what the project check refuses
+    state.project.plan = checked.project.plan || {};
+    scheduleSave();
+  }
+
+  function planStale(stale) {
+    document.querySelector("#plan .plan-stale").hidden = !stale || !planUI.result;
+  }
+
+  function runPlan() {
+    if (!planUI.started || !state.project || engineStopped) return;
+    const p = state.project;
+    PLAN_BOXES.forEach(([sel]) => clearFieldError($(sel)));
+    clearFieldError($("#plan-table"));
+    const read = readPlan(p);
+    if (read.errors.length || read.blocked) {
+      for (const { input, message } of read.errors) setFieldError(input, message);
+      if (read.blocked) setText("#plan-status", read.blocked);
+      else if (!planUI.result) setText("#plan-status", "No plan yet: correct the marked field.");
+      planStale(true);
+      savePlanInputs(read, null);
+      return;
+    }
+    const key = JSON.stringify([read.args, p.monomer1.name, p.monomer2.name, ownMonomers()]);
+    if (key === planUI.key && planUI.result) {
+      planStale(false);
+      savePlanInputs(read, null);
+      return;
+    }
+    const r = call("plan", read.args);
+    if (isError(r)) {
+      const input = planField(r.field);
+      if (input && input.tagName !== "SELECT") setFieldError(input, planMessage(r.error));
+      else setText("#plan-status", `No plan: ${sentence(planMessage(r.error))}`);
+      planUI.key = "";
+      planStale(true);
+      savePlanInputs(read, String(r.field || "").replace(/\[.*$/, ""));
+      return;
+    }
+    planUI.key = key;
+    planUI.result = r;
+    planUI.args = read.args;
+    planStale(false);
+    drawPlan(p, r, read.args);
+    savePlanInputs(read, null);
+  }
+
+  // volumeText is the mL cell of the recipe: the module's volume for a library liquid, the page's
+  // for a liquid of your own with a density, or why there is none.
+  function volumeText(name, g, v) {
+    if (Number.isFinite(v)) return fix(v, 1);
+    const e = monomerEntry(name);
+    const m = e ? e.m : {};
+    if (e && e.own && m.state === "liquid" && m.density > 0) return fix(g / m.density, 1);
+    if (m.state === "gas") return "gas: weigh it in";
+    if (m.state === "solid") return "solid: weigh it";
+    if (e && e.own && m.density > 0) return "give its state";
+    return "no density";
+  }
+
+  const SCHEDULE_COLS = [
+    ["conversion", "X", (v) => fix(v, 4)],
+    ["polymer", "Polymer, g", (v) => fix(v, 1)],
+    ["fed1", "Fed M1, g", (v) => fix(v, 1)],
+    ["fed2", "Fed M2, g", (v) => fix(v, 1)],
+    ["f1", "Feed f1", (v) => fix(v, 3)],
+    ["F1", "F1 now", (v) => fix(v, 3)],
+    ["F1cum", "F1cum", (v) => fix(v, 3)],
+    ["inventory", "Unreacted, g", (v) => fix(v, 1)],
+    ["time", "Time, min", (v) => fix(v, 1)],
+    ["pump1", "Pump M1, g/min", (v) => fix(v, 2)],
+    ["pump2", "Pump M2, g/min", (v) => fix(v, 2)],
+  ];
+
+  function drawPlan(p, r, args) {
+    const n1 = m1Name(p), n2 = m2Name(p);
+    const rows = r.schedule;
+    const last = rows[rows.length - 1];
+    const tol = args.tolerance;
+    $("#plan-results").hidden = false;
+    $("#plan-more").hidden = false;
+    setText("#plan-status", `Plan: ${shortNum(args.polymerMass)} g of copolymer at F1 = ${fix(args.targetF1, 3)} ± ${shortNum(tol)}, by ${MODE_TEXT[r.mode]}` +
+      (r.mode === "semibatch" ? `, metering ${r.feedF1 === 1 ? n1 : r.feedF1 === 0 ? n2 : "a mixture"}.` : "."));
+
+    // Recipe.
+    const body = document.createElement("tbody");
+    for (const [which, name, g, mol, v, total] of [[1, n1, r.initial.m1, r.initial.n1, r.initial.v1, r.total.m1], [2, n2, r.initial.m2, r.initial.n2, r.initial.v2, r.total.m2]]) {
+      const tr = document.createElement("tr");
+      const th = document.createElement("th");
+      th.scope = "row";
+      th.textContent = `M${which}: ${name}`;
+      tr.append(th);
+      for (const [col, text] of [["m", fix(g, 1)], ["n", fix(mol, 3)], ["v", volumeText(name, g, v)], ["later", fix(total - g, 1)], ["total", fix(total, 1)]]) {
+        const td = document.createElement("td");
+        td.dataset.col = col;
+        td.textContent = text;
+        tr.append(td);
+      }
+      body.append(tr);
+    }
+    $("#plan-recipe tbody").replaceWith(body);
+
+    // Facts.
+    const facts = [["Charge the reactor at feed f1", fix(r.startF1, 3)]];
+    if (r.mode === "batch") {
+      facts.push(["Stop at conversion X", fix(r.stopConversion, 3) + (args.stopConversion ? "" : ` (where F1cum leaves ± ${shortNum(tol)})`)]);
+    } else {
+      facts.push(["Conversion at the end", fix(r.stopConversion, 3)]);
+    }
+    if (r.mode === "semibatch") {
+      const stream = r.feedF1 === 1 ? `${n1} alone` : r.feedF1 === 0 ? `${n2} alone` : `mixture at f1 = ${fix(r.feedF1, 3)}`;
+      facts.push(["Metered stream", stream]);
+      const fed = last.fed1 + last.fed2;
+      facts.push(["Stream per polymer formed", `${fix(r.feedPerPolymer, 3)} mol per mol of units; ${fix(fed / last.polymer, 3)} g per g`]);
+    }
+    if (r.mode === "shots") facts.push(["Shots", `${r.shots.length}, listed below`]);
+    let product = fix(r.productF1, 3);
+    if (r.band) product += ` (${fix(r.band.productLow, 3)} to ${fix(r.band.productHigh, 3)} over the ratios' region)`;
+    facts.push(["Product F1", product]);
+    facts.push(["Largest deviation of F1 from the target", fix(r.maxDeviation, 3) + (r.maxDeviation > tol + 1e-9 ? " — outside the tolerance" : "")]);
+    if (Number.isFinite(last.time)) facts.push(["Time to the end", `${fix(last.time, 0)} min (${fix(last.time / 60, 1)} h)`]);
+    $("#plan-facts").replaceChildren(...facts.map(([label, value]) => {
+      const div = document.createElement("div");
+      const dt = document.createElement("dt");
+      dt.textContent = label;
+      const dd = document.createElement("dd");
+      dd.textContent = value;
+      div.append(dt, dd);
+      return div;
+    }));
+    fillList($("#plan-notes"), r.notes || []);
+
+    drawSchedule(p, r);
+    drawShots(r);
+    drawPlanPlots(p, r, args);
+    drawSafety(p, r);
+    $("#starved-box").hidden = r.mode !== "semibatch";
+    $("#sf-k").placeholder = args.rateConstant > 0 ? shortNum(args.rateConstant) : args.halfLife > 0 ? shortNum(Math.LN2 / args.halfLife) : "";
+    drawStarved();
+  }
+
+  function drawSchedule(p, r) {
+    const rows = r.schedule;
+    const timed = rows.some((row) => Number.isFinite(row.time));
+    // Only a semi-batch has pumps; the time column needs a rate law.
+    const cols = SCHEDULE_COLS.filter(([key]) => (key !== "time" || timed) && (!key.startsWith("pump") || (timed && r.mode === "semibatch")));
+    const head = document.createElement("tr");
+    for (const [key, label] of cols) {
+      const th = document.createElement("th");
+      th.scope = "col";
+      th.dataset.col = key;
+      th.textContent = label;
+      head.append(th);
+    }
+    const thead = document.createElement("thead");
+    thead.append(head);
+    const tbody = document.createElement("tbody");
+    const lastIndex = rows.length - 1;
+    rows.forEach((row, i) => {
+      if (!planUI.allRows && i % PLAN_EVERY !== 0 && i !== lastIndex) return;
+      const tr = document.createElement("tr");
+      tr.dataset.i = String(i);
+      for (const [key, , fmt] of cols) {
+        const td = document.createElement("td");
+        td.dataset.col = key;
+        td.textContent = fmt(row[key]);
+        tr.append(td);
+      }
+      tbody.append(tr);
+    });
+    $("#plan-schedule thead").replaceWith(thead);
+    $("#plan-schedule tbody").replaceWith(tbody);
+    const caption = $("#plan-schedule caption");
+    caption.textContent = `Schedule (M1 = ${m1Name(p)}, M2 = ${m2Name(p)}; fed amounts are cumulative${timed && r.mode === "semibatch" ? "; pump rates over the step ending at the row" : ""})` +
+      (planUI.allRows ? "" : `: every ${PLAN_EVERY}th of ${rows.length} rows`);
+    if (!timed) caption.textContent += ". Choose a rate law above to see times and pump rates.";
+    setText("#plan-all-rows", planUI.allRows ? `Show every ${PLAN_EVERY}th row` : `Show all ${rows.length} rows`);
+  }
+
+  function scheduleCSV() {
+    const r = planUI.result;
+    if (!r || !state.project) return;
+    const p = state.project;
+    const units = { conversion: "X (overall molar conversion)", polymer: "polymer g", fed1: `fed ${m1Name(p)} g`, fed2: `fed ${m2Name(p)} g`,
+      f1: "feed f1", F1: "F1", F1cum: "F1cum", inventory: "unreacted monomer g", time: "time min", pump1: `pump ${m1Name(p)} g/min`, pump2: `pump ${m2Name(p)} g/min` };
+    const keys = SCHEDULE_COLS.map(([key]) => key);
+    const rows = [keys.map((k) => units[k]), ...r.schedule.map((row) => keys.map((k) => (row[k] === null ? "" : row[k])))];
+    Plot.saveCSV(rows, `${slug(p.name)}-plan-schedule.csv`);
+  }
+
+  function drawShots(r) {
+    const box = $("#plan-shots-box");
+    box.hidden = r.mode !== "shots" || !r.shots.length;
+    if (box.hidden) return;
+    const tbody = document.createElement("tbody");
+    r.shots.forEach((s, i) => {
+      const tr = document.createElement("tr");
+      for (const text of [String(i + 1), fix(s.polymer, 1), fix(s.m1, 2), fix(s.m2, 2), Number.isFinite(s.time) ? fix(s.time, 1) : "–"]) {
+        const td = document.createElement("td");
+        td.textContent = text;
+        tr.append(td);
+      }
+      tbody.append(tr);
+    });
+    $("#plan-shot-table tbody").replaceWith(tbody);
+  }
+
+  // drawPlanPlots draws the copolymer composition on an axis close around the target (so that the
+  // saw-tooth of shots shows), the feed in the reactor, and the product's composition distribution.
+  function drawPlanPlots(p, r, args) {
+    const rows = r.schedule;
+    const batch = r.mode === "batch";
+    const x = rows.map((row) => (batch ? row.conversion : row.polymer));
+    const get = (k) => rows.map((row) => row[k]);
+    const f1 = get("f1"), F1 = get("F1"), F1cum = get("F1cum");
+    const target = args.targetF1, tol = args.tolerance;
+    const xAxis = { min: 0, max: x[x.length - 1] > 0 ? x[x.length - 1] : 1, label: batch ? "X, overall molar conversion" : "polymer made so far, g" };
+    const mode = MODE_TEXT[r.mode][0].toUpperCase() + MODE_TEXT[r.mode].slice(1);
+
+    const layers = [{ type: "band", y0: target - tol, y1: target + tol, color: C.band, opacity: 0.25 }];
+    const spread = [];
+    if (r.band) {
+      const poly = (lo, hi) => [...x.map((v, i) => [v, lo[i]]), ...x.map((v, i) => [v, hi[i]]).reverse()];
+      layers.push({ type: "polygon", points: poly(r.band.F1cumLow, r.band.F1cumHigh), color: C.cum, opacity: 0.16, stroke: "none", role: "band-cum" });
+      layers.push({ type: "polygon", points: poly(r.band.F1Low, r.band.F1High), color: C.inst, opacity: 0.16, stroke: "none", role: "band-inst" });
+      spread.push(...r.band.F1Low, ...r.band.F1High, ...r.band.F1cumLow, ...r.band.F1cumHigh);
+    }
+    layers.push({ type: "line", x, y: F1, color: C.inst, width: 2 }, { type: "line", x, y: F1cum, color: C.cum, width: 2.4 });
+    const legend = [{ label: "F1 (now)", color: C.inst }, { label: "F1cum (so far)", color: C.cum },
+      { label: `wanted F1 ± ${shortNum(tol)}`, color: C.band, kind: "box", opacity: 0.35 }];
+    if (r.band) legend.push({ label: "95 % of outcomes over the ratios' region", color: C.inst, kind: "box", opacity: 0.3 });
+    const yr = Plot.range([...F1, ...F1cum, ...spread, target - 1.5 * tol, target + 1.5 * tol], { floor: 0, ceil: 1, minSpan: 0.01 });
+    const svg = Plot.chart({
+      title: `${mode}: copolymer composition on the way to ${shortNum(args.polymerMass)} g`,
+      width: 600, height: 420, x: xAxis,
+      y: { min: yr[0], max: yr[1], label: "F1, mole fraction of M1" },
+      layers, legend,
+    });
+    const csv = [[batch ? "X" : "polymer g", "f1", "F1", "F1cum", ...(r.band ? ["F1 low", "F1 high", "F1cum low", "F1cum high"] : [])],
+      ...x.map((v, i) => [v, f1[i], F1[i], F1cum[i], ...(r.band ? [r.band.F1Low[i], r.band.F1High[i], r.band.F1cumLow[i], r.band.F1cumHigh[i]] : [])])];
+    mountFigure("fig-plan", svg, "plan-composition", csv);
+    const why = {
+      batch: "Instantaneous F1 and cumulative F1cum as the batch converts; it stops where F1cum would leave the shaded band (the wanted F1 ± the tolerance).",
+      semibatch: "Instantaneous F1 and cumulative F1cum against the polymer made: the metered monomer holds the feed steady, so every increment of polymer has the wanted composition. (The overall conversion of a fed reactor is no clock: it rises and falls as monomer is added.)",
+      shots: "Instantaneous F1 and cumulative F1cum against the polymer made. Between shots F1 falls away from the target; each shot brings it back, hence the saw-tooth.",
+    }[r.mode];
+    setText("#fig-plan-caption", why + (r.band ? ` The lighter bands hold 95 % of the outcomes when r1 and r2 are drawn from their joint confidence region (${r.band.samples} pairs): the same recipe, run with ratios the data cannot rule out.` : ""));
+
+    const fr = Plot.range(f1, { floor: 0, ceil: 1, minSpan: 0.01 });
+    const fsvg = Plot.chart({
+      title: `Feed f1 in the reactor (charged at ${fix(r.startF1, 3)})`,
+      width: 600, height: 360, x: xAxis,
+      y: { min: fr[0], max: fr[1], label: "f1 of the unreacted monomer" },
+      layers: [{ type: "line", x, y: f1, color: C.feed, width: 2 }],
+    });
+    mountFigure("fig-plan-feed", fsvg, "plan-feed", [[batch ? "X" : "polymer g", "f1"], ...x.map((v, i) => [v, f1[i]])]);
+    setText("#fig-plan-feed-caption", {
+      batch: "The unreacted monomer drifts as the faster monomer is used up; that drift is what moves F1.",
+      semibatch: "The metering keeps the unreacted monomer at the charged composition.",
+      shots: "The feed drifts between shots; each shot of monomer restores the charged composition.",
+    }[r.mode]);
+
+    const h = r.distribution;
+    const n = h.weights.length;
+    const lo = h.edges[0], hi = h.edges[n];
+    const basis = h.basis === "mass" ? "mass" : "moles";
+    const hsvg = Plot.chart({
+      title: "Composition distribution of the product",
+      width: 600, height: 340,
+      x: { min: lo, max: hi > lo ? hi : lo + 1e-3, label: "F1 of the polymer made", ticks: 5 },
+      y: { min: 0, max: Math.max(...h.weights, 1e-9) * 1.1, label: `fraction of polymer (by ${basis})` },
+      layers: [{ type: "bars", x0: h.edges.slice(0, n), x1: h.edges.slice(1), y: h.weights, color: C.inst }],
+    });
+    mountFigure("fig-plan-dist", hsvg, "plan-distribution", [["F1 from", "F1 to", `fraction by ${basis}`], ...h.weights.map((w, i) => [h.edges[i], h.edges[i + 1], w])]);
+  }
+
+  function drawSafety(p, r) {
+    const s = r.safety;
+    setText("#plan-inventory", `Most unreacted monomer in the reactor: ${fix(s.inventoryMax, 1)} g, ` +
+      (s.inventoryAt > 0 ? `when ${fix(s.inventoryAt, 0)} g of polymer has formed.` : "at the start, right after charging."));
+    const rise = $("#plan-rise");
+    rise.classList.remove("flag", "ok");
+    if (s.rise === null || s.heat === null) {
+      rise.textContent = "The adiabatic temperature rise is not estimated: a heat of polymerization is not known for M1 or M2. Enter −ΔHp under Safety check.";
+      return drawHazards(p);
+    }
+    const value = document.createElement("strong");
+    value.id = "plan-rise-value";
+    value.textContent = `${s.rise < 10 ? fix(s.rise, 1) : fix(s.rise, 0)} K`;
+    const where = s.batchMass > 0 ? `${fix(s.batchMass, 0)} g of reactor contents` : "the reactor contents";
+    const parts = [`If that monomer polymerized all at once with no cooling, it would give ${fix(s.heat, 0)} kJ and heat ${where} (at ${shortNum(s.heatCapacity)} J/(g·K)) by about `, value, `, against your limit of ${shortNum(s.riseLimit)} K. `];
+    const verdict = document.createElement("span");
+    verdict.className = "verdict";
+    verdict.textContent = s.flagged
+      ? "Above the limit. Hold less unreacted monomer (meter it instead of charging it, charge less, dilute), or make sure cooling and relief can take it, then check again."
+      : "Within the limit.";
+    parts.push(verdict);
+    rise.replaceChildren(...parts);
+    rise.classList.add(s.flagged ? "flag" : "ok");
+    drawHazards(p);
+  }
+
+  function drawHazards(p) {
+    const out = [];
+    for (const [which, mono] of [[1, p.monomer1], [2, p.monomer2]]) {
+      const e = monomerEntry(mono.name);
+      const para = document.createElement("p");
+      const b = document.createElement("strong");
+      b.textContent = `${mono.name || `M${which}`}: `;
+      let text;
+      if (!e) text = "no hazard data here.";
+      else if (!e.m.hazards || !e.m.hazards.length) text = e.own ? "no hazards in your entry." : "no hazards listed here.";
+      else text = `${e.m.hazards.join(", ")} (${e.own ? "your entry" : "library"}).`;
+      para.append(b, text);
+      out.push(para);
+    }
+    const sds = document.createElement("p");
+    sds.textContent = `${READ_SDS} These lists are reminders, not the data sheet.`;
+    out.push(sds);
+    $("#plan-hazards").replaceChildren(...out);
+  }
+
+  // drawStarved works out the steady unreacted inventory of a starved feed (copoly.starvedFeed).
+  function drawStarved() {
+    const r = planUI.result, a = planUI.args;
+    const rateIn = $("#sf-rate"), kIn = $("#sf-k");
+    clearFieldError(rateIn);
+    clearFieldError(kIn);
+    if (!r || !a || r.mode !== "semibatch") return;
+    const read = (input, label, fallback) => {
+      const raw = input.value.trim();
+      if (raw === "") return fallback;
+      const v = parseNumber(raw);
+      if (Number.isNaN(v)) setFieldError(input, `${label} = “${raw}” is not a number.`);
+      return v;
+    };
+    const feedRate = read(rateIn, "feed rate", undefined);
+    const k = read(kIn, "rate constant", a.rateConstant > 0 ? a.rateConstant : a.halfLife > 0 ? Math.LN2 / a.halfLife : undefined);
+    if (feedRate === undefined || k === undefined) {
+      return setText("#sf-out", `Give the ${[feedRate === undefined ? "feed rate" : "", k === undefined ? "rate constant" : ""].filter(Boolean).join(" and the ")}.`);
+    }
+    if (Number.isNaN(feedRate) || Number.isNaN(k)) return setText("#sf-out", "");
+    const s = call("starvedFeed", { r1: a.r1, r2: a.r2, targetF1: a.targetF1, feedRate, rateConstant: k, molarMass1: a.molarMass1, molarMass2: a.molarMass2 });
+    if (isError(s)) {
+      const input = s.field === "feedRate" ? rateIn : s.field === "rateConstant" ? kIn : null;
+      const msg = capital(String(s.error).replace(/^feedRate/, "feed rate").replace(/^rateConstant/, "rate constant"));
+      if (input) setFieldError(input, msg);
+      return setText("#sf-out", input ? "" : sentence(msg));
+    }
+    setText("#sf-out", `About ${fix(s.inventory, 1)} g of unreacted monomer sits in the reactor, at f1 = ${fix(s.f1, 3)}. Metering faster, or a slower reaction, raises it.`);
+  }
+
+  // startPlanning draws step 8 the first time, after the first results are on screen.
+  function startPlanning() {
+    if (planUI.started || !state.project || engineStopped) return;
+    planUI.started = true;
+    buildHazardBoxes();
+    drawOwnList();
+    fillPlanForm(state.project);
+    planProjectChanged(state.project);
+    schedulePlan(true);
+  }
+
+  // loadPlanPanel puts a replaced project's plan and monomers on screen.
+  function loadPlanPanel(p) {
+    fillMonomerPickers();
+    if (!planUI.started) return;
+    clearOwnForm();
+    own.undo = null;
+    $("#um-undo").hidden = true;
+    setText("#um-status", "");
+    drawOwnList();
+    fillPlanForm(p);
+    planUI.key = "";
+    planUI.dirty = false;
+    planProjectChanged(p);
+  }
+
   // ---- Library ------------------------------------------------------------------------------
 
   const sameName = (a, b) => a.trim().toLowerCase() === b.trim().toLowerCase();
@@ -1659,13 +2496,32 @@
       o.textContent = `${pr.monomer1} / ${pr.monomer2}: r1 ${pr.r1}, r2 ${pr.r2}${pr.temperature ? ", " + pr.temperature : ""}`;
       pairPick.append(o);
     });
+    fillMonomerPickers();
+  }
+
+  // fillMonomerPickers offers the library's monomers ("b3") and the user's own ("u0"), these
+  // marked "(yours)".
+  function fillMonomerPickers() {
+    const option = (value, text) => {
+      const o = document.createElement("option");
+      o.value = value;
+      o.textContent = text;
+      return o;
+    };
+    const group = (label, options) => {
+      const g = document.createElement("optgroup");
+      g.label = label;
+      g.append(...options);
+      return g;
+    };
     for (const sel of ["#pick1", "#pick2"]) {
-      state.library.monomers.forEach((m, i) => {
-        const o = document.createElement("option");
-        o.value = String(i);
-        o.textContent = `${m.name} (${shortNum(m.molarMass)} g/mol)`;
-        $(sel).append(o);
-      });
+      const items = [option("", "Choose a monomer…"),
+        group("Library", state.library.monomers.map((m, i) => option(`b${i}`, `${m.name} (${shortNum(m.molarMass)} g/mol)`)))];
+      const mine = ownMonomers();
+      if (mine.length) {
+        items.push(group("Yours", mine.map((m, i) => option(`u${i}`, `${m.name} (yours${m.molarMass > 0 ? `, ${shortNum(m.molarMass)} g/mol` : ""})`))));
+      }
+      $(sel).replaceChildren(...items);
     }
   }
 
@@ -1687,21 +2543,24 @@
 
   function pickMonomer(which) {
     const sel = $(`#pick${which}`);
-    const m = state.library.monomers[Number(sel.value)];
+    const v = sel.value;
     sel.value = "";
+    const m = v[0] === "u" ? ownMonomers()[Number(v.slice(1))] : state.library.monomers[Number(v.slice(1))];
     if (!m) return;
     $(`#name${which}`).value = m.name;
-    $(`#mass${which}`).value = shortNum(m.molarMass);
+    $(`#mass${which}`).value = m.molarMass > 0 ? shortNum(m.molarMass) : "";
     recompute();
   }
 
   // drawLibraryNotes shows, beside each value, the library entry that matches the names typed.
   function drawLibraryNotes(p) {
     for (const [which, mono] of [[1, p.monomer1], [2, p.monomer2]]) {
-      const m = mono.name ? findMonomer(mono.name) : null;
-      setText(`#mass${which}-source`, m
-        ? `Library: ${m.name}, ${shortNum(m.molarMass)} g/mol${Math.abs(m.molarMass - mono.molarMass) > 1e-9 ? " (differs from the value above)" : ""}. Source: ${m.source}`
-        : "");
+      const e = monomerEntry(mono.name);
+      const m = e ? e.m : null;
+      const differs = m && m.molarMass > 0 && Math.abs(m.molarMass - mono.molarMass) > 1e-9 ? " (differs from the value above)" : "";
+      setText(`#mass${which}-source`, !m ? ""
+        : e.own ? `Yours: ${m.name}${m.molarMass > 0 ? `, ${shortNum(m.molarMass)} g/mol` : ""}${differs}.${m.note ? ` Note: ${m.note}` : ""}`
+          : `Library: ${m.name}, ${shortNum(m.molarMass)} g/mol${differs}. Source: ${m.source}`);
     }
     const n1 = p.monomer1.name, n2 = p.monomer2.name;
     const matches = state.library.pairs.filter((pr) =>
@@ -1760,6 +2619,7 @@
     recompute();
     dropBenchUndo();
     loadBench();
+    loadPlanPanel(prev);
   }
 
   // ---- Start ----------------------------------------------------------------------------------
@@ -1797,6 +2657,22 @@
     $("#fit-level").addEventListener("input", onLevelInput);
     $("#fit-use").addEventListener("click", useFitted);
     $("#next-add").addEventListener("click", addNextRuns);
+
+    for (const [sel] of PLAN_BOXES) $(sel).addEventListener("input", onPlanInput);
+    $("#plan-table").addEventListener("input", onPlanInput);
+    for (const sel of ["#plan-mode", "#plan-feed", "#plan-rate"]) {
+      $(sel).addEventListener("change", () => { showPlanFields(); onPlanInput(); });
+    }
+    $("#plan-all-rows").addEventListener("click", () => {
+      planUI.allRows = !planUI.allRows;
+      if (planUI.result && state.project) drawSchedule(state.project, planUI.result);
+    });
+    $("#plan-csv").addEventListener("click", scheduleCSV);
+    $("#sf-rate").addEventListener("input", drawStarved);
+    $("#sf-k").addEventListener("input", drawStarved);
+    $("#um-save").addEventListener("click", saveOwn);
+    $("#um-clear").addEventListener("click", () => { clearOwnForm(); setText("#um-status", ""); });
+    $("#um-undo").addEventListener("click", undoOwn);
   }
 
   function failStart(err) {
@@ -1845,6 +2721,7 @@
       project = demo.project;
     }
     state.project = project;
+    if (ownMonomers().length) fillMonomerPickers();
     fillForm(project);
     updateBadge();
     showStorageStatus();
@@ -1855,8 +2732,9 @@
     $("#engine-status").hidden = true;
     performance.mark("copoly:ready");
     readyResolve();
-    // Steps 5 to 7 (conversion of the bench grid, the fit) come after the first results.
+    // Steps 5 to 8 (conversion of the bench grid, the fit, the plan) come after the first results.
     setTimeout(startEstimation, 0);
+    setTimeout(startPlanning, 0);
   }
 
   start().catch(failStart);
