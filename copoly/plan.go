@@ -433,9 +433,12 @@ func (in *PlanInput) semibatchPlan(p *Plan) error {
 			Feed: fstar, Inst: F, Cum: F, Inventory: inv * (fstar*in.MolarMass1 + (1-fstar)*in.MolarMass2)}
 		if !math.IsNaN(p.RateConstant) {
 			k := p.RateConstant
-			if math.Abs(a-1) < 1e-12 {
+			switch {
+			case i == 0:
+				p.Schedule[i].Time = 0
+			case math.Abs(a-1) < 1e-12:
 				p.Schedule[i].Time = n / (k * n0)
-			} else {
+			default:
 				p.Schedule[i].Time = math.Log(inv/n0) / (k * (a - 1))
 			}
 		}
@@ -674,18 +677,15 @@ func (in *PlanInput) finish(p *Plan) {
 			p.Schedule[i].Time = math.NaN()
 		}
 	} else if p.Mode == PlanShots {
-		// Rp = k·N between shots: dt = dn/(k N), integrated exactly over each row (N falls
-		// linearly with the polymer formed within a row).
+		// Between shots nothing is added and Rp = −dN/dt = k·N, so the unreacted amount decays
+		// exponentially: each row takes ln(N_a/N_b)/k exactly.
 		t := 0.0
 		for i := 1; i < len(p.Schedule); i++ {
 			a, b := p.Schedule[i-1], p.Schedule[i]
-			dn := (b.Polymer - a.Polymer) / in.unitMass(in.TargetF1)
 			na := a.Inventory / in.unitMass(a.Feed)
 			nb := b.Inventory / in.unitMass(b.Feed)
-			if dn > 0 && na > 0 && nb > 0 && na != nb {
-				t += dn * math.Log(na/nb) / (p.RateConstant * (na - nb))
-			} else if dn > 0 && na > 0 {
-				t += dn / (p.RateConstant * na)
+			if b.Polymer > a.Polymer && na > 0 && nb > 0 {
+				t += math.Log(na/nb) / p.RateConstant
 			}
 			p.Schedule[i].Time = t
 		}
