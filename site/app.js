@@ -2041,10 +2041,10 @@
     }
     const mode = $("#plan-mode").value;
     const out = { values, errors, mode };
-    if (!(values.polymerMass !== undefined)) errors.push({ input: $("#plan-mass"), message: "Enter how much copolymer to make, in g." });
+    if ($("#plan-mass").value.trim() === "") errors.push({ input: $("#plan-mass"), message: "Enter how much copolymer to make, in g." });
     const rate = $("#plan-rate").value;
-    if (rate === "k" && values.rateConstant === undefined && !errors.some((e) => e.input.id === "plan-k")) errors.push({ input: $("#plan-k"), message: "Enter the rate constant, or choose no rate law." });
-    if (rate === "half" && values.halfLife === undefined && !errors.some((e) => e.input.id === "plan-half")) errors.push({ input: $("#plan-half"), message: "Enter the half-life, or choose no rate law." });
+    if (rate === "k" && $("#plan-k").value.trim() === "") errors.push({ input: $("#plan-k"), message: "Enter the rate constant, or choose no rate law." });
+    if (rate === "half" && $("#plan-half").value.trim() === "") errors.push({ input: $("#plan-half"), message: "Enter the half-life, or choose no rate law." });
     let table = null;
     if (rate === "table") {
       const t = parseTimeTable($("#plan-table").value);

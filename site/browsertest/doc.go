@@ -5,7 +5,10 @@
 // to see the project come back from IndexedDB, and types a bad value to see it refused. A second
 // test pastes simulated bench data (decimal commas, tab-separated) into the bench grid, checks
 // the estimated reactivity ratios and the drawn joint confidence region, copies the ratios into
-// the pair panel, and reloads to see the grid kept as typed. The page must do all this without a
+// the pair panel, and reloads to see the grid kept as typed. A third plans a semi-batch in the
+// feed-planning panel, checks the schedule, the recipe's mass balance and the safety box, types a
+// bad amount to see it refused, reloads to see the panel's inputs kept, and adds a monomer of its
+// own to see it offered in the pickers. The page must do all this without a
 // console error, an uncaught exception or any request beyond its own file.
 //
 // The package has only a test. Run it through make, which builds the page first:
