@@ -106,7 +106,13 @@ func Parse(data []byte) (Project, error) {
 	if len(p.JCR) == 0 {
 		p.JCR = nil // "jcr": [] is no region, as Marshal writes it (by leaving the key out)
 	}
-	// Likewise "userMonomers": [] and "hazards": [] are none.
+	// Likewise "triads": [], "sizeBins": [], "userMonomers": [] and "hazards": [] are none.
+	if len(p.Triads) == 0 {
+		p.Triads = nil
+	}
+	if len(p.SizeBins) == 0 {
+		p.SizeBins = nil
+	}
 	if len(p.UserMonomers) == 0 {
 		p.UserMonomers = nil
 	}

@@ -276,6 +276,8 @@ func FuzzParse(f *testing.F) {
 		strings.Replace(minimal, `"r1":0.5`, `"userMonomers":[{"name":"X","molarMass":100.1,"density":1.1,"densityTemp":20,"state":"liquid","heat":55,"q":0.5,"e":-0.3,"hazards":["toxic","stains"],"note":"n"}],"r1":0.5`, 1),
 		strings.Replace(minimal, `"r1":0.5`, `"userMonomers":[{"name":"X","hazards":[]},{"name":"x"}],"r1":0.5`, 1),
 		strings.Replace(minimal, `"r1":0.5`, `"userMonomers":[null,{"name":"Y","state":"gas","hazards":[" "]}],"r1":0.5`, 1),
+		strings.Replace(minimal, `"r1":0.5`, `"model":{"kind":"penultimate","r11":0.9,"r21":0,"r22":0.2},"triads":[{"f10":0.3,"F1":0.41,"A112":-1},{"f10":0.5}],"sizeBins":[{"low":1e4,"high":2e4,"weightFraction":0.5}],"r1":0.5`, 1),
+		strings.Replace(minimal, `"r1":0.5`, `"model":{"kind":"implicit","s1":-1},"triads":[null,{"F10":0.5,"f1":2}],"sizeBins":[],"r1":0.5`, 1),
 	} {
 		f.Add([]byte(seed))
 	}

@@ -29,6 +29,9 @@
 //	  },
 //	  "level": 0.95,
 //	  "jcr": [[0.71, 0.15], [0.80, 0.14], …],
+//	  "model": {"kind": "penultimate", "r11": 0.9, "r21": 0.6, "r22": 0.2, "r12": 0.1},
+//	  "triads": [{"f10": 0.3, "F1": 0.41, "A111": 0.12, "A112": 0.45, "A212": 0.43}, …],
+//	  "sizeBins": [{"low": 10000, "high": 20000, "weightFraction": 0.25}, …],
 //	  "plan": {"mode": "semibatch", "targetF1": 0.5, "polymerMass": 1000, "rateConstant": 0.01},
 //	  "userMonomers": [{"name": "…", "molarMass": 198.22, "density": 1.05, "densityTemp": 20,
 //	    "state": "liquid", "heat": 0, "q": 0, "e": 0, "hazards": ["irritant"], "note": "…"}]
@@ -36,13 +39,17 @@
 //
 // "format" must be "copoly-project". "version" is [Version]; a file with a larger version was
 // made by a newer copoly and is refused with an error that says so, rather than read wrongly.
-// "invented", "savedAt", "bench", "level", "jcr", "plan" and "userMonomers" are optional and left
-// out when empty, so a file without them (written before they existed) still reads. "bench" is the
-// bench-data grid as typed ([Bench]); "level" the confidence level of the joint region of a fit
-// (0 or absent means 0.95); "jcr" the joint confidence region of the ratios in use when they
-// came from a fit, as (r1, r2) points; "plan" the inputs of the feed-planning panel ([Plan]),
-// each key left out when not given; "userMonomers" the monomers the user added to the library
-// ([UserMonomer]), each with its process data. The same object, with the same keys, is the Project of the JavaScript API
+// "invented", "savedAt", "bench", "level", "jcr", "model", "triads", "sizeBins", "plan" and
+// "userMonomers" are optional and left out when empty, so a file without them (written before
+// they existed) still reads. "bench" is the bench-data grid as typed ([Bench]); "level" the
+// confidence level of the joint region of a fit (0 or absent means 0.95); "jcr" the joint
+// confidence region of the ratios in use when they came from a fit, as (r1, r2) points; "model"
+// the copolymerization model of the sequences panel ([Model]), each ratio left out when not
+// typed; "triads" the measured triad fractions as entered ([TriadRow]), a measurement left out
+// (or -1) when not made; "sizeBins" the molar-mass classes of the chain-size panel ([SizeBin]);
+// "plan" the inputs of the feed-planning panel ([Plan]), each key left out when not given;
+// "userMonomers" the monomers the user added to the library ([UserMonomer]), each with its
+// process data. The same object, with the same keys, is the Project of the JavaScript API
 // (site/copoly.d.ts).
 //
 // # Errors
@@ -138,6 +145,14 @@ type Project struct {
 	// JCR is the joint confidence region of R1 and R2 as a closed polygon of (r1, r2) points,
 	// when the ratios in use came from a fit; at most MaxJCRPoints points, each finite and ≥ 0.
 	JCR [][2]float64 `json:"jcr,omitempty"`
+	// Model is the model of the sequences panel, or nil when none was chosen.
+	Model *Model `json:"model,omitempty"`
+	// Triads are the measured triad fractions as entered, at most MaxTriadRows rows, or nil
+	// when there are none.
+	Triads []TriadRow `json:"triads,omitempty"`
+	// SizeBins are the molar-mass classes of the chain-size panel as entered, at most
+	// MaxSizeBins rows, or nil when there are none.
+	SizeBins []SizeBin `json:"sizeBins,omitempty"`
 	// Plan holds the inputs of the feed-planning panel as the user left them, or nil when there
 	// are none.
 	Plan *Plan `json:"plan,omitempty"`
@@ -221,6 +236,17 @@ func (p Project) Validate() error {
 	if err := checkJCR("project.jcr", p.JCR); err != nil {
 		return err
 	}
+	if p.Model != nil {
+		if err := CheckModel("project.model", *p.Model); err != nil {
+			return err
+		}
+	}
+	if err := checkTriads("project.triads", p.Triads); err != nil {
+		return err
+	}
+	if err := checkSizeBins("project.sizeBins", p.SizeBins); err != nil {
+		return err
+	}
 	if p.Plan != nil {
 		if err := CheckPlan("project.plan", *p.Plan); err != nil {
 			return err
@@ -275,6 +301,8 @@ func Demo() Project {
 			"copolymerizations can run away. Follow your local codes, safety data sheets and licensed practice.",
 		Invented: true,
 		Bench:    &bench,
+		// The sequences panel starts on the terminal model with the ratios above.
+		Model: &Model{Kind: ModelTerminal},
 		// Invented demo settings for the planning panel, not a recipe anyone has run: a
 		// semi-batch making 1 kg of a 50:50 (mol) copolymer, an assumed first-order rate
 		// constant, and an assumed 2.5 kg reactor charge for the adiabatic-rise check.
