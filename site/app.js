@@ -319,6 +319,7 @@
       else showGeneralError(message);
     }
     document.querySelectorAll(".stale-note").forEach((n) => { n.hidden = false; });
+    if (planUI.started) planStale(true);
     clearTimeout(saveTimer);
     showStorageStatus();
   }
@@ -1928,6 +1929,7 @@
   // planMessage puts the panel's words in place of the API's field name at the start of a message.
   function planMessage(text) {
     return capital(String(text)
+      .replace(/^timeTable\[(\d+)\] = [^:]*:/, (a, i) => `row ${Number(i) + 1} of the table:`)
       .replace(/^timeTable\[(\d+)\]\[0\]/, (a, i) => `time in row ${Number(i) + 1} of the table`)
       .replace(/^timeTable\[(\d+)\]\[1\]/, (a, i) => `conversion in row ${Number(i) + 1} of the table`)
       .replace(/^timeTable\[(\d+)\]/, (a, i) => `row ${Number(i) + 1} of the table`)
@@ -2041,7 +2043,6 @@
     }
     const mode = $("#plan-mode").value;
     const out = { values, errors, mode };
-    if ($("#plan-mass").value.trim() === "") errors.push({ input: $("#plan-mass"), message: "Enter how much copolymer to make, in g." });
     const rate = $("#plan-rate").value;
     if (rate === "k" && $("#plan-k").value.trim() === "") errors.push({ input: $("#plan-k"), message: "Enter the rate constant, or choose no rate law." });
     if (rate === "half" && $("#plan-half").value.trim() === "") errors.push({ input: $("#plan-half"), message: "Enter the half-life, or choose no rate law." });
@@ -2052,7 +2053,8 @@
       else table = t.rows;
     }
     const missing = [[1, p.monomer1], [2, p.monomer2]].filter(([, m]) => !(m.molarMass > 0)).map(([w]) => `M${w}`);
-    if (missing.length) out.blocked = `No plan yet: the plan weighs the monomers, so give the molar mass of ${missing.join(" and ")} in step 1.`;
+    if (missing.length) out.blocked = `the plan weighs the monomers, so give the molar mass of ${missing.join(" and ")} in step 1.`;
+    else if ($("#plan-mass").value.trim() === "") out.blocked = "enter how much copolymer to make.";
     if (errors.length || out.blocked) return out;
 
     const F = currentF1(p);
@@ -2122,8 +2124,8 @@
     const read = readPlan(p);
     if (read.errors.length || read.blocked) {
       for (const { input, message } of read.errors) setFieldError(input, message);
-      if (read.blocked) setText("#plan-status", read.blocked);
-      else if (!planUI.result) setText("#plan-status", "No plan yet: correct the marked field.");
+      const why = read.blocked || "correct the marked field.";
+      setText("#plan-status", `${planUI.result ? "Plan not updated" : "No plan yet"}: ${why}`);
       planStale(true);
       savePlanInputs(read, null);
       return;
@@ -2138,7 +2140,8 @@
     if (isError(r)) {
       const input = planField(r.field);
       if (input && input.tagName !== "SELECT") setFieldError(input, planMessage(r.error));
-      else setText("#plan-status", `No plan: ${sentence(planMessage(r.error))}`);
+      setText("#plan-status", input && input.tagName !== "SELECT" ? `${planUI.result ? "Plan not updated" : "No plan yet"}: correct the marked field.`
+        : `No plan: ${sentence(planMessage(r.error))}`);
       planUI.key = "";
       planStale(true);
       savePlanInputs(read, String(r.field || "").replace(/\[.*$/, ""));
@@ -2235,7 +2238,7 @@
       div.append(dt, dd);
       return div;
     }));
-    fillList($("#plan-notes"), r.notes || []);
+    fillList($("#plan-notes"), (r.notes || []).map((t) => t.replace(/^monomer([12]) /, "M$1 ")));
 
     drawSchedule(p, r);
     drawShots(r);
@@ -2402,6 +2405,10 @@
       ? "Above the limit. Hold less unreacted monomer (meter it instead of charging it, charge less, dilute), or make sure cooling and relief can take it, then check again."
       : "Within the limit.";
     parts.push(verdict);
+    const charged = r.initial.m1 + r.initial.m2;
+    if (s.batchMass > 0 && s.batchMass < charged) {
+      parts.push(` Check the reactor contents: ${fix(s.batchMass, 0)} g is less than the ${fix(charged, 0)} g of monomer charged.`);
+    }
     rise.replaceChildren(...parts);
     rise.classList.add(s.flagged ? "flag" : "ok");
     drawHazards(p);
@@ -2478,8 +2485,14 @@
     setText("#um-status", "");
     drawOwnList();
     fillPlanForm(p);
+    // The last plan belongs to the project replaced: take it off the screen.
     planUI.key = "";
+    planUI.result = null;
+    planUI.args = null;
     planUI.dirty = false;
+    $("#plan-results").hidden = true;
+    $("#plan-more").hidden = true;
+    planStale(false);
     planProjectChanged(p);
   }
 
