@@ -29,8 +29,8 @@ export interface Classification {
 
 export interface CompositionResult {
   F1: number[];           // instantaneous copolymer composition for each input f1 (Mayo–Lewis)
-  azeotrope: number | null;  // f1 at which F1 = f1, or null when none lies in (0,1)
-  classification: Classification;
+  azeotrope: number | null;  // f1 at which F1 = f1, or null when none lies in (0,1); null for a model other than the terminal
+  classification: Classification | null;   // null for a model other than the terminal
 }
 
 export interface FeedResult {
@@ -41,16 +41,16 @@ export interface FeedResult {
 
 export interface DriftResult {
   conversion: number[];     // overall molar conversion X (as requested, or converted from mass)
-  conversionMass?: number[];  // mass conversion at each point (only when both molar masses given)
+  conversionMass?: number[];  // mass conversion at each point (only when both molar masses given; basis "mass" is terminal only)
   f1: number[];             // unreacted feed f1(X)
   F1: number[];             // instantaneous copolymer F1(X)
   F1cum: number[];          // cumulative copolymer F1cum(X)
   method: "meyer-lowry" | "skeist-ode" | "no-drift";
-  limit: {                  // the conversion limit for the composition tolerance
+  limit: null | {           // the conversion limit for the composition tolerance (null for a model other than the terminal)
     tolerance: number;      // ± tolerance on F1cum around F1(f10) (mole fraction)
     conversion: number;     // largest X with |F1cum(X) − F1(f10)| ≤ tolerance (1 when never left)
   };
-  distribution: {           // composition distribution of all the polymer made up to the last conversion
+  distribution: null | {    // composition distribution of all the polymer made up to the last conversion (null for a model other than the terminal)
     edges: number[];        // bins+1 bin edges in instantaneous F1
     weights: number[];      // fraction of the polymer (by mass when both molar masses are given, else by moles) per bin; sums to 1
     basis: "mass" | "moles";
@@ -73,7 +73,7 @@ export interface SequenceStats {
 }
 
 export interface SequenceResult extends SequenceStats {
-  runLengths: {                 // run-length distributions at this feed
+  runLengths?: {                // run-length distributions at this feed (terminal model only)
     length: number[];           // 1, 2, ... n
     number1: number[]; weight1: number[];   // number and weight fraction of M1 runs of each length
     number2: number[]; weight2: number[];
@@ -82,11 +82,11 @@ export interface SequenceResult extends SequenceStats {
 }
 
 export interface ChainsResult {
-  samples: string[];            // each chain as a string of "1" and "2", e.g. "1122121..."
+  samples: string[];            // each chain as a string of "1" and "2", e.g. "1122121..." (a simulation: the first 12 chains, at most 200 units each)
   // The fields below come with the simulation options (dpn, conversion, functional, model):
   compositions?: number[];      // F1 of each chain
   lengths?: number[];           // units per chain
-  functionalCounts?: number[];  // [k] = chains with k functional units
+  functionalCounts?: number[];  // [k] = chains with k functional units (these three with `functional` only)
   nonFunctional?: number;       // fraction of chains without a functional unit
   expectedNonFunctional?: number | null;  // analytic (terminal, constant feed), else null
   mean?: number; variance?: number; weightMean?: number;
@@ -103,7 +103,7 @@ export type ModelArgs =
   | { model: "penultimate"; r11: number; r21: number; r22: number; r12: number }
   | { model: "implicit"; r1: number; r2: number; s1: number; s2: number };
 
-export interface TriadRow { f10: number; F1?: number; A111?: number; A112?: number; A212?: number; A222?: number; A221?: number; A121?: number }
+export interface TriadRow { f10: number; F1?: number; A111?: number; A112?: number; A212?: number; A222?: number; A221?: number; A121?: number }  // a measurement absent or −1: not measured
 
 export interface ModelFitResult { model: "terminal" | "penultimate"; params: number[]; se: (number | null)[]; ssr: number; n: number; k: number; aic: number; aicc: number }
 
@@ -314,7 +314,7 @@ export interface Copoly {
     dpn?: number; conversion?: number; functional?: 1 | 2; bins?: number }): ChainsResult | CopolyError;  // count ≤ 100000, count × length ≤ 2·10⁷
   discriminate(a: { runs: TriadRow[] }): DiscriminationResult | CopolyError;
   averages(a: { bins?: { low: number; high: number; numberFraction?: number; weightFraction?: number }[];
-    slices?: { mass: number; signal: number }[];            // one of bins or slices
+    slices?: { mass: number; signal: number }[];            // one of bins or slices (an empty list counts as not given)
     F1?: number; molarMass1?: number; molarMass2?: number }): AveragesResult | CopolyError;
   library(a?: {}): { monomers: Monomer[]; pairs: RatioPair[] };
   demoProject(a?: {}): { project: Project };

@@ -23,8 +23,12 @@ const (
 	defaultTolerance   = 0.02
 	defaultBins        = 20
 	defaultMaxLength   = 20
-	defaultChainCount  = 12
-	defaultChainLength = 60
+	defaultChainCount  = 12   // sample chains only
+	defaultChainLength = 60   // sample chains only
+	defaultSimCount    = 1000 // a simulation
+	defaultSimLength   = 100  // a simulation without a dpn
+	defaultSimSamples  = 12   // chains of a simulation returned as strings
+	defaultChainBins   = 30   // bins of a simulation's histogram
 	defaultSeed        = 1
 	defaultBandSamples = 500
 	maxSeed            = 1<<53 - 1 // the largest whole number a JS number holds exactly
@@ -44,6 +48,8 @@ func newAPI(st *storage) js.Value {
 		{"drift", argRequired, drift},
 		{"sequence", argRequired, sequence},
 		{"chains", argRequired, chains},
+		{"discriminate", argRequired, discriminate},
+		{"averages", argRequired, averages},
 		{"library", argOptional, library},
 		{"demoProject", argOptional, demoProject},
 		{"checkProject", argRequired, checkProject},
@@ -72,26 +78,38 @@ func newAPI(st *storage) js.Value {
 	return api
 }
 
-// composition: F1 for each feed, the azeotrope and the classification.
+// composition: F1 for each feed by the model's composition equation; for the terminal model
+// also the azeotrope and the classification (null for the other models).
 func composition(arg js.Value) (any, error) {
+	m, _, err := readModel(arg)
+	if err != nil {
+		return nil, err
+	}
 	var in compositionIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	m := copoly.Terminal{R1: in.R1, R2: in.R2}
-	F1, err := m.InstantaneousTo(make([]float64, 0, len(in.F1)), in.F1)
+	t, terminal := m.(copoly.Terminal)
+	if !terminal {
+		F1 := make([]float64, len(in.F1))
+		for i, f := range in.F1 {
+			if !(f >= 0 && f <= 1) { // also catches NaN; the field name is built only on error
+				return nil, copoly.CheckFraction(fmt.Sprintf("f1[%d]", i), f)
+			}
+			F1[i] = m.Instantaneous(f)
+		}
+		return compositionOut{F1: F1}, nil
+	}
+	F1, err := t.InstantaneousTo(make([]float64, 0, len(in.F1)), in.F1)
 	if err != nil {
 		return nil, err
 	}
-	out := compositionOut{F1: F1}
-	if F1 == nil {
-		out.F1 = []float64{}
-	}
-	if az, ok := m.Azeotrope(); ok {
+	out := compositionOut{F1: orEmpty(F1)}
+	if az, ok := t.Azeotrope(); ok {
 		out.Azeotrope = &az
 	}
-	c := m.Classify()
-	out.Classification = classificationOut{Kind: c.Kind, Product: c.Product, Text: c.Text}
+	c := t.Classify()
+	out.Classification = &classificationOut{Kind: c.Kind, Product: c.Product, Text: c.Text}
 	return out, nil
 }
 
@@ -112,17 +130,21 @@ func feedFor(arg js.Value) (any, error) {
 	return feedOut{Feeds: feeds, Note: s.Note, Range: []float64{s.Min, s.Max}}, nil
 }
 
-// drift: the batch drift at each conversion, its conversion limit and the composition
-// distribution of the polymer made up to the last conversion.
+// drift: the batch drift at each conversion (copoly.DriftOf, any model). For the terminal model
+// also its conversion limit and the composition distribution of the polymer made up to the
+// last conversion, and conversions by mass; for the other models limit and distribution are
+// null, basis "mass" is refused and tolerance is not used (copoly works them out for the
+// terminal model only).
 func drift(arg js.Value) (any, error) {
+	m, _, err := readModel(arg)
+	if err != nil {
+		return nil, err
+	}
 	var in driftIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	m := copoly.Terminal{R1: in.R1, R2: in.R2}
-	if err := m.Validate(); err != nil {
-		return nil, err
-	}
+	t, terminal := m.(copoly.Terminal)
 	if len(in.Conversion) == 0 {
 		return nil, &copoly.FieldError{Field: "conversion", Reason: "give at least one conversion", Err: copoly.ErrOutOfRange}
 	}
@@ -133,22 +155,15 @@ func drift(arg js.Value) (any, error) {
 	if basis != "molar" && basis != "mass" {
 		return nil, &copoly.FieldError{Field: "basis", Reason: fmt.Sprintf("is %q; it must be \"molar\" or \"mass\"", basis), Err: copoly.ErrOutOfRange}
 	}
-	var mm1, mm2 float64 // 0 = not given
-	switch {
-	case in.MolarMass1 != nil && in.MolarMass2 != nil:
-		mm1, mm2 = *in.MolarMass1, *in.MolarMass2
-		if err := copoly.CheckMolarMass("molarMass1", mm1); err != nil {
-			return nil, err
-		}
-		if err := copoly.CheckMolarMass("molarMass2", mm2); err != nil {
-			return nil, err
-		}
-	case in.MolarMass1 != nil:
-		return nil, &copoly.FieldError{Field: "molarMass2", Reason: "is missing: give both molar masses or neither", Err: copoly.ErrOutOfRange}
-	case in.MolarMass2 != nil:
-		return nil, &copoly.FieldError{Field: "molarMass1", Reason: "is missing: give both molar masses or neither", Err: copoly.ErrOutOfRange}
-	case basis == "mass":
+	mm1, mm2, masses, err := molarMasses(in.MolarMass1, in.MolarMass2)
+	if err != nil {
+		return nil, err
+	}
+	if basis == "mass" && !masses {
 		return nil, &copoly.FieldError{Field: "molarMass1", Reason: "is missing: a conversion by mass needs both molar masses", Err: copoly.ErrOutOfRange}
+	}
+	if basis == "mass" && !terminal {
+		return nil, &copoly.FieldError{Field: "basis", Reason: "a conversion by mass is converted for the terminal model only; give molar conversions", Err: copoly.ErrOutOfRange}
 	}
 	tolerance := defaultTolerance
 	if in.Tolerance != nil {
@@ -165,43 +180,44 @@ func drift(arg js.Value) (any, error) {
 		conversionMass = in.Conversion
 		conversion = make([]float64, len(in.Conversion))
 		for i, w := range in.Conversion {
-			x, err := m.MolarConversion(w, in.F10, mm1, mm2)
+			x, err := t.MolarConversion(w, in.F10, mm1, mm2)
 			if err != nil {
 				return nil, renameField(err, "massConversion", fmt.Sprintf("conversion[%d]", i))
 			}
 			conversion[i] = x
 		}
 	}
-	d, err := m.Drift(in.F10, conversion)
+	d, err := copoly.DriftOf(m, in.F10, conversion)
 	if err != nil {
 		return nil, err
 	}
-	limit, err := m.ConversionLimit(in.F10, tolerance)
-	if err != nil {
-		return nil, err
+	out := driftOut{
+		Conversion: d.Conversion,
+		Feed:       d.Feed,
+		Inst:       d.Inst,
+		Cum:        d.Cum,
+		Method:     d.Method,
 	}
-	last := len(conversion) - 1
-	h, err := m.CompositionDistribution(in.F10, conversion[last], bins, mm1, mm2)
-	if err != nil {
-		return nil, renameField(err, "conversion", fmt.Sprintf("conversion[%d]", last))
+	if terminal {
+		limit, err := t.ConversionLimit(in.F10, tolerance)
+		if err != nil {
+			return nil, err
+		}
+		last := len(conversion) - 1
+		h, err := t.CompositionDistribution(in.F10, conversion[last], bins, mm1, mm2)
+		if err != nil {
+			return nil, renameField(err, "conversion", fmt.Sprintf("conversion[%d]", last))
+		}
+		out.Limit = &limitOut{Tolerance: tolerance, Conversion: limit}
+		out.Distribution = &histogramOut{Edges: h.Edges, Weights: h.Weights, Basis: h.Basis}
 	}
-	if basis == "molar" && mm1 != 0 {
+	if basis == "molar" && masses {
 		conversionMass = make([]float64, len(conversion))
 		for i, x := range conversion {
 			conversionMass[i] = copoly.MassConversion(x, in.F10, d.Feed[i], mm1, mm2)
 		}
 	}
-
-	out := driftOut{
-		Conversion:     d.Conversion,
-		ConversionMass: conversionMass,
-		Feed:           d.Feed,
-		Inst:           d.Inst,
-		Cum:            d.Cum,
-		Method:         d.Method,
-		Limit:          limitOut{Tolerance: tolerance, Conversion: limit},
-		Distribution:   histogramOut{Edges: h.Edges, Weights: h.Weights, Basis: h.Basis},
-	}
+	out.ConversionMass = conversionMass
 	if e := d.Exhausted; e != nil {
 		out.Exhausted = &exhaustedOut{Monomer: e.Monomer, Conversion: e.Conversion}
 	}
@@ -212,30 +228,43 @@ func drift(arg js.Value) (any, error) {
 	return v, nil
 }
 
-// sequence: sequence statistics and run lengths at one feed, and the batch average when a
-// conversion is given.
+// sequence: sequence statistics at one feed by the model's Markov chain; for the terminal model
+// also the run lengths and, when a conversion is given, the batch average.
 func sequence(arg js.Value) (any, error) {
+	m, _, err := readModel(arg)
+	if err != nil {
+		return nil, err
+	}
 	var in sequenceIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	m := copoly.Terminal{R1: in.R1, R2: in.R2}
 	maxLength, err := intIn("maxLength", in.MaxLength, defaultMaxLength, 1, copoly.MaxRunLength)
 	if err != nil {
 		return nil, err
 	}
-	s, err := m.Sequence(in.F1)
-	if err != nil {
-		return nil, err
-	}
-	rl, err := m.RunLengths(in.F1, maxLength)
+	s, err := sequenceOf(m, in.F1)
 	if err != nil {
 		return nil, err
 	}
 	v := toJS(sequenceDTO(s))
+	t, terminal := m.(copoly.Terminal)
+	if !terminal {
+		if in.Conversion != nil {
+			// Not used, but a bad value is still an error rather than ignored.
+			if err := copoly.CheckConversion("conversion", *in.Conversion); err != nil {
+				return nil, err
+			}
+		}
+		return v, nil
+	}
+	rl, err := t.RunLengths(in.F1, maxLength)
+	if err != nil {
+		return nil, err
+	}
 	v.Set("runLengths", toJS(runLengthsOut{Length: rl.Length, Number1: rl.Number1, Weight1: rl.Weight1, Number2: rl.Number2, Weight2: rl.Weight2}))
 	if in.Conversion != nil {
-		b, err := m.BatchSequence(in.F1, *in.Conversion)
+		b, err := t.BatchSequence(in.F1, *in.Conversion)
 		if err != nil {
 			err = renameField(err, "f10", "f1")
 			return nil, renameField(err, "conversion[0]", "conversion")
@@ -247,29 +276,224 @@ func sequence(arg js.Value) (any, error) {
 	return v, nil
 }
 
-// chains: sample chains grown at a constant feed.
+// chains: without any simulation option (dpn, conversion, functional, model), sample chains of
+// the terminal model grown at a constant feed (copoly.Terminal.Chains); with one, a Monte Carlo
+// simulation (copoly.SimulateChains) with the composition of every chain, its histogram and,
+// for the terminal model at a constant feed with a dpn, Stockmayer's distribution on the same
+// bins.
 func chains(arg js.Value) (any, error) {
+	m, named, err := readModel(arg)
+	if err != nil {
+		return nil, err
+	}
 	var in chainsIn
 	if err := decode(arg, &in, ""); err != nil {
-		return nil, err
-	}
-	count, err := intIn("count", in.Count, defaultChainCount, 1, copoly.MaxChains)
-	if err != nil {
-		return nil, err
-	}
-	length, err := intIn("length", in.Length, defaultChainLength, 1, copoly.MaxChainLength)
-	if err != nil {
 		return nil, err
 	}
 	seed, err := intIn("seed", in.Seed, defaultSeed, 0, maxSeed)
 	if err != nil {
 		return nil, err
 	}
-	samples, err := copoly.Terminal{R1: in.R1, R2: in.R2}.Chains(in.F10, count, length, uint64(seed))
+	bins, err := intIn("bins", in.Bins, defaultChainBins, 1, copoly.MaxBins)
 	if err != nil {
 		return nil, err
 	}
-	return chainsOut{Samples: samples}, nil
+	if !named && in.DPn == nil && in.Conversion == nil && in.Functional == nil {
+		count, err := intIn("count", in.Count, defaultChainCount, 1, copoly.MaxChains)
+		if err != nil {
+			return nil, err
+		}
+		length, err := intIn("length", in.Length, defaultChainLength, 1, copoly.MaxChainLength)
+		if err != nil {
+			return nil, err
+		}
+		samples, err := m.(copoly.Terminal).Chains(in.F10, count, length, uint64(seed))
+		if err != nil {
+			return nil, err
+		}
+		return chainsOut{Samples: samples}, nil
+	}
+
+	opt := copoly.ChainOptions{Model: m, F10: in.F10, Seed: uint64(seed), Samples: defaultSimSamples}
+	if opt.Count, err = intIn("count", in.Count, defaultSimCount, 1, copoly.MaxSimChains); err != nil {
+		return nil, err
+	}
+	if opt.Length, err = intIn("length", in.Length, defaultSimLength, 1, copoly.MaxChainLength); err != nil {
+		return nil, err
+	}
+	if in.DPn != nil {
+		if *in.DPn == 0 {
+			return nil, &copoly.InputError{Field: "dpn", Value: 0, Reason: "must be at least 1 (leave it out for chains of one length)", Err: copoly.ErrOutOfRange}
+		}
+		opt.DPn = *in.DPn
+	}
+	if in.Conversion != nil {
+		opt.Conversion = *in.Conversion // 0 is a constant feed, as in copoly
+	}
+	if opt.Functional, err = intIn("functional", in.Functional, 0, 1, 2); err != nil {
+		return nil, err
+	}
+	st, err := copoly.SimulateChains(opt)
+	if err != nil {
+		// A conversion past the end of the batch is named as the first of a list.
+		return nil, renameField(err, "conversion[0]", "conversion")
+	}
+	h, err := st.Histogram(bins)
+	if err != nil {
+		return nil, err
+	}
+	out := chainStatsOut{
+		Samples:               orNoTexts(st.Samples),
+		Compositions:          orEmpty(st.Compositions),
+		Lengths:               st.Lengths,
+		FunctionalCounts:      st.FunctionalCounts,
+		NonFunctional:         st.NonFunctional,
+		ExpectedNonFunctional: finiteOrNil(st.ExpectedNonFunctional),
+		Mean:                  st.Mean,
+		Variance:              st.Variance,
+		WeightMean:            st.WeightMean,
+		StockmayerVariance:    finiteOrNil(st.StockmayerVariance),
+		Units:                 st.Units,
+		Histogram:             chainHistogramOut{Edges: orEmpty(h.Edges), Weights: orEmpty(h.Weights)},
+	}
+	if t, ok := m.(copoly.Terminal); ok && opt.DPn > 0 && opt.Conversion == 0 {
+		if out.Stockmayer, err = t.Stockmayer(opt.F10, opt.DPn, h.Edges); err != nil {
+			return nil, err
+		}
+	}
+	if path := nonFinite(out); path != "" {
+		return nil, fmt.Errorf("copoly: the simulation holds a value that is not a finite number (%s); it is not shown", path)
+	}
+	v := toJS(out)
+	if opt.Functional == 0 {
+		v.Delete("functionalCounts")
+		v.Delete("nonFunctional")
+		v.Delete("expectedNonFunctional")
+	}
+	return v, nil
+}
+
+// discriminate: the terminal and the penultimate model fitted to measured compositions and
+// triads and compared (copoly.Discriminate), with each model's values at the runs' feeds.
+func discriminate(arg js.Value) (any, error) {
+	var in discriminateIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	rows := triadRows(in.Runs)
+	if err := project.CheckTriads("runs", rows); err != nil {
+		return nil, err
+	}
+	runs := make([]copoly.TriadRun, len(rows))
+	for i, r := range rows {
+		runs[i] = r.Run()
+	}
+	d, err := copoly.Discriminate(runs)
+	if err != nil {
+		return nil, err
+	}
+	tp, pp := d.Terminal.Params, d.Penultimate.Params
+	if len(tp) != 2 || len(pp) != 4 {
+		return nil, fmt.Errorf("copoly: the fits hold %d and %d parameters, not 2 and 4", len(tp), len(pp))
+	}
+	term := copoly.Terminal{R1: tp[0], R2: tp[1]}
+	pen := copoly.Penultimate{R11: pp[0], R21: pp[1], R22: pp[2], R12: pp[3]}
+	pred := predictedOut{Terminal: make([]triadRowOut, len(runs)), Penultimate: make([]triadRowOut, len(runs))}
+	for i, r := range runs {
+		st, err := term.Sequence(r.F10)
+		if err != nil {
+			return nil, err
+		}
+		sp, err := pen.Sequence(r.F10)
+		if err != nil {
+			return nil, err
+		}
+		pred.Terminal[i], pred.Penultimate[i] = triadRowOf(r.F10, st), triadRowOf(r.F10, sp)
+	}
+	out := discriminationOut{
+		Terminal:    modelFitDTO(d.Terminal),
+		Penultimate: modelFitDTO(d.Penultimate),
+		F:           d.F,
+		PValue:      finiteOrNil(d.PValue),
+		DeltaAIC:    d.DeltaAIC,
+		Supported:   d.Supported,
+		Verdict:     d.Verdict,
+		Predicted:   pred,
+	}
+	if path := nonFinite(out); path != "" {
+		return nil, fmt.Errorf("copoly: the comparison holds a value that is not a finite number (%s); it is not shown", path)
+	}
+	return out, nil
+}
+
+// averages: the molar-mass averages of a binned distribution (copoly.BinAverages) or of
+// chromatogram slices (copoly.SliceAverages), and the degrees of polymerization
+// (copoly.SizeOf) when F1 and both molar masses are given. An empty list counts as not given.
+func averages(arg js.Value) (any, error) {
+	var in averagesIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	mm1, mm2, masses, err := molarMasses(in.MolarMass1, in.MolarMass2)
+	if err != nil {
+		return nil, err
+	}
+	var a copoly.Averages
+	switch {
+	case len(in.Bins) > 0 && len(in.Slices) > 0:
+		return nil, &copoly.FieldError{Field: "slices", Reason: "give bins or slices, not both", Err: copoly.ErrOutOfRange}
+	case len(in.Bins) > 0:
+		bins := make([]copoly.Bin, len(in.Bins))
+		for i, b := range sizeBins(in.Bins) {
+			bins[i] = b.Bin()
+		}
+		if a, err = copoly.BinAverages(bins); err != nil {
+			return nil, err
+		}
+	case len(in.Slices) > 0:
+		mass, signal := make([]float64, len(in.Slices)), make([]float64, len(in.Slices))
+		for i, s := range in.Slices {
+			mass[i], signal[i] = s.Mass, s.Signal
+		}
+		if a, err = copoly.SliceAverages(mass, signal); err != nil {
+			return nil, sliceField(err)
+		}
+	default:
+		return nil, &copoly.FieldError{Field: "bins", Reason: "give the molar-mass classes (bins) or the chromatogram slices (slices)", Err: errMissing}
+	}
+	out := averagesOut{Mn: a.Mn, Mw: a.Mw, Mz: a.Mz, Dispersity: a.Dispersity}
+	if in.F1 != nil && masses {
+		c, err := copoly.SizeOf(a, *in.F1, mm1, mm2)
+		if err != nil {
+			return nil, err
+		}
+		out.Size = &sizeOut{UnitMass: c.UnitMass, DPn: c.DPn, DPw: c.DPw, Units1: c.Units1, Units2: c.Units2}
+	}
+	if path := nonFinite(out); path != "" {
+		return nil, fmt.Errorf("copoly: the averages hold a value that is not a finite number (%s); they are not shown", path)
+	}
+	v := toJS(out)
+	if out.Size == nil {
+		v.Delete("size")
+	}
+	return v, nil
+}
+
+// sliceField names an error of copoly.SliceAverages the way the JS API does: "mass[3]" and
+// "signal[3]" become "slices[3].mass" and "slices[3].signal"; a field about the table as a
+// whole ("mass", "signal", "bins") becomes "slices".
+func sliceField(err error) error {
+	f := copoly.Field(err)
+	for _, key := range []string{"mass", "signal"} {
+		if rest, ok := strings.CutPrefix(f, key+"["); ok && strings.HasSuffix(rest, "]") {
+			return renameField(err, f, "slices["+rest+"."+key)
+		}
+	}
+	switch f {
+	case "mass", "signal", "bins":
+		return renameField(err, f, "slices")
+	}
+	return err
 }
 
 // library: the built-in monomers and literature ratio pairs.

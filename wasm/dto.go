@@ -34,9 +34,87 @@ var (
 	errMissing = errors.New("copoly: value missing")
 )
 
+// modelIn is the ModelArgs of the d.ts: the model word and every ratio any model takes, each
+// optional here; readModel checks that the chosen model has its own.
+type modelIn struct {
+	R1    *float64 `js:"r1"` // read first, as before there were other models
+	R2    *float64 `js:"r2"`
+	Model *string  `js:"model" limit:"word"`
+	R11   *float64 `js:"r11"`
+	R21   *float64 `js:"r21"`
+	R22   *float64 `js:"r22"`
+	R12   *float64 `js:"r12"`
+	S1    *float64 `js:"s1"`
+	S2    *float64 `js:"s2"`
+}
+
+// readModel reads the ModelArgs of arg and returns the model, validated: a copoly.Terminal
+// when "model" is absent or "terminal", else a copoly.Penultimate or copoly.Implicit. named
+// reports that the caller gave "model". Ratios that belong to another model are ignored.
+func readModel(arg js.Value) (m copoly.Model, named bool, err error) {
+	var in modelIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, false, err
+	}
+	kind := project.ModelTerminal
+	if in.Model != nil {
+		kind = *in.Model
+	}
+	// need returns the values of the ratios the model takes, or an error naming the first
+	// one missing.
+	need := func(what string, ps ...*float64) ([]float64, error) {
+		names := strings.Split(what, ", ")
+		v := make([]float64, len(ps))
+		for i, p := range ps {
+			if p == nil {
+				return nil, &copoly.FieldError{Field: names[i], Reason: fmt.Sprintf("is missing: the %s model takes %s", kind, what), Err: errMissing}
+			}
+			v[i] = *p
+		}
+		return v, nil
+	}
+	var v []float64
+	switch kind {
+	case project.ModelTerminal:
+		if v, err = need("r1, r2", in.R1, in.R2); err == nil {
+			m = copoly.Terminal{R1: v[0], R2: v[1]}
+		}
+	case project.ModelPenultimate:
+		if v, err = need("r11, r21, r22, r12", in.R11, in.R21, in.R22, in.R12); err == nil {
+			m = copoly.Penultimate{R11: v[0], R21: v[1], R22: v[2], R12: v[3]}
+		}
+	case project.ModelImplicit:
+		if v, err = need("r1, r2, s1, s2", in.R1, in.R2, in.S1, in.S2); err == nil {
+			m = copoly.Implicit{R1: v[0], R2: v[1], S1: v[2], S2: v[3]}
+		}
+	default:
+		return nil, false, &copoly.FieldError{Field: "model", Reason: fmt.Sprintf("is %q; it must be %q, %q or %q", kind, project.ModelTerminal, project.ModelPenultimate, project.ModelImplicit), Err: copoly.ErrOutOfRange}
+	}
+	if err != nil {
+		return nil, false, err
+	}
+	if err := m.Validate(); err != nil {
+		return nil, false, err
+	}
+	return m, in.Model != nil, nil
+}
+
+// sequenceOf returns the sequence statistics of the copolymer m makes at feed f1 (the implicit
+// model's are those of its equivalent explicit model).
+func sequenceOf(m copoly.Model, f1 float64) (copoly.Sequence, error) {
+	switch mm := m.(type) {
+	case copoly.Terminal:
+		return mm.Sequence(f1)
+	case copoly.Penultimate:
+		return mm.Sequence(f1)
+	case copoly.Implicit:
+		return mm.Penultimate().Sequence(f1)
+	}
+	panic(fmt.Sprintf("copoly: no sequence for a %T", m))
+}
+
+// compositionIn is the argument of composition without its ModelArgs (readModel).
 type compositionIn struct {
-	R1 float64   `js:"r1"`
-	R2 float64   `js:"r2"`
 	F1 []float64 `js:"f1"`
 }
 
@@ -47,9 +125,9 @@ type classificationOut struct {
 }
 
 type compositionOut struct {
-	F1             []float64         `js:"F1"`
-	Azeotrope      *float64          `js:"azeotrope"` // null when none
-	Classification classificationOut `js:"classification"`
+	F1             []float64          `js:"F1"`
+	Azeotrope      *float64           `js:"azeotrope"`      // null when none, and for a model other than the terminal
+	Classification *classificationOut `js:"classification"` // null for a model other than the terminal
 }
 
 type feedIn struct {
@@ -64,9 +142,8 @@ type feedOut struct {
 	Range []float64 `js:"range"` // [min, max]
 }
 
+// driftIn is the argument of drift without its ModelArgs (readModel).
 type driftIn struct {
-	R1         float64   `js:"r1"`
-	R2         float64   `js:"r2"`
 	F10        float64   `js:"f10"`
 	Conversion []float64 `js:"conversion"`
 	Basis      *string   `js:"basis"`
@@ -99,14 +176,13 @@ type driftOut struct {
 	Inst           []float64     `js:"F1"`
 	Cum            []float64     `js:"F1cum"`
 	Method         string        `js:"method"`
-	Limit          limitOut      `js:"limit"`
-	Distribution   histogramOut  `js:"distribution"`
-	Exhausted      *exhaustedOut `js:"exhausted"` // null when no monomer runs out
+	Limit          *limitOut     `js:"limit"`        // null for a model other than the terminal
+	Distribution   *histogramOut `js:"distribution"` // null for a model other than the terminal
+	Exhausted      *exhaustedOut `js:"exhausted"`    // null when no monomer runs out
 }
 
+// sequenceIn is the argument of sequence without its ModelArgs (readModel).
 type sequenceIn struct {
-	R1         float64  `js:"r1"`
-	R2         float64  `js:"r2"`
 	F1         float64  `js:"f1"`
 	Conversion *float64 `js:"conversion"`
 	MaxLength  *float64 `js:"maxLength"`
@@ -161,17 +237,225 @@ func sequenceDTO(s copoly.Sequence) sequenceOut {
 	}
 }
 
+// chainsIn is the argument of chains without its ModelArgs (readModel).
 type chainsIn struct {
-	R1     float64  `js:"r1"`
-	R2     float64  `js:"r2"`
-	F10    float64  `js:"f10"`
-	Count  *float64 `js:"count"`
-	Length *float64 `js:"length"`
-	Seed   *float64 `js:"seed"`
+	F10        float64  `js:"f10"`
+	Count      *float64 `js:"count"`
+	Length     *float64 `js:"length"`
+	Seed       *float64 `js:"seed"`
+	DPn        *float64 `js:"dpn"`
+	Conversion *float64 `js:"conversion"`
+	Functional *float64 `js:"functional"`
+	Bins       *float64 `js:"bins"`
 }
 
+// chainsOut is the ChainsResult of sample chains only (no simulation options given).
 type chainsOut struct {
 	Samples []string `js:"samples"`
+}
+
+type chainHistogramOut struct {
+	Edges   []float64 `js:"edges"`
+	Weights []float64 `js:"weights"`
+}
+
+// chainStatsOut is the ChainsResult of a simulation. functionalCounts, nonFunctional and
+// expectedNonFunctional are removed without a functional monomer.
+type chainStatsOut struct {
+	Samples               []string          `js:"samples"`
+	Compositions          []float64         `js:"compositions"`
+	Lengths               []int             `js:"lengths"`
+	FunctionalCounts      []int             `js:"functionalCounts"`
+	NonFunctional         float64           `js:"nonFunctional"`
+	ExpectedNonFunctional *float64          `js:"expectedNonFunctional"` // null unless terminal at a constant feed
+	Mean                  float64           `js:"mean"`
+	Variance              float64           `js:"variance"`
+	WeightMean            float64           `js:"weightMean"`
+	StockmayerVariance    *float64          `js:"stockmayerVariance"` // null unless terminal at a constant feed
+	Units                 int               `js:"units"`
+	Histogram             chainHistogramOut `js:"histogram"`
+	Stockmayer            []float64         `js:"stockmayer"` // null unless terminal at a constant feed with a dpn
+}
+
+// triadRowDTO is the TriadRow of the d.ts, read from JavaScript (discriminate's runs and a
+// project's triads): f10 is required, every measurement optional (absent = not measured).
+type triadRowDTO struct {
+	F10  float64  `js:"f10"`
+	F1   *float64 `js:"F1"`
+	A111 *float64 `js:"A111"`
+	A112 *float64 `js:"A112"`
+	A212 *float64 `js:"A212"`
+	A222 *float64 `js:"A222"`
+	A221 *float64 `js:"A221"`
+	A121 *float64 `js:"A121"`
+}
+
+// triadRows converts rows read from JavaScript; project.CheckTriads checks them.
+func triadRows(ds []triadRowDTO) []project.TriadRow {
+	if len(ds) == 0 {
+		return nil
+	}
+	rows := make([]project.TriadRow, len(ds))
+	for i, d := range ds {
+		rows[i] = project.TriadRow{F10: d.F10, F1: d.F1, A111: d.A111, A112: d.A112, A212: d.A212, A222: d.A222, A221: d.A221, A121: d.A121}
+	}
+	return rows
+}
+
+// triadsValue returns rows as TriadRow objects with the measurements given, in the order of
+// the d.ts.
+func triadsValue(rows []project.TriadRow) js.Value {
+	out := array.New()
+	for i, r := range rows {
+		v := object.New()
+		v.Set("f10", r.F10)
+		for _, m := range []struct {
+			key string
+			v   *float64
+		}{{"F1", r.F1}, {"A111", r.A111}, {"A112", r.A112}, {"A212", r.A212}, {"A222", r.A222}, {"A221", r.A221}, {"A121", r.A121}} {
+			if m.v != nil {
+				v.Set(m.key, *m.v)
+			}
+		}
+		out.SetIndex(i, v)
+	}
+	return out
+}
+
+type discriminateIn struct {
+	Runs []triadRowDTO `js:"runs" limit:"triads"`
+}
+
+// triadRowOut is a TriadRow of predicted values: every key present.
+type triadRowOut struct {
+	F10  float64 `js:"f10"`
+	F1   float64 `js:"F1"`
+	A111 float64 `js:"A111"`
+	A112 float64 `js:"A112"`
+	A212 float64 `js:"A212"`
+	A222 float64 `js:"A222"`
+	A221 float64 `js:"A221"`
+	A121 float64 `js:"A121"`
+}
+
+func triadRowOf(f10 float64, s copoly.Sequence) triadRowOut {
+	return triadRowOut{F10: f10, F1: s.F1, A111: s.T111, A112: s.T112, A212: s.T212, A222: s.T222, A221: s.T221, A121: s.T121}
+}
+
+// modelFitOut is the ModelFitResult of the d.ts; a standard error copoly reports as NaN (a
+// singular fit) is null.
+type modelFitOut struct {
+	Model  string     `js:"model"`
+	Params []float64  `js:"params"`
+	SE     []*float64 `js:"se"`
+	SSR    float64    `js:"ssr"`
+	N      int        `js:"n"`
+	K      int        `js:"k"`
+	AIC    float64    `js:"aic"`
+	AICc   float64    `js:"aicc"`
+}
+
+func modelFitDTO(f copoly.ModelFit) modelFitOut {
+	se := make([]*float64, len(f.SE))
+	for i, x := range f.SE {
+		se[i] = finiteOrNil(x)
+	}
+	return modelFitOut{Model: f.Model, Params: orEmpty(f.Params), SE: se, SSR: f.SSR, N: f.N, K: f.K, AIC: f.AIC, AICc: f.AICc}
+}
+
+type predictedOut struct {
+	Terminal    []triadRowOut `js:"terminal"`
+	Penultimate []triadRowOut `js:"penultimate"`
+}
+
+// discriminationOut is the DiscriminationResult of the d.ts; pValue is null when copoly gives
+// NaN (too few values for the F-test).
+type discriminationOut struct {
+	Terminal    modelFitOut  `js:"terminal"`
+	Penultimate modelFitOut  `js:"penultimate"`
+	F           float64      `js:"F"`
+	PValue      *float64     `js:"pValue"`
+	DeltaAIC    float64      `js:"deltaAIC"`
+	Supported   bool         `js:"supported"`
+	Verdict     string       `js:"verdict"`
+	Predicted   predictedOut `js:"predicted"`
+}
+
+// sizeBinDTO is one molar-mass class of averages' bins and of a project's sizeBins, both ways.
+// A fraction left out is 0 (not given).
+type sizeBinDTO struct {
+	Low            float64 `js:"low"`
+	High           float64 `js:"high"`
+	NumberFraction float64 `js:"numberFraction" copoly:"optional"`
+	WeightFraction float64 `js:"weightFraction" copoly:"optional"`
+}
+
+// sizeBinsValue returns bins as objects; like the file format they leave out a fraction of 0.
+func sizeBinsValue(bins []project.SizeBin) js.Value {
+	out := array.New()
+	for i, b := range bins {
+		v := object.New()
+		v.Set("low", b.Low)
+		v.Set("high", b.High)
+		if b.NumberFraction != 0 {
+			v.Set("numberFraction", b.NumberFraction)
+		}
+		if b.WeightFraction != 0 {
+			v.Set("weightFraction", b.WeightFraction)
+		}
+		out.SetIndex(i, v)
+	}
+	return out
+}
+
+type sliceDTO struct {
+	Mass   float64 `js:"mass"`
+	Signal float64 `js:"signal"`
+}
+
+type averagesIn struct {
+	Bins       []sizeBinDTO `js:"bins" copoly:"optional" limit:"sizeBins"`
+	Slices     []sliceDTO   `js:"slices" copoly:"optional" limit:"sizeBins"`
+	F1         *float64     `js:"F1"`
+	MolarMass1 *float64     `js:"molarMass1"`
+	MolarMass2 *float64     `js:"molarMass2"`
+}
+
+type sizeOut struct {
+	UnitMass float64 `js:"unitMass"`
+	DPn      float64 `js:"DPn"`
+	DPw      float64 `js:"DPw"`
+	Units1   float64 `js:"units1"`
+	Units2   float64 `js:"units2"`
+}
+
+// averagesOut is the AveragesResult of the d.ts; size is removed when nil.
+type averagesOut struct {
+	Mn         float64  `js:"Mn"`
+	Mw         float64  `js:"Mw"`
+	Mz         float64  `js:"Mz"`
+	Dispersity float64  `js:"dispersity"`
+	Size       *sizeOut `js:"size"`
+}
+
+// molarMasses reads an optional pair of molar masses: both or neither (given false), each
+// checked by copoly.CheckMolarMass.
+func molarMasses(mm1, mm2 *float64) (m1, m2 float64, given bool, err error) {
+	switch {
+	case mm1 != nil && mm2 != nil:
+		if err := copoly.CheckMolarMass("molarMass1", *mm1); err != nil {
+			return 0, 0, false, err
+		}
+		if err := copoly.CheckMolarMass("molarMass2", *mm2); err != nil {
+			return 0, 0, false, err
+		}
+		return *mm1, *mm2, true, nil
+	case mm1 != nil:
+		return 0, 0, false, &copoly.FieldError{Field: "molarMass2", Reason: "is missing: give both molar masses or neither", Err: copoly.ErrOutOfRange}
+	case mm2 != nil:
+		return 0, 0, false, &copoly.FieldError{Field: "molarMass1", Reason: "is missing: give both molar masses or neither", Err: copoly.ErrOutOfRange}
+	}
+	return 0, 0, false, nil
 }
 
 // monomerOut is the MonomerData of the d.ts: a built-in monomer with its process data
@@ -652,34 +936,44 @@ func orNoTexts(s []string) []string {
 // numbers, texts, booleans, pointers, slices and nested structs), or "" when every number is
 // finite. A nil pointer (null) counts as finite.
 func nonFinite(v any) string {
-	var walk func(rv reflect.Value, path string) string
-	walk = func(rv reflect.Value, path string) string {
+	// walk reports whether rv holds a number that is not finite, and its path below rv; the
+	// path is built only on the way back from one, so a long list costs no text.
+	var walk func(rv reflect.Value) (string, bool)
+	walk = func(rv reflect.Value) (string, bool) {
 		switch rv.Kind() {
 		case reflect.Float64:
 			if x := rv.Float(); math.IsNaN(x) || math.IsInf(x, 0) {
-				return path
+				return "", true
 			}
 		case reflect.Pointer:
 			if !rv.IsNil() {
-				return walk(rv.Elem(), path)
+				return walk(rv.Elem())
 			}
 		case reflect.Slice:
+			if rv.Type().Elem().Kind() == reflect.Float64 {
+				for i, x := range rv.Interface().([]float64) {
+					if math.IsNaN(x) || math.IsInf(x, 0) {
+						return fmt.Sprintf("[%d]", i), true
+					}
+				}
+				return "", false
+			}
 			for i := range rv.Len() {
-				if p := walk(rv.Index(i), fmt.Sprintf("%s[%d]", path, i)); p != "" {
-					return p
+				if p, bad := walk(rv.Index(i)); bad {
+					return fmt.Sprintf("[%d]%s", i, p), true
 				}
 			}
 		case reflect.Struct:
 			t := rv.Type()
 			for i := range t.NumField() {
-				if p := walk(rv.Field(i), path+"."+t.Field(i).Tag.Get("js")); p != "" {
-					return p
+				if p, bad := walk(rv.Field(i)); bad {
+					return "." + t.Field(i).Tag.Get("js") + p, true
 				}
 			}
 		}
-		return ""
+		return "", false
 	}
-	p := walk(reflect.ValueOf(v), "")
+	p, _ := walk(reflect.ValueOf(v))
 	return strings.TrimPrefix(p, ".")
 }
 
@@ -709,9 +1003,53 @@ type projectDTO struct {
 	Bench       *benchDTO         `js:"bench"`
 	Level       float64           `js:"level" copoly:"optional"`
 	JCR         [][]float64       `js:"jcr" copoly:"optional" limit:"jcr"`
-	Plan        *projectPlanDTO   `js:"plan"`
+	Model       *projectModelDTO  `js:"model"`
+	// Triads and SizeBins are the tables of the d.ts; absent, null or [] means none.
+	Triads   []triadRowDTO   `js:"triads" copoly:"optional" limit:"triads"`
+	SizeBins []sizeBinDTO    `js:"sizeBins" copoly:"optional" limit:"sizeBins"`
+	Plan     *projectPlanDTO `js:"plan"`
 	// UserMonomers is the UserMonomer list of the d.ts; absent, null or [] means none.
 	UserMonomers []userMonomerDTO `js:"userMonomers" copoly:"optional" limit:"userMonomers"`
+}
+
+// projectModelDTO is the model of a Project, read from JavaScript; modelValue writes one. Only
+// the kind is required; a ratio left out is not typed.
+type projectModelDTO struct {
+	Kind string   `js:"kind" limit:"word"`
+	R11  *float64 `js:"r11"`
+	R21  *float64 `js:"r21"`
+	R22  *float64 `js:"r22"`
+	R12  *float64 `js:"r12"`
+	S1   *float64 `js:"s1"`
+	S2   *float64 `js:"s2"`
+}
+
+// modelValue returns m as the model object of a Project: the kind and the ratios typed, in the
+// order of the d.ts.
+func modelValue(m project.Model) js.Value {
+	v := object.New()
+	v.Set("kind", m.Kind)
+	for _, r := range []struct {
+		key string
+		v   *float64
+	}{{"r11", m.R11}, {"r21", m.R21}, {"r22", m.R22}, {"r12", m.R12}, {"s1", m.S1}, {"s2", m.S2}} {
+		if r.v != nil {
+			v.Set(r.key, *r.v)
+		}
+	}
+	return v
+}
+
+// sizeBins converts molar-mass classes read from JavaScript.
+func sizeBins(ds []sizeBinDTO) []project.SizeBin {
+	if len(ds) == 0 {
+		return nil
+	}
+	bins := make([]project.SizeBin, len(ds))
+	for i, d := range ds {
+		bins[i] = project.SizeBin{Low: d.Low, High: d.High, NumberFraction: d.NumberFraction, WeightFraction: d.WeightFraction}
+	}
+	return bins
 }
 
 // userMonomerDTO is one UserMonomer of a Project, both ways. Only the name is required; an
@@ -919,7 +1257,12 @@ func (d projectDTO) project() (project.Project, error) {
 		Invented:     d.Invented,
 		SavedAt:      d.SavedAt,
 		Level:        d.Level,
+		Triads:       triadRows(d.Triads),
+		SizeBins:     sizeBins(d.SizeBins),
 		UserMonomers: userMonomers(d.UserMonomers),
+	}
+	if m := d.Model; m != nil {
+		p.Model = &project.Model{Kind: m.Kind, R11: m.R11, R21: m.R21, R22: m.R22, R12: m.R12, S1: m.S1, S2: m.S2}
 	}
 	if d.Bench != nil {
 		b, err := d.Bench.bench("project.bench")
@@ -945,7 +1288,8 @@ func (d projectDTO) project() (project.Project, error) {
 }
 
 // projectValue returns p as a JS object; like the file format it leaves out invented when false,
-// savedAt when empty, bench and plan when nil, level when 0, and jcr and userMonomers when empty.
+// savedAt when empty, bench, model and plan when nil, level when 0, and jcr, triads, sizeBins
+// and userMonomers when empty.
 func projectValue(p project.Project) js.Value {
 	var jcr [][]float64
 	for _, pt := range p.JCR {
@@ -985,6 +1329,21 @@ func projectValue(p project.Project) js.Value {
 	}
 	if len(jcr) == 0 {
 		v.Delete("jcr")
+	}
+	if p.Model != nil {
+		v.Set("model", modelValue(*p.Model))
+	} else {
+		v.Delete("model")
+	}
+	if len(p.Triads) > 0 {
+		v.Set("triads", triadsValue(p.Triads))
+	} else {
+		v.Delete("triads")
+	}
+	if len(p.SizeBins) > 0 {
+		v.Set("sizeBins", sizeBinsValue(p.SizeBins))
+	} else {
+		v.Delete("sizeBins")
 	}
 	if p.Plan != nil {
 		v.Set("plan", planValue(*p.Plan))
@@ -1083,6 +1442,10 @@ var limits = map[string]int{
 
 	"userMonomers": project.MaxUserMonomers,
 	"hazards":      project.MaxHazards,
+
+	"triads":   project.MaxTriadRows,      // = copoly.MaxTriadRuns
+	"sizeBins": project.MaxSizeBins,       // = copoly.MaxAverageRows
+	"word":     project.MaxPlanWordLength, // a one-word option such as "model"
 }
 
 // copyValue checks one present JS value against the Go type it will be converted to and

@@ -637,7 +637,8 @@ func TestProjectWithBench(t *testing.T) {
 		p.bench.rows.push({label: "HL-09 (invented) \"quoted\"", cells: {f10: "35 %", integral1: "1e3"}});
 		p.level = 0.9;
 		p.jcr = [[0.71, 0.15], [0.8, 0.136], [0.895, 0.16], [0.8, 0.185]];
-		const plan = p.plan; delete p.plan; p.plan = plan;   // keys in the order of the d.ts
+		const model = p.model; delete p.model; p.model = model;   // keys in the order of the d.ts
+		const plan = p.plan; delete p.plan; p.plan = plan;
 		return {project: p}; })`).Invoke(demo)
 
 	checked := call(api, "checkProject", arg)

@@ -14,11 +14,13 @@
 // scripts:
 //
 //	copoly.version                  string
-//	copoly.composition({r1, r2, f1: number[]})
+//	copoly.composition({...model, f1: number[]})
 //	copoly.feedFor({r1, r2, targetF1})
-//	copoly.drift({r1, r2, f10, conversion: number[], basis?, molarMass1?, molarMass2?, tolerance?, bins?})
-//	copoly.sequence({r1, r2, f1, conversion?, maxLength?})
-//	copoly.chains({r1, r2, f10, count?, length?, seed?})
+//	copoly.drift({...model, f10, conversion: number[], basis?, molarMass1?, molarMass2?, tolerance?, bins?})
+//	copoly.sequence({...model, f1, conversion?, maxLength?})
+//	copoly.chains({...model, f10, count?, length?, seed?, dpn?, conversion?, functional?, bins?})
+//	copoly.discriminate({runs: TriadRow[]})
+//	copoly.averages({bins? | slices?, F1?, molarMass1?, molarMass2?})
 //	copoly.library()
 //	copoly.demoProject()
 //	copoly.checkProject({project})
@@ -36,6 +38,12 @@
 //	copoly.qe({monomer1, monomer2})
 //	copoly.loadProject()             → Promise
 //	copoly.saveProject({project})    → Promise
+//
+// where ...model is {r1, r2} (the terminal model, also with model: "terminal"),
+// {model: "penultimate", r11, r21, r22, r12} or {model: "implicit", r1, r2, s1, s2}. Some
+// results are worked out for the terminal model only and are null or absent for the others: the
+// azeotrope and classification of composition, the limit and distribution of drift (and its
+// basis "mass"), the runLengths and batch of sequence, and Stockmayer's distribution of chains.
 //
 // Every method takes one plain object (optional for library, demoProject and loadProject) and
 // returns one plain object. Bad input never throws: the result is then {error, field}, where

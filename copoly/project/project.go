@@ -241,7 +241,7 @@ func (p Project) Validate() error {
 			return err
 		}
 	}
-	if err := checkTriads("project.triads", p.Triads); err != nil {
+	if err := CheckTriads("project.triads", p.Triads); err != nil {
 		return err
 	}
 	if err := checkSizeBins("project.sizeBins", p.SizeBins); err != nil {

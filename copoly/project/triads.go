@@ -47,9 +47,10 @@ func (r TriadRow) Run() copoly.TriadRun {
 		A222: v(r.A222), A221: v(r.A221), A121: v(r.A121)}
 }
 
-// checkTriads reports the first invalid row of rows as an error whose field starts with field
-// ("project.triads[2].A112"), or nil.
-func checkTriads(field string, rows []TriadRow) error {
+// CheckTriads reports the first invalid row of rows as an error whose field starts with field
+// ("project.triads[2].A112", "runs[2].A112"), or nil: more than MaxTriadRows rows, an F10
+// outside [0, 1], or a measurement that is neither in [0, 1] nor NotMeasured (NaN included).
+func CheckTriads(field string, rows []TriadRow) error {
 	if n := len(rows); n > MaxTriadRows {
 		return &copoly.InputError{Field: field, Value: float64(n), Reason: fmt.Sprintf("at most %d rows of triads", MaxTriadRows), Err: copoly.ErrTooMany}
 	}
