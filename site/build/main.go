@@ -97,7 +97,8 @@ func run(src, wasmPath, execPath, out string) error {
 }
 
 // Build returns the offline page: the template index.html from site with its stylesheets and
-// scripts inlined, wasmExec inlined in place of wasm_exec.js, module embedded as gzip+base64, and
+// scripts inlined (indentation and comment lines removed, see trimCode), wasmExec inlined in
+// place of wasm_exec.js, module embedded as gzip+text7, and
 // a Content-Security-Policy that allows exactly the inlined code by hash.
 func Build(site fs.FS, wasmExec, module []byte) ([]byte, error) {
 	tmpl, err := fs.ReadFile(site, "index.html")
@@ -126,6 +127,7 @@ func Build(site fs.FS, wasmExec, module []byte) ([]byte, error) {
 			inlineErr = errors.Join(inlineErr, err)
 			return ""
 		}
+		css = trimCode(css, true)
 		if closeStyle.Match(css) {
 			inlineErr = errors.Join(inlineErr, fmt.Errorf("%s contains </style", name))
 		}
@@ -140,8 +142,8 @@ func Build(site fs.FS, wasmExec, module []byte) ([]byte, error) {
 		)
 		if name == wasmExecName {
 			js = wasmExec
-		} else {
-			js, err = fs.ReadFile(site, name)
+		} else if js, err = fs.ReadFile(site, name); err == nil {
+			js = trimCode(js, false)
 		}
 		if err != nil {
 			inlineErr = errors.Join(inlineErr, err)
