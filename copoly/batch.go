@@ -11,7 +11,12 @@ import (
 // see [Terminal.Drift]) when the batch never leaves the band. F̄1 moves monotonically with X, so
 // the limit is found by bisection to 1e-10.
 func (m Terminal) ConversionLimit(f10, tolerance float64) (float64, error) {
-	b, err := newBatch(m, f10)
+	return ConversionLimitOf(m, f10, tolerance)
+}
+
+// ConversionLimitOf is [Terminal.ConversionLimit] for any model (see [DriftOf]).
+func ConversionLimitOf(model Model, f10, tolerance float64) (float64, error) {
+	b, err := newModelBatch(model, f10)
 	if err != nil {
 		return 0, err
 	}
@@ -24,7 +29,7 @@ func (m Terminal) ConversionLimit(f10, tolerance float64) (float64, error) {
 	if b.still {
 		return 1, nil
 	}
-	start := m.Instantaneous(f10)
+	start := b.inst(f10)
 	off := func(x float64) bool {
 		var f [1]float64
 		b.feedAt(f[:], []float64{x})
@@ -57,8 +62,9 @@ type Histogram struct {
 	Edges []float64
 	// Weights holds the fraction of the polymer in each bin; they sum to 1.
 	Weights []float64
-	// Basis is "mass" when the weights are mass fractions and "moles" when they are fractions of
-	// the monomer units.
+	// Basis is "mass" when the weights are mass fractions, "moles" when they are fractions of
+	// the monomer units, and "units" for chains weighted by their number of units
+	// ([ChainStats.Histogram]).
 	Basis string
 }
 
@@ -78,7 +84,12 @@ const distributionSteps = 4000
 // not drift. Chain-to-chain scatter about the instantaneous composition (Stockmayer) is not
 // included: the histogram shows drift only.
 func (m Terminal) CompositionDistribution(f10, conversion float64, bins int, molarMass1, molarMass2 float64) (Histogram, error) {
-	b, err := newBatch(m, f10)
+	return CompositionDistributionOf(m, f10, conversion, bins, molarMass1, molarMass2)
+}
+
+// CompositionDistributionOf is [Terminal.CompositionDistribution] for any model (see [DriftOf]).
+func CompositionDistributionOf(model Model, f10, conversion float64, bins int, molarMass1, molarMass2 float64) (Histogram, error) {
+	b, err := newModelBatch(model, f10)
 	if err != nil {
 		return Histogram{}, err
 	}
@@ -114,7 +125,7 @@ func (m Terminal) CompositionDistribution(f10, conversion float64, bins int, mol
 	comp := feeds // reuse: instantaneous composition per slice
 	lo, hi := math.Inf(1), math.Inf(-1)
 	for i, f := range feeds {
-		comp[i] = m.Instantaneous(f)
+		comp[i] = b.inst(f)
 		lo, hi = math.Min(lo, comp[i]), math.Max(hi, comp[i])
 	}
 	if hi-lo < 0.01 {
@@ -168,7 +179,12 @@ func MassConversion(conversion, f10, f1, molarMass1, molarMass2 float64) float64
 // monotonically with X, so X is found by bisection to 1e-12. The drift f1(X) comes from
 // [Terminal.Drift].
 func (m Terminal) MolarConversion(massConversion, f10, molarMass1, molarMass2 float64) (float64, error) {
-	b, err := newBatch(m, f10)
+	return MolarConversionOf(m, massConversion, f10, molarMass1, molarMass2)
+}
+
+// MolarConversionOf is [Terminal.MolarConversion] for any model (see [DriftOf]).
+func MolarConversionOf(model Model, massConversion, f10, molarMass1, molarMass2 float64) (float64, error) {
+	b, err := newModelBatch(model, f10)
 	if err != nil {
 		return 0, err
 	}

@@ -165,8 +165,8 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 		if err != nil {
 			return nil, err
 		}
-		if err := b.checkConversions([]float64{opt.Conversion}); err != nil {
-			return nil, err
+		if opt.Conversion > b.xmax {
+			return nil, &InputError{Field: "conversion", Value: opt.Conversion, Reason: fmt.Sprintf("polymerization stops at X = %.4g: a monomer is used up and the other cannot add to its own radical", b.xmax), Err: ErrOutOfRange}
 		}
 		feeds := make([]float64, grid)
 		b.feedAt(feeds, xs)

@@ -6,7 +6,7 @@ import (
 )
 
 // Model is a copolymerization model: it gives the instantaneous copolymer composition of a
-// feed. [Terminal] and [Penultimate] implement it.
+// feed. [Terminal], [Penultimate] and [Implicit] implement it.
 type Model interface {
 	// Validate reports invalid parameters as an [*InputError] naming them.
 	Validate() error

@@ -158,3 +158,30 @@ func TestImplicitMeanPropagation(t *testing.T) {
 		t.Errorf("s1 = 0: %v", err)
 	}
 }
+
+// The batch routines for any model reduce to the terminal ones for a penultimate model with
+// r11 = r21 and r22 = r12 (the terminal model itself).
+func TestBatchRoutinesOfAnyModel(t *testing.T) {
+	tm := Terminal{0.40, 0.04}
+	pm := Penultimate{0.40, 0.40, 0.04, 0.04}
+	a, _ := tm.ConversionLimit(0.3, 0.02)
+	b, err := ConversionLimitOf(pm, 0.3, 0.02)
+	if err != nil || math.Abs(a-b) > 1e-8 {
+		t.Errorf("limit %v, %v (%v)", a, b, err)
+	}
+	h1, _ := tm.CompositionDistribution(0.3, 0.6, 20, 0, 0)
+	h2, err := CompositionDistributionOf(pm, 0.3, 0.6, 20, 0, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range h1.Weights {
+		if math.Abs(h1.Weights[i]-h2.Weights[i]) > 1e-6 {
+			t.Fatalf("distribution bin %d: %v vs %v", i, h1.Weights[i], h2.Weights[i])
+		}
+	}
+	x1, _ := tm.MolarConversion(0.4, 0.3, 104.152, 53.064)
+	x2, err := MolarConversionOf(pm, 0.4, 0.3, 104.152, 53.064)
+	if err != nil || math.Abs(x1-x2) > 1e-9 {
+		t.Errorf("molar conversion %v, %v (%v)", x1, x2, err)
+	}
+}
