@@ -46,11 +46,11 @@ export interface DriftResult {
   F1: number[];             // instantaneous copolymer F1(X)
   F1cum: number[];          // cumulative copolymer F1cum(X)
   method: "meyer-lowry" | "skeist-ode" | "no-drift";
-  limit: null | {           // the conversion limit for the composition tolerance (null for a model other than the terminal)
+  limit: {                  // the conversion limit for the composition tolerance (any model)
     tolerance: number;      // ± tolerance on F1cum around F1(f10) (mole fraction)
     conversion: number;     // largest X with |F1cum(X) − F1(f10)| ≤ tolerance (1 when never left)
   };
-  distribution: null | {    // composition distribution of all the polymer made up to the last conversion (null for a model other than the terminal)
+  distribution: {           // composition distribution of all the polymer made up to the last conversion (any model)
     edges: number[];        // bins+1 bin edges in instantaneous F1
     weights: number[];      // fraction of the polymer (by mass when both molar masses are given, else by moles) per bin; sums to 1
     basis: "mass" | "moles";

@@ -130,11 +130,10 @@ func feedFor(arg js.Value) (any, error) {
 	return feedOut{Feeds: feeds, Note: s.Note, Range: []float64{s.Min, s.Max}}, nil
 }
 
-// drift: the batch drift at each conversion (copoly.DriftOf, any model). For the terminal model
-// also its conversion limit and the composition distribution of the polymer made up to the
-// last conversion, and conversions by mass; for the other models limit and distribution are
-// null, basis "mass" is refused and tolerance is not used (copoly works them out for the
-// terminal model only).
+// drift: the batch drift at each conversion (copoly.DriftOf, any model), its conversion limit
+// for the tolerance (copoly.ConversionLimitOf), the composition distribution of the polymer made
+// up to the last conversion (copoly.CompositionDistributionOf), and conversions by mass
+// (copoly.MolarConversionOf) for any model.
 func drift(arg js.Value) (any, error) {
 	m, _, err := readModel(arg)
 	if err != nil {
@@ -144,7 +143,6 @@ func drift(arg js.Value) (any, error) {
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	t, terminal := m.(copoly.Terminal)
 	if len(in.Conversion) == 0 {
 		return nil, &copoly.FieldError{Field: "conversion", Reason: "give at least one conversion", Err: copoly.ErrOutOfRange}
 	}
@@ -162,9 +160,6 @@ func drift(arg js.Value) (any, error) {
 	if basis == "mass" && !masses {
 		return nil, &copoly.FieldError{Field: "molarMass1", Reason: "is missing: a conversion by mass needs both molar masses", Err: copoly.ErrOutOfRange}
 	}
-	if basis == "mass" && !terminal {
-		return nil, &copoly.FieldError{Field: "basis", Reason: "a conversion by mass is converted for the terminal model only; give molar conversions", Err: copoly.ErrOutOfRange}
-	}
 	tolerance := defaultTolerance
 	if in.Tolerance != nil {
 		tolerance = *in.Tolerance
@@ -180,7 +175,7 @@ func drift(arg js.Value) (any, error) {
 		conversionMass = in.Conversion
 		conversion = make([]float64, len(in.Conversion))
 		for i, w := range in.Conversion {
-			x, err := t.MolarConversion(w, in.F10, mm1, mm2)
+			x, err := copoly.MolarConversionOf(m, w, in.F10, mm1, mm2)
 			if err != nil {
 				return nil, renameField(err, "massConversion", fmt.Sprintf("conversion[%d]", i))
 			}
@@ -198,19 +193,17 @@ func drift(arg js.Value) (any, error) {
 		Cum:        d.Cum,
 		Method:     d.Method,
 	}
-	if terminal {
-		limit, err := t.ConversionLimit(in.F10, tolerance)
-		if err != nil {
-			return nil, err
-		}
-		last := len(conversion) - 1
-		h, err := t.CompositionDistribution(in.F10, conversion[last], bins, mm1, mm2)
-		if err != nil {
-			return nil, renameField(err, "conversion", fmt.Sprintf("conversion[%d]", last))
-		}
-		out.Limit = &limitOut{Tolerance: tolerance, Conversion: limit}
-		out.Distribution = &histogramOut{Edges: h.Edges, Weights: h.Weights, Basis: h.Basis}
+	limit, err := copoly.ConversionLimitOf(m, in.F10, tolerance)
+	if err != nil {
+		return nil, err
 	}
+	last := len(conversion) - 1
+	h, err := copoly.CompositionDistributionOf(m, in.F10, conversion[last], bins, mm1, mm2)
+	if err != nil {
+		return nil, renameField(err, "conversion", fmt.Sprintf("conversion[%d]", last))
+	}
+	out.Limit = &limitOut{Tolerance: tolerance, Conversion: limit}
+	out.Distribution = &histogramOut{Edges: h.Edges, Weights: h.Weights, Basis: h.Basis}
 	if basis == "molar" && masses {
 		conversionMass = make([]float64, len(conversion))
 		for i, x := range conversion {

@@ -151,10 +151,16 @@ func TestDriftModels(t *testing.T) {
 				mass[i] = copoly.MassConversion(x, 0.3, d.Feed[i], 104.15, 128.17)
 			}
 			sameFloats(t, "conversionMass", floatsOf(t, r.Get("conversionMass")), mass)
-			for _, k := range []string{"limit", "distribution", "exhausted"} {
-				if !r.Get(k).IsNull() {
-					t.Errorf("%s = %s, want null", k, stringify(r.Get(k)))
-				}
+			// Limit and distribution for any model: the same copoly routines the terminal model uses.
+			lim, err := copoly.ConversionLimitOf(c.model, 0.3, 0.02)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got := r.Get("limit").Get("conversion").Float(); got != lim {
+				t.Errorf("limit = %v, want %v (copoly.ConversionLimitOf)", got, lim)
+			}
+			if r.Get("distribution").IsNull() {
+				t.Errorf("distribution is null for %s", c.name)
 			}
 		})
 	}
@@ -252,7 +258,7 @@ func TestModelArgsErrors(t *testing.T) {
 	}{
 		{"composition f1 out of range", "composition", args(penArg, map[string]any{"f1": []any{0.5, 1.5}}), "f1[1]", "between 0 and 1"},
 		{"composition f1 NaN", "composition", args(implArg, map[string]any{"f1": []any{math.NaN()}}), "f1[0]", "finite"},
-		{"drift by mass", "drift", args(penArg, map[string]any{"f10": 0.5, "conversion": []any{0.5}, "basis": "mass", "molarMass1": 100, "molarMass2": 100}), "basis", "terminal model only"},
+		{"drift by mass without molar masses", "drift", args(penArg, map[string]any{"f10": 0.5, "conversion": []any{0.5}, "basis": "mass"}), "molarMass1", "both molar masses"},
 		{"drift conversion decreasing", "drift", args(penArg, map[string]any{"f10": 0.5, "conversion": []any{0.5, 0.4}}), "conversion[1]", "must not decrease"},
 		{"drift f10 above one", "drift", args(implArg, map[string]any{"f10": 1.5, "conversion": []any{0.5}}), "f10", "between 0 and 1"},
 		{"sequence f1 above one", "sequence", args(penArg, map[string]any{"f1": 1.5}), "f1", "between 0 and 1"},
