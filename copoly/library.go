@@ -108,10 +108,14 @@ func Monomers() []Monomer {
 type RatioPair struct {
 	Monomer1, Monomer2 string
 	R1, R2             float64
-	// Temperature and conditions as published, or "" when the source gives none.
+	// Temperature and conditions as published; for entries read from the handbook table's
+	// transcription, which has no temperature column, noTemperature.
 	Temperature string
 	Source      string
 }
+
+// noTemperature marks a pair whose source, as read, gives no temperature.
+const noTemperature = "not given in the table as transcribed; usually 50–80 °C, check the printed table"
 
 const (
 	srcHandbook = "Polymer Handbook, 4th ed. (Wiley 1999), Greenley's table of reactivity ratios, ref. %s; read from a transcription of the table, to be checked against the printed table"
@@ -122,21 +126,21 @@ const (
 func Pairs() []RatioPair {
 	h := func(ref string) string { return fmt.Sprintf(srcHandbook, ref) }
 	return []RatioPair{
-		{"styrene", "methyl methacrylate", 0.52, 0.46, "", h("139, 179")},
-		{"styrene", "acrylonitrile", 0.40, 0.04, "", h("60")},
-		{"styrene", "n-butyl acrylate", 0.80, 0.15, "", h("549")},
+		{"styrene", "methyl methacrylate", 0.52, 0.46, noTemperature, h("139, 179")},
+		{"styrene", "acrylonitrile", 0.40, 0.04, noTemperature, h("60")},
+		{"styrene", "n-butyl acrylate", 0.80, 0.15, noTemperature, h("549")},
 		{"styrene", "2-ethylhexyl acrylate", 0.979, 0.292, "bulk, 80 °C", "J. Appl. Polym. Sci. 2004, 92, 3368 (¹H NMR, error-in-variables estimate)"},
-		{"styrene", "methyl acrylate", 0.75, 0.18, "", h("393, 397")},
-		{"styrene", "ethyl acrylate", 0.787, 0.152, "", h("673, 677")},
-		{"styrene", "maleic anhydride", 0.04, 0.02, "", h("483")},
-		{"styrene", "1,3-butadiene", 0.58, 1.35, "", h("418")},
-		{"styrene", "acrylic acid", 0.15, 0.25, "", h("490") + " (listed there as acrylic acid/styrene 0.25/0.15)"},
-		{"methyl methacrylate", "n-butyl acrylate", 1.88, 0.43, "", h("87")},
-		{"methyl methacrylate", "acrylonitrile", 1.322, 0.138, "", h("216")},
-		{"methyl methacrylate", "vinyl acetate", 26, 0.03, "", h("272")},
-		{"vinyl acetate", "vinyl chloride", 0.24, 1.84, "", h("158")},
-		{"acrylonitrile", "vinyl acetate", 4.05, 0.04, "", h("158")},
-		{"acrylonitrile", "n-butyl acrylate", 1.52, 0.75, "", "Jordan, Doughty, Port, J. Appl. Polym. Sci. 1960, 4 (no temperature in the abstract)"},
-		{"acrylamide", "vinyl acetate", 9.28, 0.09, "", "Mukherjee, Chatterjee, Brar, Dutta, Macromolecules 1998, 31, 8455 (Kelen–Tüdős and error-in-variables)"},
+		{"styrene", "methyl acrylate", 0.75, 0.18, noTemperature, h("393, 397")},
+		{"styrene", "ethyl acrylate", 0.787, 0.152, noTemperature, h("673, 677")},
+		{"styrene", "maleic anhydride", 0.04, 0.02, noTemperature, h("483")},
+		{"styrene", "1,3-butadiene", 0.58, 1.35, noTemperature, h("418")},
+		{"styrene", "acrylic acid", 0.15, 0.25, noTemperature, h("490") + " (listed there as acrylic acid/styrene 0.25/0.15)"},
+		{"methyl methacrylate", "n-butyl acrylate", 1.88, 0.43, noTemperature, h("87")},
+		{"methyl methacrylate", "acrylonitrile", 1.322, 0.138, noTemperature, h("216")},
+		{"methyl methacrylate", "vinyl acetate", 26, 0.03, noTemperature, h("272")},
+		{"vinyl acetate", "vinyl chloride", 0.24, 1.84, noTemperature, h("158")},
+		{"acrylonitrile", "vinyl acetate", 4.05, 0.04, noTemperature, h("158")},
+		{"acrylonitrile", "n-butyl acrylate", 1.52, 0.75, "not given in the abstract", "Jordan, Doughty, Port, J. Appl. Polym. Sci. 1960, 4 (no temperature in the abstract)"},
+		{"acrylamide", "vinyl acetate", 9.28, 0.09, "solution, benzoyl peroxide initiator", "Mukherjee, Chatterjee, Brar, Dutta, Macromolecules 1998, 31, 8455 (Kelen–Tüdős and error-in-variables)"},
 	}
 }

@@ -56,3 +56,11 @@ func TestPairsAreValid(t *testing.T) {
 		}
 	}
 }
+
+func TestPairsSayTheirConditions(t *testing.T) {
+	for _, p := range Pairs() {
+		if p.Temperature == "" {
+			t.Errorf("%s/%s: no temperature or conditions, not even that the source gives none", p.Monomer1, p.Monomer2)
+		}
+	}
+}
