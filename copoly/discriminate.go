@@ -171,13 +171,9 @@ func gridStarts2() [][]float64 {
 	return s
 }
 
-// fitLM minimises Σ r(x)² over x ≥ 0 by Levenberg–Marquardt with a forward-difference Jacobian
-// from each start, keeping the best.
-//
-// References:
-//   - D. W. Marquardt, J. Soc. Ind. Appl. Math. 1963, 11, 431.
+// fitLM minimises Σ r(x)² over x ≥ 0 from each start (see levenbergMarquardt; J by forward
+// differences of the residuals r = observed − model) and keeps the best, with JᵀJ at it.
 func fitLM(r func(x, dst []float64) []float64, starts [][]float64) lmResult {
-	best := lmResult{ssr: math.Inf(1)}
 	var buf, buf2 []float64
 	ssr := func(x []float64) float64 {
 		buf = r(x, buf)
@@ -187,7 +183,8 @@ func fitLM(r func(x, dst []float64) []float64, starts [][]float64) lmResult {
 		}
 		return s
 	}
-	jacobian := func(x []float64) ([][]float64, []float64) {
+	// normal returns JᵀJ and Jᵀe with J = ∂model/∂x = −∂r/∂x.
+	normal := func(x []float64) ([][]float64, []float64) {
 		e := append([]float64(nil), r(x, buf)...)
 		J := make([][]float64, len(x))
 		for k := range x {
@@ -197,111 +194,33 @@ func fitLM(r func(x, dst []float64) []float64, starts [][]float64) lmResult {
 			buf2 = r(xh, buf2)
 			J[k] = make([]float64, len(e))
 			for i := range e {
-				J[k][i] = (buf2[i] - e[i]) / h
+				J[k][i] = -(buf2[i] - e[i]) / h
 			}
 		}
-		return J, e
-	}
-	for _, st := range starts {
-		x := append([]float64(nil), st...)
-		s := ssr(x)
-		lambda := 1e-3
-		for range 200 {
-			J, e := jacobian(x)
-			k := len(x)
-			A := make([][]float64, k)
-			g := make([]float64, k)
-			for a := range k {
-				A[a] = make([]float64, k)
-				for b := range k {
-					for i := range e {
-						A[a][b] += J[a][i] * J[b][i]
-					}
-				}
+		A := make([][]float64, len(x))
+		g := make([]float64, len(x))
+		for a := range x {
+			A[a] = make([]float64, len(x))
+			for b := range x {
 				for i := range e {
-					g[a] -= J[a][i] * e[i]
+					A[a][b] += J[a][i] * J[b][i]
 				}
 			}
-			improved := false
-			for range 20 {
-				M := make([][]float64, k)
-				for a := range k {
-					M[a] = append([]float64(nil), A[a]...)
-					M[a][a] *= 1 + lambda
-				}
-				d, ok := solve(M, g)
-				if !ok {
-					lambda *= 10
-					continue
-				}
-				nx := make([]float64, k)
-				for a := range k {
-					nx[a] = math.Min(MaxRatio, math.Max(0, x[a]+d[a]))
-				}
-				if ns := ssr(nx); ns < s {
-					small := s-ns <= 1e-14*s
-					x, s = nx, ns
-					lambda = math.Max(lambda/10, 1e-12)
-					improved = !small
-					break
-				}
-				lambda *= 10
-			}
-			if !improved {
-				break
+			for i := range e {
+				g[a] += J[a][i] * e[i]
 			}
 		}
+		return A, g
+	}
+	best := lmResult{ssr: math.Inf(1)}
+	for _, st := range starts {
+		x, s := levenbergMarquardt(st, ssr, normal)
 		if s < best.ssr {
-			J, _ := jacobian(x)
-			jtj := make([][]float64, len(x))
-			for a := range x {
-				jtj[a] = make([]float64, len(x))
-				for b := range x {
-					for i := range J[a] {
-						jtj[a][b] += J[a][i] * J[b][i]
-					}
-				}
-			}
+			jtj, _ := normal(x)
 			best = lmResult{x: x, ssr: s, jtj: jtj}
 		}
 	}
 	return best
-}
-
-// solve solves the small system M d = g by Gaussian elimination with partial pivoting.
-func solve(M [][]float64, g []float64) ([]float64, bool) {
-	k := len(g)
-	A := make([][]float64, k)
-	for i := range k {
-		A[i] = append(append([]float64(nil), M[i]...), g[i])
-	}
-	for c := range k {
-		p := c
-		for r := c + 1; r < k; r++ {
-			if math.Abs(A[r][c]) > math.Abs(A[p][c]) {
-				p = r
-			}
-		}
-		if A[p][c] == 0 || math.IsNaN(A[p][c]) {
-			return nil, false
-		}
-		A[c], A[p] = A[p], A[c]
-		for r := c + 1; r < k; r++ {
-			f := A[r][c] / A[c][c]
-			for j := c; j <= k; j++ {
-				A[r][j] -= f * A[c][j]
-			}
-		}
-	}
-	d := make([]float64, k)
-	for r := k - 1; r >= 0; r-- {
-		s := A[r][k]
-		for j := r + 1; j < k; j++ {
-			s -= A[r][j] * d[j]
-		}
-		d[r] = s / A[r][r]
-	}
-	return d, true
 }
 
 func modelFit(name string, r lmResult, n int) ModelFit {

@@ -128,46 +128,15 @@ func (p *problem) normal(r1, r2 float64) (a11, a12, a22, g1, g2 float64) {
 	return
 }
 
-// levenbergMarquardt minimises p.ssr from (r1, r2), keeping both ratios in [0, MaxRatio].
-//
-// References:
-//   - D. W. Marquardt, J. Soc. Ind. Appl. Math. 1963, 11, 431.
+// levenbergMarquardt minimises p.ssr from (r1, r2) (see the package function).
 func (p *problem) levenbergMarquardt(r1, r2 float64) (float64, float64, float64) {
-	s := p.ssr(r1, r2)
-	lambda := 1e-3
-	for range 200 {
-		a11, a12, a22, g1, g2 := p.normal(r1, r2)
-		improved := false
-		for range 30 {
-			b11, b22 := a11*(1+lambda), a22*(1+lambda)
-			det := b11*b22 - a12*a12
-			if !(det > 0) {
-				lambda *= 10
-				continue
-			}
-			d1 := (b22*g1 - a12*g2) / det
-			d2 := (b11*g2 - a12*g1) / det
-			n1 := math.Min(MaxRatio, math.Max(0, r1+d1))
-			n2 := math.Min(MaxRatio, math.Max(0, r2+d2))
-			ns := p.ssr(n1, n2)
-			if ns < s {
-				conv := math.Abs(n1-r1) <= 1e-10*math.Max(1e-3, r1) && math.Abs(n2-r2) <= 1e-10*math.Max(1e-3, r2)
-				small := s-ns <= 1e-15*s
-				r1, r2, s = n1, n2, ns
-				lambda = math.Max(lambda/10, 1e-12)
-				improved = true
-				if conv || small {
-					return r1, r2, s
-				}
-				break
-			}
-			lambda *= 10
-		}
-		if !improved {
-			break
-		}
-	}
-	return r1, r2, s
+	x, s := levenbergMarquardt([]float64{r1, r2},
+		func(x []float64) float64 { return p.ssr(x[0], x[1]) },
+		func(x []float64) ([][]float64, []float64) {
+			a11, a12, a22, g1, g2 := p.normal(x[0], x[1])
+			return [][]float64{{a11, a12}, {a12, a22}}, []float64{g1, g2}
+		})
+	return x[0], x[1], s
 }
 
 // minimize finds the global minimum of p.ssr over r1, r2 ≥ 0: a log-spaced grid over 10⁻³ to
