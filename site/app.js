@@ -172,6 +172,11 @@
   // Inputs that make up the project; each recomputes on "input".
   const PROJECT_INPUTS = ["#project-name", "#name1", "#name2", "#mass1", "#mass2", "#r1", "#r2",
     "#ratio-source", "#notes", "#f10", "#conversion", "#tolerance"];
+  // The model of step 4: each ratio with the kind that takes it.
+  const MODEL_RATIOS = [["r11", "penultimate"], ["r21", "penultimate"], ["r22", "penultimate"], ["r12", "penultimate"], ["s1", "implicit"], ["s2", "implicit"]];
+  for (const [k] of MODEL_RATIOS) PROJECT_INPUTS.push("#m-" + k);
+  const MODEL_NAME = { terminal: "terminal model", penultimate: "explicit penultimate model", implicit: "implicit penultimate model" };
+  const TERMINAL_ONLY = "terminal model only";
 
   // FIELD_INPUT maps the API's field names (after dropping "project." and any "[i]") to inputs.
   const FIELD_INPUT = {
@@ -180,8 +185,9 @@
     "monomer2.name": "#name2", "monomer2.molarMass": "#mass2", "molarMass2": "#mass2", "monomer2": "#name2",
     "r1": "#r1", "r2": "#r2", "ratioSource": "#ratio-source", "notes": "#notes",
     "f10": "#f10", "f1": "#f10", "conversion": "#conversion", "tolerance": "#tolerance",
-    "targetF1": "#target-F1",
+    "targetF1": "#target-F1", "model": "#model-kind", "model.kind": "#model-kind",
   };
+  for (const [k] of MODEL_RATIOS) FIELD_INPUT[k] = FIELD_INPUT["model." + k] = "#m-" + k;
 
   function inputForField(field) {
     if (!field) return null;
@@ -197,7 +203,7 @@
   // setFieldError shows message beside input. The field is named by the box the message sits
   // beside, so a leading "project." from the project check is dropped.
   function setFieldError(input, message) {
-    message = message.replace(/^project\./, "");
+    message = message.replace(/^project\./, "").replace(/^model\./, "");
     input.setAttribute("aria-invalid", "true");
     const box = errorBox(input);
     if (box) { box.textContent = message; box.hidden = false; }
@@ -221,6 +227,7 @@
     "#mass1": "molar mass of M1", "#mass2": "molar mass of M2", "#r1": "r1", "#r2": "r2",
     "#f10": "starting feed f1", "#conversion": "final conversion", "#tolerance": "tolerance", "#target-F1": "wanted F1",
   };
+  for (const [k] of MODEL_RATIOS) LABELS["#m-" + k] = k;
 
   // readForm returns {project} or {errors: [{input, message}]} from what is typed now.
   function readForm() {
@@ -254,10 +261,46 @@
       notes: $("#notes").value,
     };
     delete project.savedAt;
+    // The model: the chosen kind's ratios must read; another kind's are kept when they read, or
+    // as saved when their box holds text that does not.
+    const kind = $("#model-kind").value;
+    const model = { kind };
+    for (const [k, kk] of MODEL_RATIOS) {
+      const sel = "#m-" + k, raw = $(sel).value.trim(), v = parseNumber(raw);
+      if (kk === kind) model[k] = num(sel);
+      else if (!Number.isNaN(v)) model[k] = v;
+      else if (raw && base.model && base.model[k] !== undefined) model[k] = base.model[k];
+    }
+    project.model = model;
     // The stored region belongs to the ratios it was fitted with; typed ratios have none.
     if (state.formJcr && state.formJcr.length) project.jcr = state.formJcr;
     else delete project.jcr;
     return errors.length ? { errors } : { project };
+  }
+
+  const modelKind = (p) => (p.model && MODEL_NAME[p.model.kind] ? p.model.kind : "terminal");
+
+  // modelArgs is the ModelArgs of copoly.d.ts for the project's model; the terminal model passes
+  // r1 and r2 alone, as before there were other models.
+  function modelArgs(p) {
+    const m = p.model || {}, kind = modelKind(p);
+    if (kind === "terminal") return { r1: p.r1, r2: p.r2 };
+    const a = { model: kind };
+    if (kind === "implicit") Object.assign(a, { r1: p.r1, r2: p.r2 });
+    for (const [k, kk] of MODEL_RATIOS) if (kk === kind) a[k] = m[k];
+    return a;
+  }
+
+  // showModelFields shows the ratio boxes of the chosen model; a penultimate model chosen with
+  // empty boxes starts from the terminal ratios, which it then reproduces.
+  function showModelFields(prefill) {
+    const kind = $("#model-kind").value;
+    document.querySelectorAll(".model-box [data-kind]").forEach((f) => { f.hidden = f.dataset.kind !== kind; });
+    const start = { r11: "#r1", r21: "#r1", r22: "#r2", r12: "#r2" };
+    for (const [k, kk] of MODEL_RATIOS) {
+      const input = $("#m-" + k);
+      if (prefill && kk === kind && !input.value.trim()) input.value = kk === "implicit" ? "1" : $(start[k]).value.trim();
+    }
   }
 
   function fillForm(p) {
@@ -273,6 +316,11 @@
     $("#f10").value = shortNum(p.f10);
     $("#conversion").value = shortNum(p.conversion);
     $("#tolerance").value = shortNum(p.tolerance);
+    const m = p.model || {};
+    $("#model-kind").value = MODEL_NAME[m.kind] ? m.kind : "terminal";
+    for (const [k] of MODEL_RATIOS) $("#m-" + k).value = Number.isFinite(m[k]) ? shortNum(m[k]) : "";
+    showModelFields();
+    clearFieldError($("#model-kind"));
     for (const sel of PROJECT_INPUTS) clearFieldError($(sel));
     state.formJcr = Array.isArray(p.jcr) && p.jcr.length ? p.jcr : null;
     $("#fit-level").value = shortNum(p.level > 0 ? p.level : DEFAULT_LEVEL);
@@ -387,6 +435,7 @@
     dropBenchUndo();
     loadBench();
     loadPlanPanel(p);
+    loadExtra(p);
   }
 
   // ---- Drawing ------------------------------------------------------------------------------
@@ -395,6 +444,7 @@
     const fig = document.getElementById(id);
     const area = fig.querySelector(".plot-area");
     area.replaceChildren(svg);
+    fig.querySelector("figcaption").hidden = false;
     const actions = fig.querySelector(".plot-actions");
     const base = `${slug(state.project ? state.project.name : "")}-${name}`;
     actions.replaceChildren(
@@ -419,7 +469,7 @@
   function drawAll(p) {
     const errors = [];
     const fail = (r) => errors.push({ input: inputForField(r.field), message: r.error });
-    const ratios = { r1: p.r1, r2: p.r2 };
+    const ratios = modelArgs(p);
 
     const comp = call("composition", { ...ratios, f1: linspace(0, 1, COMPOSITION_POINTS) });
     const X = linspace(0, p.conversion, DRIFT_POINTS);
@@ -439,6 +489,13 @@
     if (p.conversion > 0) seqArgs.conversion = p.conversion;
     const seq = call("sequence", seqArgs);
     const chains = call("chains", { ...ratios, f10: p.f10, count: CHAIN_COUNT, length: CHAIN_LENGTH, seed: state.seed });
+    const kind = modelKind(p);
+    document.querySelectorAll(".model-note").forEach((n) => {
+      n.hidden = kind === "terminal";
+      n.textContent = n.hidden ? "" : `With the ${MODEL_NAME[kind]} of step 4: ${MODEL_RATIOS.filter((r) => r[1] === kind).map(([k]) => `${k} = ${shortNum(ratios[k])}`).join(", ")}${kind === "implicit" ? `, r1 = ${shortNum(p.r1)}, r2 = ${shortNum(p.r2)}` : ""}.`;
+    });
+    setText("#seq-caption", `Sequence statistics (${MODEL_NAME[kind]})`);
+    setText("#fig-chains-caption", `Sample chains drawn at random with the ${MODEL_NAME[kind]} at the starting feed; a picture of typical sequences, not of a real sample.`);
 
     if (isError(comp)) fail(comp); else drawComposition(p, comp, drift);
     if (drift) drawDrift(p, drift);
@@ -452,15 +509,16 @@
 
   function drawComposition(p, comp, drift) {
     const f1 = linspace(0, 1, COMPOSITION_POINTS);
-    setText("#out-azeotrope", comp.azeotrope === null || comp.azeotrope === undefined ? "none" : fix(comp.azeotrope, 3));
-    setText("#out-product", sig3(comp.classification.product));
-    setText("#out-class", comp.classification.text);
+    const cl = comp.classification;
+    setText("#out-azeotrope", !cl ? TERMINAL_ONLY : comp.azeotrope === null || comp.azeotrope === undefined ? "none" : fix(comp.azeotrope, 3));
+    setText("#out-product", cl ? sig3(cl.product) : TERMINAL_ONLY);
+    setText("#out-class", cl ? cl.text : "The crossings of the curve with the diagonal are the azeotropes of this model.");
     const layers = [
-      { type: "line", x: [0, 1], y: [0, 1], color: C.diag, width: 1.5, dash: "5 5" },
-      { type: "line", x: f1, y: comp.F1, color: C.inst, width: 3 },
+      { type: "line", x: [0, 1], y: [0, 1], color: C.diag, width: 1.5, dash: "5 5", role: "diagonal" },
+      { type: "line", x: f1, y: comp.F1, color: C.inst, width: 3, role: "F1" },
     ];
     const legend = [
-      { label: "F1 (Mayo–Lewis)", color: C.inst },
+      { label: cl ? "F1 (Mayo–Lewis)" : `F1 (${MODEL_NAME[modelKind(p)]})`, color: C.inst },
       { label: "F1 = f1", color: C.diag, dash: "5 5", width: 1.5 },
     ];
     if (drift) {
@@ -488,6 +546,10 @@
     clearFieldError(input);
     const raw = input.value;
     const target = parseNumber(raw);
+    if (modelKind(p) !== "terminal") {
+      setText("#out-feed", `Feed for a target: ${TERMINAL_ONLY}.`);
+      return setText("#out-feed-note", "Choose the terminal model in step 4 to work out the feed from r1 and r2.");
+    }
     if (raw.trim() === "" || Number.isNaN(target)) {
       setFieldError(input, raw.trim() === "" ? "Enter the wanted F1." : `wanted F1 = “${raw.trim()}” is not a number.`);
       return;
@@ -513,11 +575,11 @@
   };
 
   function drawDrift(p, d) {
-    const lim = d.limit.conversion;
+    const lim = d.limit ? d.limit.conversion : 2;
     const final = d.conversion[d.conversion.length - 1];
-    setText("#out-limit", pct(lim));
+    setText("#out-limit", d.limit ? pct(lim) : TERMINAL_ONLY);
     const F10 = d.F1[0];
-    setText("#out-limit-note", lim >= 1
+    setText("#out-limit-note", !d.limit ? "" : lim >= 1
       ? `F1cum stays within ${fix(F10, 3)} ± ${shortNum(d.limit.tolerance)} all the way to full conversion.`
       : `F1cum stays within ${fix(F10, 3)} ± ${shortNum(d.limit.tolerance)} up to X = ${fix(lim, 3)}.` +
         (lim > final ? " That is beyond the final conversion chosen." : ""));
@@ -539,7 +601,7 @@
       ex.textContent = "";
     }
 
-    const tol = d.limit.tolerance;
+    const tol = d.limit ? d.limit.tolerance : p.tolerance;
     const layers = [
       { type: "band", y0: F10 - tol, y1: F10 + tol, color: C.band, opacity: 0.25 },
       { type: "line", x: d.conversion, y: d.f1, color: C.feed, width: 2.2, dash: "7 4" },
@@ -570,6 +632,7 @@
     mountFigure("fig-drift", svg, "drift", rows);
 
     const h = d.distribution;
+    if (!h) return figNote("fig-distribution", `Composition distribution: ${TERMINAL_ONLY}.`);
     const n = h.weights.length;
     const lo = h.edges[0], hi = h.edges[n];
     const basis = h.basis === "mass" ? "mass" : "moles";
@@ -611,7 +674,7 @@
   function drawSequence(p, s) {
     const batch = s.batch || null;
     setText("#seq-col-feed", `At feed f1 = ${fix(p.f10, 3)}`);
-    setText("#seq-col-batch", batch ? `Batch to X = ${fix(batch.conversion, 3)}` : "Batch");
+    setText("#seq-col-batch", batch ? `Batch to X = ${fix(batch.conversion, 3)}` : `Batch: ${TERMINAL_ONLY}`);
     const body = document.createElement("tbody");
     const csv = [["statistic", `at feed f1 = ${p.f10}`, batch ? `batch average to X = ${batch.conversion}` : "batch average"]];
     for (const [key, label, get] of SEQ_ROWS) {
@@ -634,8 +697,10 @@
       const batchVal = batch ? get(batch) : NaN;
       for (const [v, col] of [[feedVal, "feed"], [batchVal, "batch"]]) {
         const td = document.createElement("td");
-        td.dataset.stat = key;
-        td.dataset.col = col;
+        if (col === "feed" || batch) {
+          td.dataset.stat = key;
+          td.dataset.col = col;
+        }
         td.textContent = fix(v, 4);
         tr.append(td);
       }
@@ -647,6 +712,7 @@
     $("#seq-actions").replaceChildren(button("Save table (CSV)", () => Plot.saveCSV(csv, base + ".csv")));
 
     const rl = s.runLengths;
+    if (!rl) return figNote("fig-runs", `Run-length distributions: ${TERMINAL_ONLY}.`);
     const w = 0.38;
     const top = Math.max(...rl.number1, ...rl.number2, 1e-9);
     const svg = Plot.chart({
@@ -666,6 +732,17 @@
     const rows = [["run length", "M1 number fraction", "M1 weight fraction", "M2 number fraction", "M2 weight fraction"],
       ...rl.length.map((n, i) => [n, rl.number1[i], rl.weight1[i], rl.number2[i], rl.weight2[i]])];
     mountFigure("fig-runs", svg, "run-lengths", rows);
+  }
+
+  // figNote puts a note in place of a figure's chart.
+  function figNote(id, text) {
+    const fig = document.getElementById(id);
+    const note = document.createElement("p");
+    note.className = "hint";
+    note.textContent = text;
+    fig.querySelector(".plot-area").replaceChildren(note);
+    fig.querySelector(".plot-actions").replaceChildren();
+    fig.querySelector("figcaption").hidden = true;
   }
 
   function drawChains(p, c) {
@@ -1631,6 +1708,10 @@
   function afterProjectChange(p) {
     drawJcrNote(p);
     if (planUI.started) planProjectChanged(p);
+    if (extra.started) {
+      sizeEdited();
+      if (extra.sim && extra.simKey !== simKey(p)) setText("#sim-status", "The model or the starting feed has changed since these chains were grown: press Simulate to grow them again.");
+    }
     if (!bench.started) return;
     drawScreening(p);
     const masses = p.monomer1.molarMass > 0 && p.monomer2.molarMass > 0 ? `${p.monomer1.molarMass}/${p.monomer2.molarMass}` : "0/0";
@@ -2006,15 +2087,8 @@
     for (let i = 0; i < lines.length; i++) {
       const line = lines[i].trim();
       if (!line) continue;
-      let cells = line.split(/\t|;/);
-      if (cells.length < 2) cells = line.split(/\s+/);
-      if (cells.length < 2) cells = line.split(",");
-      cells = cells.map((c) => c.trim()).filter(Boolean);
-      const read = (c) => {
-        const m = /^(.*?)\s*%$/.exec(c);
-        return m ? parseNumber(m[1]) / 100 : parseNumber(c);
-      };
-      const v = cells.map(read);
+      const cells = splitCells(line).filter(Boolean);
+      const v = cells.map(numberOrPercent);
       if (!rows.length && v.some(Number.isNaN)) continue; // a header line
       if (cells.length !== 2) return { error: `line ${i + 1}: give two columns, time in min and conversion; found ${cells.length}.` };
       const k = v.findIndex(Number.isNaN);
@@ -2496,6 +2570,540 @@
     planProjectChanged(p);
   }
 
+  // ---- Triads, simulated chains and chain size (steps 9 and 10) --------------------------------
+  //
+  // The grids keep every cell as typed, in this tab. project.triads and project.sizeBins hold
+  // their numbers and are saved only when every row that is not blank reads, so a cell being
+  // corrected never costs the last good copy. Chromatogram slices and the simulation's inputs
+  // stay in the tab.
+
+  const DISC_DELAY_MS = 250;
+  const SUM_TOLERANCE = 0.01; // a triad family summing to 1 ± 0.01 (common practice, no source)
+  const TRIAD_COLS = [["f10", "f10", "feed"], ["F1", "F1", "copolymer, optional"], ["A111", "A111"], ["A112", "A112+211"],
+    ["A212", "A212"], ["A222", "A222"], ["A221", "A221+122"], ["A121", "A121"]];
+  const FAMILIES = [[["A111", "111"], ["A112", "112"], ["A212", "212"]], [["A222", "222"], ["A221", "221"], ["A121", "121"]]];
+  const extra = {
+    started: false, disc: null, discTimer: 0, sim: null, simKey: "",
+    triads: { id: "triad-table", cols: TRIAD_COLS, rows: [], max: 1000, edited: () => triadsEdited() },
+    bins: { id: "size-table", cols: [["low", "Low", "g/mol"], ["high", "High", "g/mol"], ["fraction", "Fraction", ""]], rows: [], max: 10000, edited: () => sizeEdited() },
+    slices: { id: "size-table", cols: [["mass", "Molar mass", "g/mol"], ["signal", "Signal", "above baseline"]], rows: [], max: 10000, edited: () => sizeEdited() },
+  };
+
+  // numberOrPercent reads a cell: a number with a decimal comma or point, or a percentage.
+  function numberOrPercent(text) {
+    const m = /^(.*?)\s*%$/.exec(text);
+    return m ? parseNumber(m[1]) / 100 : parseNumber(text);
+  }
+
+  // splitCells splits a pasted line at tabs or semicolons, else at spaces, else at commas.
+  function splitCells(line) {
+    let cells = line.split(/\t|;/);
+    if (cells.length < 2) cells = line.trim().split(/\s+/);
+    if (cells.length < 2) cells = line.split(",");
+    return cells.map((c) => c.trim());
+  }
+
+  // drawGrid draws grid g ({id, cols: [[key, heading, unit]], rows: [{key: text}], edited}): a
+  // row number, a text box per column and a delete button per row, and a line for its message.
+  function drawGrid(g) {
+    const th = (text, unit) => {
+      const e = document.createElement("th");
+      e.scope = "col";
+      e.append(text);
+      if (unit) {
+        const u = document.createElement("span");
+        u.className = "col-unit";
+        u.textContent = unit;
+        e.append(u);
+      }
+      return e;
+    };
+    const head = document.createElement("tr");
+    head.append(th("Row"), ...g.cols.map(([, h, u]) => th(h, u)), th(""));
+    const body = document.createElement("tbody");
+    const width = g.cols.length + 2;
+    if (!g.rows.length) {
+      const td = document.createElement("td");
+      td.colSpan = width;
+      td.className = "empty-grid";
+      td.textContent = "No rows yet. Add a row, or paste rows from a spreadsheet below.";
+      body.append(document.createElement("tr"));
+      body.firstChild.append(td);
+    }
+    g.rows.forEach((row, i) => {
+      const tr = document.createElement("tr");
+      tr.dataset.row = String(i);
+      const num = document.createElement("th");
+      num.scope = "row";
+      num.className = "row-num";
+      num.textContent = String(i + 1);
+      tr.append(num);
+      for (const [key, h] of g.cols) {
+        const td = document.createElement("td");
+        const input = document.createElement("input");
+        Object.assign(input, { type: "text", id: `${g.id}-r${i}-${key}`, value: row[key] || "", maxLength: CELL_MAX,
+          autocomplete: "off", spellcheck: false, inputMode: "decimal", className: "cell" });
+        input.setAttribute("aria-label", `row ${i + 1}, ${h}`);
+        input.addEventListener("input", () => { row[key] = input.value; g.edited(); });
+        td.append(input);
+        tr.append(td);
+      }
+      const td = document.createElement("td");
+      const del = button("Delete", () => gridRemove(g, i));
+      del.className = "row-delete";
+      del.setAttribute("aria-label", `Delete row ${i + 1}`);
+      td.append(del);
+      const msgRow = document.createElement("tr");
+      msgRow.className = "row-msg";
+      msgRow.hidden = true;
+      const msg = document.createElement("td");
+      msg.colSpan = width;
+      msg.id = `${g.id}-msg-${i}`;
+      msgRow.append(msg);
+      tr.append(td);
+      body.append(tr, msgRow);
+    });
+    const table = document.getElementById(g.id);
+    table.querySelector("thead").replaceChildren(head);
+    table.querySelector("tbody").replaceWith(body);
+  }
+
+  // gridRemove deletes row i, or every row (i < 0), keeping them for "Bring them back".
+  function gridRemove(g, i) {
+    if (!g.rows.length) return;
+    g.undo = g.rows.map((r) => ({ ...r }));
+    if (i < 0) g.rows = []; else g.rows.splice(i, 1);
+    $(`#${g.id === "triad-table" ? "triad" : "size"}-undo`).hidden = false;
+    drawGrid(g);
+    g.edited();
+  }
+
+  function gridUndo(g, which) {
+    $(`#${which}-undo`).hidden = true;
+    if (!g.undo) return;
+    g.rows = g.undo;
+    g.undo = null;
+    drawGrid(g);
+    g.edited();
+  }
+
+  // readGrid reads the numbers of grid g; rows with every cell blank are skipped, need lists the
+  // cells a row must have. It returns the rows read (a blank cell absent), the grid row of each
+  // (at) and, by grid row, the message of a row that cannot be used ({text, key, pending}).
+  function readGrid(g, need) {
+    const out = { rows: [], at: [], msgs: [] };
+    g.rows.forEach((row, i) => {
+      if (g.cols.every(([k]) => !(row[k] || "").trim())) return;
+      const v = {};
+      for (const [k, h] of g.cols) {
+        const raw = (row[k] || "").trim();
+        const x = numberOrPercent(raw);
+        if (raw === "") {
+          if (need.includes(k) && !out.msgs[i]) out.msgs[i] = { text: `Not used yet: fill in ${h}.`, key: k, pending: true };
+        } else if (Number.isNaN(x)) {
+          out.msgs[i] = { text: `Row ${i + 1}: ${h} = “${raw}” is not a number.`, key: k };
+          break;
+        } else v[k] = x;
+      }
+      if (!out.msgs[i]) { out.rows.push(v); out.at.push(i); }
+    });
+    return out;
+  }
+
+  // rowError puts an error of the module about "…[j].key" beside grid row read.at[j]; it returns
+  // false when the error names no row.
+  function rowError(read, err, keyOf) {
+    const m = /\[(\d+)\]\.(\w+)/.exec(err.field || "");
+    const i = m ? read.at[Number(m[1])] : undefined;
+    if (i === undefined) return false;
+    read.msgs[i] = { text: `Row ${i + 1}: ${sentence(err.error.replace(/^[\w.]*\[\d+\]\.\w+\s*/, m[2] + " "))}`, key: keyOf ? keyOf(m[2]) : m[2] };
+    return true;
+  }
+
+  // gridMarks shows each row's message under it and marks the cell at fault.
+  function gridMarks(g, msgs) {
+    g.rows.forEach((row, i) => {
+      const tr = document.querySelector(`#${g.id} tr[data-row="${i}"]`);
+      const cell = document.getElementById(`${g.id}-msg-${i}`);
+      if (!tr || !cell) return;
+      tr.querySelectorAll("input").forEach((inp) => { inp.removeAttribute("aria-invalid"); inp.removeAttribute("aria-describedby"); });
+      const m = msgs[i];
+      const kind = m ? (m.pending ? "pending" : "bad") : "";
+      tr.className = kind ? "row-" + kind : "";
+      cell.parentElement.className = "row-msg " + kind;
+      cell.textContent = m ? m.text : "";
+      cell.parentElement.hidden = !m;
+      const input = m && document.getElementById(`${g.id}-r${i}-${m.key}`);
+      if (input) {
+        input.setAttribute("aria-invalid", "true");
+        input.setAttribute("aria-describedby", cell.id);
+      }
+    });
+  }
+
+  // saveList stores list as the project's key after the project check; it returns the check's
+  // error, or null.
+  function saveList(key, list) {
+    const p = state.project;
+    if (JSON.stringify(list) === JSON.stringify(p[key] || [])) return null;
+    const next = { ...p, [key]: list };
+    if (!list.length) delete next[key];
+    const checked = call("checkProject", { project: next });
+    if (isError(checked)) return checked;
+    if (list.length) p[key] = checked.project[key]; else delete p[key];
+    scheduleSave();
+    return null;
+  }
+
+  // pasteInto adds the rows of a pasted block to grid g: columns in the grid's order, or named by
+  // a header line (headerKey maps a heading to a key). Nothing is added when a cell cannot be read.
+  function pasteInto(g, area, headerKey) {
+    clearFieldError(area);
+    const fail = (msg) => setFieldError(area, capital(sentence(msg)) + " Nothing was added.");
+    if (!area.value.trim()) return setFieldError(area, "Paste the cells from your spreadsheet into the box first.");
+    let order = g.cols.map((c) => c[0]);
+    const rows = [];
+    const lines = area.value.split(/\r\n|\r|\n/);
+    for (let n = 0; n < lines.length; n++) {
+      if (!lines[n].trim()) continue;
+      const cells = splitCells(lines[n]).map((c) => (/^[-–]$/.test(c) ? "" : c));
+      const bad = cells.findIndex((c) => c && Number.isNaN(numberOrPercent(c)));
+      if (bad >= 0 && !rows.length && cells.every((c) => !c || Number.isNaN(numberOrPercent(c)))) {
+        const named = cells.map((c) => (headerKey ? headerKey(c) : undefined));
+        if (named.some(Boolean)) order = named;
+        continue;
+      }
+      if (bad >= 0) return fail(`line ${n + 1}: “${cells[bad]}” is not a number`);
+      if (cells.length > order.length && cells.slice(order.length).some(Boolean)) return fail(`line ${n + 1} has ${cells.length} columns; the table takes ${order.length}`);
+      const row = {};
+      cells.forEach((c, k) => { if (order[k] && c) row[order[k]] = c; });
+      rows.push(row);
+    }
+    if (!rows.length) return fail("no rows of numbers were found");
+    if (g.rows.length + rows.length > g.max) return fail(`the table holds at most ${g.max} rows`);
+    g.rows.push(...rows);
+    area.value = "";
+    drawGrid(g);
+    g.edited();
+  }
+
+  // triadHeader maps a heading such as "f10", "F1", "A112" or "211" to a column of the triads.
+  function triadHeader(c) {
+    const t = c.replace(/\s/g, "");
+    if (/^f(10?)?$/.test(t)) return "f10";
+    if (/^F1?$/.test(t)) return "F1";
+    const m = /^A?(\d{3})/i.exec(t);
+    const k = m && "A" + ({ 211: "112", 122: "221" }[m[1]] || m[1]);
+    return k && TRIAD_COLS.some((col) => col[0] === k) ? k : undefined;
+  }
+
+  // triadsEdited reads the triads grid, saves it when every row reads, checks the family sums
+  // and schedules the comparison of the models.
+  function triadsEdited() {
+    if (!state.project) return;
+    const g = extra.triads;
+    const read = readGrid(g, ["f10"]);
+    const blocked = read.msgs.some(Boolean);
+    const err = blocked ? null : saveList("triads", read.rows);
+    const unsaved = err && !rowError(read, err) ? ` Not saved: ${sentence(err.error)}` : "";
+    read.rows.forEach((v, j) => {
+      const i = read.at[j];
+      for (const fam of FAMILIES) {
+        const keys = fam.map((f) => f[0]);
+        const sum = keys.reduce((a, k) => a + v[k], 0);
+        if (!read.msgs[i] && Math.abs(sum - 1) > SUM_TOLERANCE) {
+          read.msgs[i] = { text: `Row ${i + 1}: ${keys.join(" + ")} = ${fix(sum, 3)}; each family sums to 1 (within ${SUM_TOLERANCE}).`, key: keys[0] };
+        }
+      }
+    });
+    gridMarks(g, read.msgs);
+    const bad = read.msgs.some(Boolean);
+    setText("#triad-status", (!g.rows.length ? "The table is empty." : `${read.at.filter((i) => !read.msgs[i]).length} of ${g.rows.length} rows usable.` +
+      (blocked || err ? " The table is not saved until the marked rows are corrected or completed." : bad ? " Correct the marked rows to compare the models." : "")) + unsaved);
+    clearTimeout(extra.discTimer);
+    if (bad) return setText("#disc-status", extra.disc ? "Comparison not updated: correct the marked rows." : "");
+    extra.discTimer = setTimeout(() => runDisc(read), DISC_DELAY_MS);
+  }
+
+  // runDisc fits both models to the rows read and shows the comparison.
+  function runDisc(read) {
+    if (!read.rows.length) {
+      extra.disc = null;
+      $("#disc-results").hidden = true;
+      return setText("#disc-status", "Enter measured triads to compare the terminal and the penultimate model.");
+    }
+    const d = call("discriminate", { runs: read.rows });
+    if (isError(d)) {
+      if (rowError(read, d)) gridMarks(extra.triads, read.msgs);
+      return setText("#disc-status", `${extra.disc ? "Comparison not updated" : "No comparison yet"}: ${sentence(read.msgs.some(Boolean) ? "correct the marked row" : d.error.replace(/^runs:\s*/, ""))}`);
+    }
+    extra.disc = d;
+    drawDisc(d, read);
+  }
+
+  function drawDisc(d, read) {
+    $("#disc-results").hidden = false;
+    setText("#disc-status", d.verdict);
+    const names = { terminal: ["r1", "r2"], penultimate: ["r11", "r21", "r22", "r12"] };
+    const body = document.createElement("tbody");
+    for (const m of [d.terminal, d.penultimate]) {
+      const tr = document.createElement("tr");
+      tr.dataset.model = m.model;
+      const cells = [MODEL_NAME[m.model], names[m.model].map((k, i) => `${k} = ${rat(m.params[i])} ± ${se(m.se[i])}`).join(", "),
+        sig3(m.ssr), `${m.n}, ${m.k} ratios`, fix(m.aicc, 1)];
+      cells.forEach((text, i) => {
+        const c = document.createElement(i ? "td" : "th");
+        c.textContent = text;
+        tr.append(c);
+      });
+      body.append(tr);
+    }
+    $("#disc-table tbody").replaceWith(body);
+    const dof = d.terminal.n - 4;
+    setText("#disc-test", `Extra-sum-of-squares F-test: F = ${sig3(d.F)} on 2 and ${dof} degrees of freedom, p = ${sig3(d.pValue)} (below 0.05 favours the penultimate model). ` +
+      `AICc is lower for the ${d.deltaAIC > 0 ? "penultimate" : "terminal"} model by ${fix(Math.abs(d.deltaAIC), 1)} (a difference above 2 counts).`);
+    const pp = d.penultimate.params;
+    $("#disc-use").textContent = `Use the penultimate ratios in step 4 (${names.penultimate.map((k, i) => `${k} = ${rat(pp[i])}`).join(", ")})`;
+
+    // Curves of each fitted model over the feed, from copoly.sequence.
+    const f = linspace(0.01, 0.99, 50);
+    const tp = d.terminal.params;
+    const curve = (args) => f.map((x) => { const s = call("sequence", { ...args, f1: x, maxLength: 1 }); return isError(s) ? null : s.triads; });
+    const ct = curve({ r1: tp[0], r2: tp[1] });
+    const cp = curve({ model: "penultimate", r11: pp[0], r21: pp[1], r22: pp[2], r12: pp[3] });
+    const colors = [C.m1, C.cum, C.limit], shapes = ["circle", "square", "diamond"];
+    FAMILIES.forEach((fam, k) => {
+      const layers = [], legend = [], csv = [["f1", ...fam.flatMap(([, t]) => [`${t} terminal`, `${t} penultimate`])]];
+      fam.forEach(([key, t], i) => {
+        for (const [c, dash] of [[ct, "7 4"], [cp, null]]) layers.push({ type: "line", x: f, y: c.map((s) => (s ? s[t] : NaN)), color: colors[i], width: 2, dash });
+        const rows = read.rows.filter((r) => r[key] !== undefined);
+        layers.push({ type: "points", x: rows.map((r) => r.f10), y: rows.map((r) => r[key]), color: colors[i], shape: shapes[i] });
+        legend.push({ label: TRIAD_COLS.find((col) => col[0] === key)[1], color: colors[i], kind: "point", shape: shapes[i] });
+      });
+      f.forEach((x, j) => csv.push([x, ...fam.flatMap(([, t]) => [ct[j] ? ct[j][t] : "", cp[j] ? cp[j][t] : ""])]));
+      legend.push({ label: "terminal fit", color: C.feed, dash: "7 4", width: 2 }, { label: "penultimate fit", color: C.feed, width: 2 });
+      mountFigure(`fig-triads${k + 1}`, Plot.chart({
+        title: `Triads centred on M${k + 1}: measured and fitted`, width: 600, height: 420,
+        x: { min: 0, max: 1, label: "f10, mole fraction of M1 in the feed" }, y: { min: 0, max: 1, label: "triad fraction" }, layers, legend,
+      }), `triads-m${k + 1}`, csv);
+    });
+
+    const pred = document.createElement("tbody");
+    read.rows.forEach((r, j) => {
+      for (const [key, h] of TRIAD_COLS.slice(1)) {
+        if (r[key] === undefined) continue;
+        const tr = document.createElement("tr");
+        for (const text of [String(read.at[j] + 1), fix(r.f10, 3), h, fix(r[key], 3), fix(d.predicted.terminal[j][key], 3), fix(d.predicted.penultimate[j][key], 3)]) {
+          const td = document.createElement("td");
+          td.textContent = text;
+          tr.append(td);
+        }
+        pred.append(tr);
+      }
+    });
+    $("#disc-pred tbody").replaceWith(pred);
+  }
+
+  // useDisc puts the fitted penultimate ratios into the model of step 4.
+  function useDisc() {
+    const d = extra.disc;
+    if (!d || !state.project) return;
+    $("#model-kind").value = "penultimate";
+    MODEL_RATIOS.slice(0, 4).forEach(([k], i) => { $("#m-" + k).value = String(Number(d.penultimate.params[i].toPrecision(4))); });
+    showModelFields();
+    recompute();
+    setText("#disc-use-note", state.invalid ? "The ratios are in step 4, but a field of steps 1 to 4 is not valid; correct it to use them."
+      : "Steps 2, 3 and 4 and the simulated chains now use the explicit penultimate model with these ratios.");
+  }
+
+  const simKey = (p) => JSON.stringify([modelArgs(p), p.f10]);
+
+  // runSim grows the chains of the simulation (copoly.chains) with the panel's inputs.
+  function runSim() {
+    const p = state.project;
+    if (!p || engineStopped) return;
+    let bad = false;
+    const get = (sel, label) => {
+      const input = $(sel), raw = input.value.trim(), v = parseNumber(raw);
+      clearFieldError(input);
+      if (Number.isNaN(v)) {
+        setFieldError(input, raw ? `${label} = “${raw}” is not a number.` : `Enter the ${label}.`);
+        bad = true;
+      }
+      return v;
+    };
+    const byDpn = $("#sim-kind").value === "dpn";
+    const a = { ...modelArgs(p), f10: p.f10, count: get("#sim-count", "number of chains"), conversion: get("#sim-conversion", "conversion"), seed: get("#sim-seed", "seed") };
+    a[byDpn ? "dpn" : "length"] = get("#sim-n", byDpn ? "DPn" : "chain length");
+    if ($("#sim-functional").value) a.functional = Number($("#sim-functional").value);
+    const not = extra.sim ? "Not updated" : "No chains yet";
+    if (bad) return setText("#sim-status", `${not}: correct the marked field.`);
+    const c = call("chains", a);
+    if (isError(c)) {
+      const sel = { dpn: "#sim-n", length: "#sim-n", count: "#sim-count", conversion: "#sim-conversion", seed: "#sim-seed" }[c.field];
+      if (sel) setFieldError($(sel), capital(sentence(c.error.replace(/^dpn\b/, "DPn").replace(/^count\b/, "number of chains"))));
+      return setText("#sim-status", `${not}: ${sel ? "correct the marked field." : sentence(c.error) + " See steps 1, 3 and 4."}`);
+    }
+    extra.sim = c;
+    extra.simKey = simKey(p);
+    drawSim(p, c, a);
+  }
+
+  function drawSim(p, c, a) {
+    $("#sim-results").hidden = false;
+    const n = c.compositions.length;
+    setText("#sim-status", `${n} chains, ${c.units} units in all, grown with the ${MODEL_NAME[modelKind(p)]} from f10 = ${fix(p.f10, 3)}` +
+      (a.conversion > 0 ? ` along a batch to X = ${shortNum(a.conversion)}.` : " at a constant feed."));
+    const sv = c.stockmayerVariance;
+    setText("#sim-summary", `Chain composition F1: mean ${fix(c.mean, 4)} over chains, ${fix(c.weightMean, 4)} over units; variance between chains ${sig3(c.variance)} (standard deviation ${fix(Math.sqrt(c.variance), 3)}). ` +
+      (Number.isFinite(sv) ? `Stockmayer's distribution predicts ${sig3(sv)} for chains of these lengths (F1·F2·κ·⟨1/n⟩, terminal model at a constant feed).`
+        : "Stockmayer's variance holds for the terminal model at a constant feed only."));
+
+    const h = c.histogram, nb = h.weights.length, mid = h.edges.slice(0, nb).map((e, i) => (e + h.edges[i + 1]) / 2);
+    const layers = [{ type: "bars", x0: h.edges.slice(0, nb), x1: h.edges.slice(1), y: h.weights, color: C.inst }];
+    const legend = [{ label: "simulated chains", color: C.inst, kind: "box" }];
+    if (c.stockmayer) {
+      layers.push({ type: "line", x: mid, y: c.stockmayer, color: C.cum, width: 2.4 });
+      legend.push({ label: "Stockmayer's distribution", color: C.cum });
+    }
+    const top = Math.max(...h.weights, ...(c.stockmayer || []), 1e-9);
+    // The axis spans the bins that hold anything.
+    const used = h.weights.map((w, i) => w > 0 || (c.stockmayer && c.stockmayer[i] > top * 1e-3));
+    const i0 = Math.max(0, used.indexOf(true) - 1), i1 = Math.min(nb, used.lastIndexOf(true) + 2);
+    mountFigure("fig-sim-hist", Plot.chart({
+      title: `Composition of ${n} chains`, width: 600, height: 380,
+      x: { min: h.edges[i0], max: h.edges[i1] > h.edges[i0] ? h.edges[i1] : h.edges[i0] + 1e-3, label: "F1 of the chain", ticks: 6 },
+      y: { min: 0, max: top * 1.1, label: "fraction of units" }, layers, legend,
+    }), "chain-compositions", [["F1 from", "F1 to", "fraction of units", ...(c.stockmayer ? ["Stockmayer"] : [])],
+      ...h.weights.map((w, i) => [h.edges[i], h.edges[i + 1], w, ...(c.stockmayer ? [c.stockmayer[i]] : [])])]);
+
+    const fc = c.functionalCounts;
+    const name = a.functional === 1 ? m1Name(p) : m2Name(p);
+    if (fc && fc.length) {
+      const k = fc.map((_, i) => i), frac = fc.map((v) => v / n);
+      let sum = 0;
+      const last = Math.max(1, frac.findIndex((v) => (sum += v) >= 0.995));
+      mountFigure("fig-sim-func", Plot.chart({
+        title: `Units of M${a.functional} (${name}) per chain`, width: 600, height: 340,
+        x: { min: -0.6, max: last + 0.6, label: "functional units in the chain", integer: true },
+        y: { min: 0, max: Math.max(...frac, 1e-9) * 1.1, label: "fraction of chains" },
+        layers: [{ type: "bars", x0: k.map((v) => v - 0.4), x1: k.map((v) => v + 0.4), y: frac, color: a.functional === 1 ? C.m1 : C.m2 }],
+      }), "functional-units", [["units", "chains", "fraction"], ...fc.map((v, i) => [i, v, frac[i]])]);
+      setText("#sim-func", `${pct(c.nonFunctional)} of the chains carry no ${name} unit: chains that cannot crosslink.` +
+        (Number.isFinite(c.expectedNonFunctional) ? ` The terminal model gives ${pct(c.expectedNonFunctional)} analytically for these lengths at a constant feed.` : ""));
+    } else {
+      figNote("fig-sim-func", "Choose a functional monomer to count its units per chain.");
+      setText("#sim-func", "");
+    }
+    mountFigure("fig-sim-strips", Plot.strips({
+      title: `The first ${c.samples.length} of ${n} chains`, width: 600, chains: c.samples, colors: [C.m1, C.m2],
+      legend: [{ label: `M1 (${m1Name(p)})`, color: C.m1, kind: "box" }, { label: `M2 (${m2Name(p)})`, color: C.m2, kind: "box" }],
+    }), "simulated-chains", [["chain", "sequence (1 = M1, 2 = M2)"], ...c.samples.map((s, i) => [i + 1, s])]);
+  }
+
+  // sizeGrid shows the table of the chosen form and reads it.
+  function sizeGrid() {
+    const bins = $("#size-kind").value === "bins";
+    extra.size = bins ? extra.bins : extra.slices;
+    $("#size-basis").closest(".field").hidden = !bins;
+    setText("#size-caption", bins ? "Classes of molar mass, each counted at the middle of its range; saved with the project"
+      : "Chromatogram slices: molar mass from the calibration, detector signal proportional to the polymer's mass; these stay in this tab and are not saved with the project");
+    drawGrid(extra.size);
+    sizeEdited();
+  }
+
+  function loadSize(p) {
+    const bins = p.sizeBins || [];
+    const basis = bins.some((b) => b.numberFraction > 0) ? "numberFraction" : "weightFraction";
+    $("#size-basis").value = basis;
+    extra.bins.rows = bins.map((b) => ({ low: String(b.low), high: String(b.high), fraction: String(b[basis] || 0) }));
+    sizeGrid();
+  }
+
+  // grouped prints a molar mass to 4 significant digits with thin spaces between thousands.
+  const grouped = (v) => {
+    const r = Number(v.toPrecision(4));
+    return r >= 1000 ? String(Math.round(r)).replace(/\B(?=(\d{3})+(?!\d))/g, "\u202f") : String(r);
+  };
+
+  // sizeEdited reads the size table, saves the classes and shows the averages (copoly.averages).
+  function sizeEdited() {
+    const p = state.project;
+    if (!p) return;
+    const g = extra.size, bins = g === extra.bins, basis = $("#size-basis").value;
+    const read = readGrid(g, g.cols.map((c) => c[0]));
+    const blocked = read.msgs.some(Boolean);
+    const keyOf = (k) => (/Fraction$/.test(k) ? "fraction" : k);
+    const list = read.rows.map((v) => (bins ? { low: v.low, high: v.high, [basis]: v.fraction } : { mass: v.mass, signal: v.signal }));
+    let err = bins && !blocked ? saveList("sizeBins", list) : null;
+    let r = null;
+    const not = $("#size-out").hidden ? "No averages yet" : "Averages not updated";
+    let status = "";
+    if (blocked) status = `${not}: ${bins ? "the table is not saved until " : ""}the marked rows are corrected or completed.`;
+    else if (!list.length) status = "Enter the distribution to see its averages.";
+    else if (!err) {
+      const a = { [bins ? "bins" : "slices"]: list };
+      const F1 = sizeF1(p);
+      if (Number.isFinite(F1) && p.monomer1.molarMass > 0 && p.monomer2.molarMass > 0) Object.assign(a, { F1, molarMass1: p.monomer1.molarMass, molarMass2: p.monomer2.molarMass });
+      r = call("averages", a);
+      if (isError(r)) { err = r; r = null; } else drawSize(p, r, a);
+    }
+    if (err) status = rowError(read, err, keyOf) ? `${not}: correct the marked row.` : `${not}: ${sentence(err.error)}`;
+    gridMarks(g, read.msgs);
+    setText("#size-status", status);
+  }
+
+  // sizeF1 is the cumulative copolymer of step 3 at its final conversion.
+  function sizeF1(p) {
+    const d = call("drift", { ...modelArgs(p), f10: p.f10, conversion: [0, p.conversion] });
+    return isError(d) ? NaN : d.F1cum[d.F1cum.length - 1];
+  }
+
+  function drawSize(p, r, a) {
+    const rows = [["Mn", "Mn, number average", grouped(r.Mn) + " g/mol"], ["Mw", "Mw, weight average", grouped(r.Mw) + " g/mol"],
+      ["Mz", "Mz", grouped(r.Mz) + " g/mol"], ["D", "Dispersity Đ = Mw/Mn", fix(r.dispersity, 3)]];
+    const s = r.size;
+    if (s) {
+      rows.push(["DPn", "DPn, units per chain (number average)", grouped(s.DPn)], ["DPw", "DPw (weight average)", grouped(s.DPw)],
+        ["units1", `M1 (${m1Name(p)}) units per chain, number average`, grouped(s.units1)],
+        ["units2", `M2 (${m2Name(p)}) units per chain, number average`, grouped(s.units2)]);
+    }
+    $("#size-out").replaceChildren(...rows.map(([key, label, value]) => {
+      const div = document.createElement("div");
+      const dt = document.createElement("dt");
+      dt.textContent = label;
+      const dd = document.createElement("dd");
+      dd.dataset.key = key;
+      dd.textContent = value;
+      div.append(dt, dd);
+      return div;
+    }));
+    $("#size-out").hidden = false;
+    setText("#size-note", s ? `Units per chain with F1 = ${fix(a.F1, 3)}, the cumulative copolymer of step 3 at X = ${shortNum(p.conversion)} (${MODEL_NAME[modelKind(p)]}), and the molar masses of step 1: a mean unit of ${fix(s.unitMass, 2)} g/mol. End groups are neglected.`
+      : "Give both molar masses in step 1 to turn the averages into units per chain.");
+  }
+
+  // loadExtra puts a project's triads and size classes on screen.
+  function loadExtra(p) {
+    if (!extra.started) return;
+    const TK = TRIAD_COLS.map((c) => c[0]);
+    extra.triads.rows = (p.triads || []).map((r) => Object.fromEntries(TK.map((k) => [k, r[k] >= 0 ? String(r[k]) : ""])));
+    extra.triads.undo = extra.bins.undo = null;
+    $("#triad-undo").hidden = $("#size-undo").hidden = true;
+    extra.disc = null;
+    $("#disc-results").hidden = true;
+    drawGrid(extra.triads);
+    triadsEdited();
+    loadSize(p);
+  }
+
+  // startExtra draws steps 9 and 10 the first time, after the first results are on screen.
+  function startExtra() {
+    if (extra.started || !state.project || engineStopped) return;
+    extra.started = true;
+    loadExtra(state.project);
+  }
+
   // ---- Library ------------------------------------------------------------------------------
 
   const sameName = (a, b) => a.trim().toLowerCase() === b.trim().toLowerCase();
@@ -2633,6 +3241,7 @@
     dropBenchUndo();
     loadBench();
     loadPlanPanel(prev);
+    loadExtra(prev);
   }
 
   // ---- Start ----------------------------------------------------------------------------------
@@ -2641,6 +3250,7 @@
     // Ratios typed by hand no longer match the region of a fit: drop it (before recompute runs).
     for (const sel of ["#r1", "#r2"]) $(sel).addEventListener("input", () => { state.formJcr = null; });
     for (const sel of PROJECT_INPUTS) $(sel).addEventListener("input", recompute);
+    $("#model-kind").addEventListener("change", () => { showModelFields(true); recompute(); });
     $("#target-F1").addEventListener("input", () => { if (state.project && !state.invalid) drawFeedFor(state.project); });
     $("#pair-pick").addEventListener("change", pickPair);
     $("#pick1").addEventListener("change", () => pickMonomer(1));
@@ -2682,6 +3292,31 @@
     });
     $("#plan-csv").addEventListener("click", scheduleCSV);
     $("#sf-rate").addEventListener("input", drawStarved);
+    const addGridRow = (g) => {
+      if (!g || !state.project || g.rows.length >= g.max) return;
+      g.rows.push({});
+      drawGrid(g);
+      g.edited();
+      $(`#${g.id}-r${g.rows.length - 1}-${g.cols[0][0]}`).focus();
+    };
+    $("#triad-add").addEventListener("click", () => addGridRow(extra.triads));
+    $("#triad-clear").addEventListener("click", () => gridRemove(extra.triads, -1));
+    $("#triad-undo").addEventListener("click", () => gridUndo(extra.triads, "triad"));
+    $("#triad-paste-add").addEventListener("click", () => pasteInto(extra.triads, $("#triad-paste"), triadHeader));
+    $("#disc-use").addEventListener("click", useDisc);
+    $("#sim-run").addEventListener("click", runSim);
+    $("#sim-kind").addEventListener("change", (e) => {
+      const unit = document.createElement("span");
+      unit.className = "unit";
+      unit.textContent = "units";
+      $("#sim-n-label").replaceChildren(e.target.value === "dpn" ? "DPn " : "Length ", unit);
+    });
+    $("#size-kind").addEventListener("change", sizeGrid);
+    $("#size-basis").addEventListener("change", sizeEdited);
+    $("#size-add").addEventListener("click", () => addGridRow(extra.size));
+    $("#size-clear").addEventListener("click", () => gridRemove(extra.size, -1));
+    $("#size-undo").addEventListener("click", () => gridUndo(extra.size, "size"));
+    $("#size-paste-add").addEventListener("click", () => pasteInto(extra.size, $("#size-paste")));
     $("#sf-k").addEventListener("input", drawStarved);
     $("#um-save").addEventListener("click", saveOwn);
     $("#um-clear").addEventListener("click", () => { clearOwnForm(); setText("#um-status", ""); });
@@ -2748,6 +3383,7 @@
     // Steps 5 to 8 (conversion of the bench grid, the fit, the plan) come after the first results.
     setTimeout(startEstimation, 0);
     setTimeout(startPlanning, 0);
+    setTimeout(startExtra, 0);
   }
 
   start().catch(failStart);

@@ -140,7 +140,7 @@ const Plot = (() => {
   //
   // spec: {title, width, height, x: {min, max, label, ticks, integer}, y: {...},
   //        layers: [...], legend: [...]} where a layer is one of
-  //   {type: "line", x: [], y: [], color, width, dash}
+  //   {type: "line", x: [], y: [], color, width, dash, role}
   //   {type: "bars", x0: [], x1: [], y: [], color}            (rectangles from y = 0)
   //   {type: "band", y0, y1, color, opacity}                 (horizontal band across the plot)
   //   {type: "vline", x, color, dash, text}                  (vertical line with a label at the top)
@@ -235,7 +235,7 @@ const Plot = (() => {
             pen = true;
           }
           data.append(el("path", { d, fill: "none", stroke: layer.color, "stroke-width": layer.width || 2.5,
-            "stroke-dasharray": layer.dash || null, "stroke-linejoin": "round", "stroke-linecap": "round" }));
+            "stroke-dasharray": layer.dash || null, "stroke-linejoin": "round", "stroke-linecap": "round", "data-role": layer.role || null }));
           break;
         }
         case "vline": {

@@ -8,7 +8,11 @@
 // the pair panel, and reloads to see the grid kept as typed. A third plans a semi-batch in the
 // feed-planning panel, checks the schedule, the recipe's mass balance and the safety box, types a
 // bad amount to see it refused, reloads to see the panel's inputs kept, and adds a monomer of its
-// own to see it offered in the pickers. The page must do all this without a
+// own to see it offered in the pickers. A fourth chooses the explicit penultimate model with the
+// terminal ratios and checks that it draws the terminal composition curve and azeotrope, pastes
+// triads made by the terminal model and reads the verdict that they show no penultimate effect,
+// simulates 2000 chains, enters two molar-mass classes to check Mn and Mw, and reloads to see the
+// triads, the classes and the model kept. The page must do all this without a
 // console error, an uncaught exception or any request beyond its own file.
 //
 // The package has only a test. Run it through make, which builds the page first:
