@@ -2767,12 +2767,13 @@
     for (let n = 0; n < lines.length; n++) {
       if (!lines[n].trim()) continue;
       const cells = splitCells(lines[n]).map((c) => (/^[-–]$/.test(c) ? "" : c));
-      const bad = cells.findIndex((c) => c && Number.isNaN(numberOrPercent(c)));
-      if (bad >= 0 && !rows.length && cells.every((c) => !c || Number.isNaN(numberOrPercent(c)))) {
+      if (!rows.length && cells.every((c) => !c || Number.isNaN(numberOrPercent(c)))) {
         const named = cells.map((c) => (headerKey ? headerKey(c) : undefined));
         if (named.some(Boolean)) order = named;
         continue;
       }
+      // Columns a header does not name are left out.
+      const bad = cells.findIndex((c, k) => order[k] && c && Number.isNaN(numberOrPercent(c)));
       if (bad >= 0) return fail(`line ${n + 1}: “${cells[bad]}” is not a number`);
       if (cells.length > order.length && cells.slice(order.length).some(Boolean)) return fail(`line ${n + 1} has ${cells.length} columns; the table takes ${order.length}`);
       const row = {};
