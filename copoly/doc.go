@@ -22,8 +22,23 @@
 //   - Sequences of the chain as a first-order Markov chain: [Terminal.Sequence] (dyads, triads,
 //     run lengths, run number, randomness), averaged over a batch [Terminal.BatchSequence],
 //     run-length distributions [Terminal.RunLengths] and seeded sample chains [Terminal.Chains].
-//   - A built-in list of common monomers and literature reactivity ratios, each with its
-//     source: [Monomers], [Pairs].
+//   - Bench data in the forms measured, converted and checked: [RunInput], [ConvertRuns],
+//     [BenchTable], [ParseTable], [CheckRuns].
+//   - Reactivity ratios from the data: every method at once with [Estimate] — the linear ones
+//     ([FinemanRoss], [InvertedFinemanRoss], [KelenTudos], [ExtendedKelenTudos],
+//     [MayoLewisIntersection]) for comparison, nonlinear least squares on the integrated model
+//     with its joint confidence region ([FitNonlinear]) and error-in-variables ([FitEVM]); where
+//     to run next ([NextRuns]); a Q–e screening estimate ([RatiosFromQE]).
+//   - Feed plans: [MakePlan] (batch, semi-batch at constant composition, shots, with time, pump
+//     rates and safety figures), their spread over the confidence region ([PlanBand]) and the
+//     inventory of a starved feed ([Terminal.StarvedFeed]).
+//   - Beyond the terminal model: [Penultimate] and [Implicit] for composition, drift
+//     ([DriftOf]) and sequences; [Discriminate] between the models on measured triads;
+//     Monte Carlo chains ([SimulateChains]) against Stockmayer's distribution
+//     ([Terminal.Stockmayer]); molar-mass averages and chain size ([BinAverages],
+//     [SliceAverages], [SizeOf]).
+//   - A built-in list of common monomers with their process data, and literature reactivity
+//     ratios, each value with its source: [Monomers], [PropertiesOf], [QEOf], [Pairs].
 //
 // # Errors
 //
