@@ -60,3 +60,44 @@ func ExampleTerminal_Drift_badInput() {
 	// r2
 	// r2 = -0.04: a reactivity ratio cannot be negative
 }
+
+// Reactivity ratios from five low-conversion runs of styrene (M1) and methyl methacrylate (M2);
+// the compositions are simulated from the pair 0.52/0.46 and rounded, for the example.
+func ExampleEstimate() {
+	runs := []copoly.Run{
+		{F10: 0.1, F1: 0.171}, {F10: 0.3, F1: 0.371}, {F10: 0.5, F1: 0.51},
+		{F10: 0.7, F1: 0.649}, {F10: 0.9, F1: 0.844},
+	}
+	e, err := copoly.Estimate(runs, 0.95)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	nl := e.Nonlinear
+	fmt.Printf("recommended: %s r1 = %.2f, r2 = %.2f\n", e.Recommended, nl.R1, nl.R2)
+	fmt.Printf("Kelen–Tüdős (linear): r1 = %.2f, r2 = %.2f\n", e.KelenTudos.R1, e.KelenTudos.R2)
+	fmt.Printf("95 %% region: r1 %.3f–%.3f\n", nl.Region.R1Min, nl.Region.R1Max)
+	// Output:
+	// recommended: nonlinear r1 = 0.52, r2 = 0.46
+	// Kelen–Tüdős (linear): r1 = 0.52, r2 = 0.46
+	// 95 % region: r1 0.517–0.523
+}
+
+// A semi-batch plan for 1000 g of a 50/50 styrene/n-butyl acrylate copolymer: charge at the
+// feed that gives the target, then meter styrene in proportion to the polymer formed.
+func ExampleMakePlan() {
+	p, err := copoly.MakePlan(copoly.PlanInput{
+		Model: copoly.Terminal{R1: 0.80, R2: 0.15}, TargetF1: 0.5,
+		MolarMass1: 104.152, MolarMass2: 128.171, PolymerMass: 1000, Mode: copoly.PlanSemibatch,
+	})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	last := p.Schedule[len(p.Schedule)-1]
+	fmt.Printf("charge f1 = %.3f: %.0f g M1, %.0f g M2\n", p.StartF1, p.Charge1, p.Charge2)
+	fmt.Printf("meter %.0f g of M1; product F1 = %.3f\n", last.Fed1, p.ProductF1)
+	// Output:
+	// charge f1 = 0.302: 208 g M1, 592 g M2
+	// meter 254 g of M1; product F1 = 0.500
+}
