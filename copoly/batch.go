@@ -105,7 +105,7 @@ func CompositionDistributionOf(model Model, f10, conversion float64, bins int, m
 	if bins < 1 || bins > MaxBins {
 		return Histogram{}, &InputError{Field: "bins", Value: float64(bins), Reason: fmt.Sprintf("the number of bins must be between 1 and %d", MaxBins), Err: ErrOutOfRange}
 	}
-	h := Histogram{Basis: "moles"}
+	basis := "moles"
 	if molarMass1 != 0 || molarMass2 != 0 {
 		if err := CheckMolarMass("molarMass1", molarMass1); err != nil {
 			return Histogram{}, err
@@ -113,7 +113,7 @@ func CompositionDistributionOf(model Model, f10, conversion float64, bins int, m
 		if err := CheckMolarMass("molarMass2", molarMass2); err != nil {
 			return Histogram{}, err
 		}
-		h.Basis = "mass"
+		basis = "mass"
 	}
 	xs := make([]float64, distributionSteps)
 	dx := conversion / distributionSteps
@@ -123,10 +123,24 @@ func CompositionDistributionOf(model Model, f10, conversion float64, bins int, m
 	feeds := make([]float64, len(xs))
 	b.feedAt(feeds, xs)
 	comp := feeds // reuse: instantaneous composition per slice
-	lo, hi := math.Inf(1), math.Inf(-1)
+	w := make([]float64, len(feeds))
 	for i, f := range feeds {
 		comp[i] = b.inst(f)
-		lo, hi = math.Min(lo, comp[i]), math.Max(hi, comp[i])
+		w[i] = 1
+		if basis == "mass" {
+			w[i] = comp[i]*molarMass1 + (1-comp[i])*molarMass2
+		}
+	}
+	return binned(comp, w, bins, basis), nil
+}
+
+// binned returns the histogram of the values v with weights w over bins equal bins spanning
+// their range, widened to at least 0.01 around them (and kept inside [0, 1]) when they are
+// nearly equal; the weights are normalised to sum 1.
+func binned(v, w []float64, bins int, basis string) Histogram {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, x := range v {
+		lo, hi = math.Min(lo, x), math.Max(hi, x)
 	}
 	if hi-lo < 0.01 {
 		mid := 0.5 * (lo + hi)
@@ -139,26 +153,20 @@ func CompositionDistributionOf(model Model, f10, conversion float64, bins int, m
 			}
 		}
 	}
-	h.Edges = make([]float64, bins+1)
+	h := Histogram{Edges: make([]float64, bins+1), Weights: make([]float64, bins), Basis: basis}
 	for i := range h.Edges {
 		h.Edges[i] = lo + (hi-lo)*float64(i)/float64(bins)
 	}
-	h.Weights = make([]float64, bins)
 	var total float64
-	for _, c := range comp {
-		w := 1.0
-		if h.Basis == "mass" {
-			w = c*molarMass1 + (1-c)*molarMass2
-		}
-		k := int((c - lo) / (hi - lo) * float64(bins))
-		k = min(max(k, 0), bins-1)
-		h.Weights[k] += w
-		total += w
+	for i, x := range v {
+		k := min(max(int((x-lo)/(hi-lo)*float64(bins)), 0), bins-1)
+		h.Weights[k] += w[i]
+		total += w[i]
 	}
 	for i := range h.Weights {
 		h.Weights[i] /= total
 	}
-	return h, nil
+	return h
 }
 
 // MassConversion returns the mass (gravimetric) conversion of a batch from its overall molar

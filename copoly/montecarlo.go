@@ -381,7 +381,5 @@ func (st *ChainStats) Histogram(bins int) (Histogram, error) {
 	for i, n := range st.Lengths {
 		w[i] = float64(n)
 	}
-	h := binned(st.Compositions, w, bins)
-	h.Basis = "units"
-	return h, nil
+	return binned(st.Compositions, w, bins, "units"), nil
 }

@@ -445,21 +445,10 @@ func (in *PlanInput) semibatchPlan(p *Plan) error {
 	}
 	p.ProductF1 = F
 	p.MaxDeviation = math.Abs(in.Model.Instantaneous(fstar) - F)
-	p.Distribution = narrowHistogram(F)
+	p.Distribution = binned([]float64{F}, []float64{1}, 1, "mass") // one composition: no drift
 	p.StopConversion = xEnd
 	return nil
 }
-
-// narrowHistogram is the distribution of a product of one composition (no drift).
-func narrowHistogram(F float64) Histogram {
-	lo := math.Max(0, F-0.005)
-	hi := math.Min(1, lo+0.01)
-	lo = hi - 0.01
-	return Histogram{Edges: []float64{lo, hi}, Weights: []float64{1}, Basis: "mass"}
-}
-
-// shotState is the reactor during a shot plan, in mol.
-type shotState struct{ n1, n2 float64 }
 
 // fasterFeed returns the stream of the faster monomer alone (y = 1 for M1, 0 for M2) and the
 // moles a of it fed per mole of polymer that hold f1* (see [MakePlan]).
@@ -618,34 +607,8 @@ func (in *PlanInput) shotPlan(p *Plan) error {
 			w = append(w, dp)
 		}
 	}
-	p.Distribution = binned(comp, w, 20)
+	p.Distribution = binned(comp, w, 20, "mass")
 	return nil
-}
-
-// binned returns a histogram of values with weights over their range (at least 0.01 wide).
-func binned(v, w []float64, bins int) Histogram {
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for _, x := range v {
-		lo, hi = math.Min(lo, x), math.Max(hi, x)
-	}
-	if hi-lo < 0.01 {
-		mid := 0.5 * (lo + hi)
-		lo, hi = math.Max(0, mid-0.005), math.Min(1, mid+0.005)
-	}
-	h := Histogram{Edges: make([]float64, bins+1), Weights: make([]float64, bins), Basis: "mass"}
-	for i := range h.Edges {
-		h.Edges[i] = lo + (hi-lo)*float64(i)/float64(bins)
-	}
-	var total float64
-	for i, x := range v {
-		k := min(max(int((x-lo)/(hi-lo)*float64(bins)), 0), bins-1)
-		h.Weights[k] += w[i]
-		total += w[i]
-	}
-	for i := range h.Weights {
-		h.Weights[i] /= total
-	}
-	return h
 }
 
 // finish fills what every plan has: the charge in g and mL, totals, the time axis from a table,
