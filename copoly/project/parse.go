@@ -74,18 +74,22 @@ func Parse(data []byte) (Project, error) {
 	}
 
 	// encoding/json fills a short JSON array into a [2]float64 with zeros and drops the extra
-	// elements of a long one; a JCR point must be exactly a pair. (encoding/json also matches
-	// keys regardless of case, hence EqualFold.)
+	// elements of a long one; a JCR point and a row of the plan's time table must be exactly
+	// pairs. (encoding/json also matches keys regardless of case, hence EqualFold.)
 	for key, raw := range head {
-		if !strings.EqualFold(key, "jcr") || isNull(raw) {
+		if strings.EqualFold(key, "jcr") {
+			if err := checkPairs("project.jcr", raw, "[r1, r2]"); err != nil {
+				return Project{}, err
+			}
+		}
+		var plan map[string]json.RawMessage
+		if !strings.EqualFold(key, "plan") || json.Unmarshal(raw, &plan) != nil {
 			continue
 		}
-		var points []json.RawMessage
-		if json.Unmarshal(raw, &points) == nil {
-			for i, pt := range points {
-				var xy []json.RawMessage
-				if json.Unmarshal(pt, &xy) == nil && len(xy) != 2 {
-					return Project{}, &copoly.FieldError{Field: fmt.Sprintf("project.jcr[%d]", i), Reason: fmt.Sprintf("must be a pair [r1, r2], not a list of %d values", len(xy)), Err: ErrWrongType}
+		for k, rows := range plan {
+			if strings.EqualFold(k, "timeTable") {
+				if err := checkPairs("project.plan.timeTable", rows, "[time, conversion]"); err != nil {
+					return Project{}, err
 				}
 			}
 		}
@@ -106,6 +110,9 @@ func Parse(data []byte) (Project, error) {
 	if len(p.JCR) == 0 {
 		p.JCR = nil // "jcr": [] is no region, as Marshal writes it (by leaving the key out)
 	}
+	if p.Plan != nil && len(p.Plan.TimeTable) == 0 {
+		p.Plan.TimeTable = nil // likewise "timeTable": [] is no table
+	}
 	// Likewise "triads": [], "sizeBins": [], "userMonomers": [] and "hazards": [] are none.
 	if len(p.Triads) == 0 {
 		p.Triads = nil
@@ -125,6 +132,25 @@ func Parse(data []byte) (Project, error) {
 		return Project{}, err
 	}
 	return p, nil
+}
+
+// checkPairs reports the first entry of the JSON list raw that is a list of other than two
+// values, naming it field[i]; anything else is left for json.Unmarshal to report.
+func checkPairs(field string, raw json.RawMessage, pair string) error {
+	if isNull(raw) {
+		return nil
+	}
+	var entries []json.RawMessage
+	if json.Unmarshal(raw, &entries) != nil {
+		return nil
+	}
+	for i, e := range entries {
+		var xy []json.RawMessage
+		if json.Unmarshal(e, &xy) == nil && len(xy) != 2 {
+			return &copoly.FieldError{Field: fmt.Sprintf("%s[%d]", field, i), Reason: fmt.Sprintf("must be a pair %s, not a list of %d values", pair, len(xy)), Err: ErrWrongType}
+		}
+	}
+	return nil
 }
 
 // Marshal validates p and returns it as an indented project file ending in a newline, ready to

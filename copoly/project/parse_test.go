@@ -38,7 +38,8 @@ func TestParseRoundTrip(t *testing.T) {
 	emptyPlan.Plan = &Plan{}
 	fullPlan := Demo()
 	fullPlan.Plan = &Plan{Mode: "shots", TargetF1: 0.35, PolymerMass: 12.5, Tolerance: 0.01, StopConversion: 0.4,
-		FinalConversion: 0.9, Feed: "mixture", FeedF1: 0.55, Shots: 9, RateConstant: 0.004, HalfLife: 170,
+		FinalConversion: 0.9, Feed: "mixture", FeedF1: 0.55, Shots: 9, RateLaw: RateTable, RateConstant: 0.004, HalfLife: 170,
+		TimeTable: [][2]float64{{0, 0}, {12.5, 0.05}, {40, 0.3}}, Heat1: 69.9, Heat2: 77.4,
 		BatchMass: 40, HeatCapacity: 1.9, RiseLimit: 20}
 	tests := []struct {
 		name string

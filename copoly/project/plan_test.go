@@ -27,6 +27,20 @@ func TestCheckPlan(t *testing.T) {
 		{name: "mixture", edit: func(pl *Plan) { pl.Feed, pl.FeedF1 = copoly.FeedMixture, 0.7 }},
 		{name: "faster", edit: func(pl *Plan) { pl.Feed = copoly.FeedFaster }},
 		{name: "half-life", edit: func(pl *Plan) { pl.RateConstant, pl.HalfLife = 0, 60 }},
+		{name: "rate law half-life", edit: func(pl *Plan) { pl.RateLaw, pl.HalfLife = RateHalfLife, 60 }},
+		{name: "rate law none", edit: func(pl *Plan) { pl.RateLaw = RateNone }},
+		// A measured table in the form copoly.MakePlan takes; a flat stretch of conversion is allowed.
+		{name: "time table", edit: func(pl *Plan) {
+			pl.RateLaw, pl.TimeTable = RateTable, [][2]float64{{0, 0}, {30, 0.22}, {60, 0.22}, {90, 1}}
+		}},
+		{name: "table at the row limit", edit: func(pl *Plan) {
+			pl.TimeTable = make([][2]float64, copoly.MaxTimeRows)
+			for i := range pl.TimeTable {
+				pl.TimeTable[i] = [2]float64{float64(i), 0.5}
+			}
+		}},
+		// 1000 kJ/mol is copoly.MakePlan's limit on a heat of polymerization.
+		{name: "heats", edit: func(pl *Plan) { pl.Heat1, pl.Heat2 = 69.9, MaxPlanHeat }},
 		// Stored as typed: out of a plan's range, but not negative.
 		{name: "target above one kept", edit: func(pl *Plan) { pl.TargetF1 = 1.5 }},
 
@@ -47,6 +61,24 @@ func TestCheckPlan(t *testing.T) {
 		{name: "batch mass negative", edit: func(pl *Plan) { pl.BatchMass = -2500 }, field: "project.plan.batchMass", err: copoly.ErrOutOfRange},
 		{name: "heat capacity NaN", edit: func(pl *Plan) { pl.HeatCapacity = math.NaN() }, field: "project.plan.heatCapacity", err: copoly.ErrNotFinite},
 		{name: "rise limit negative", edit: func(pl *Plan) { pl.RiseLimit = -50 }, field: "project.plan.riseLimit", err: copoly.ErrOutOfRange},
+		{name: "rate law unknown", edit: func(pl *Plan) { pl.RateLaw = "halflife" }, field: "project.plan.rateLaw", err: ErrNotAllowed},
+		{name: "rate law too long", edit: func(pl *Plan) { pl.RateLaw = strings.Repeat("k", MaxPlanWordLength+1) }, field: "project.plan.rateLaw", err: ErrTooLong},
+		{name: "heat1 negative", edit: func(pl *Plan) { pl.Heat1 = -70 }, field: "project.plan.heat1", err: copoly.ErrOutOfRange},
+		{name: "heat2 NaN", edit: func(pl *Plan) { pl.Heat2 = math.NaN() }, field: "project.plan.heat2", err: copoly.ErrNotFinite},
+		{name: "heat2 above the limit", edit: func(pl *Plan) { pl.Heat2 = MaxPlanHeat + 1 }, field: "project.plan.heat2", err: copoly.ErrOutOfRange},
+		{name: "table too long", edit: func(pl *Plan) {
+			pl.TimeTable = make([][2]float64, copoly.MaxTimeRows+1)
+			for i := range pl.TimeTable {
+				pl.TimeTable[i] = [2]float64{float64(i), 0.5}
+			}
+		}, field: "project.plan.timeTable", err: copoly.ErrTooMany},
+		{name: "table time infinite", edit: func(pl *Plan) { pl.TimeTable = [][2]float64{{0, 0}, {math.Inf(1), 0.5}} }, field: "project.plan.timeTable[1][0]", err: copoly.ErrNotFinite},
+		{name: "table conversion NaN", edit: func(pl *Plan) { pl.TimeTable = [][2]float64{{0, math.NaN()}} }, field: "project.plan.timeTable[0][1]", err: copoly.ErrNotFinite},
+		{name: "table time negative", edit: func(pl *Plan) { pl.TimeTable = [][2]float64{{-5, 0}, {10, 0.1}} }, field: "project.plan.timeTable[0]", err: copoly.ErrOutOfRange},
+		{name: "table conversion above one", edit: func(pl *Plan) { pl.TimeTable = [][2]float64{{0, 0}, {10, 35}} }, field: "project.plan.timeTable[1]", err: copoly.ErrOutOfRange},
+		{name: "table conversion negative", edit: func(pl *Plan) { pl.TimeTable = [][2]float64{{0, -0.1}} }, field: "project.plan.timeTable[0]", err: copoly.ErrOutOfRange},
+		{name: "table time repeated", edit: func(pl *Plan) { pl.TimeTable = [][2]float64{{0, 0}, {30, 0.2}, {60, 0.4}, {60, 0.5}} }, field: "project.plan.timeTable[3]", err: copoly.ErrOutOfRange},
+		{name: "table conversion falls", edit: func(pl *Plan) { pl.TimeTable = [][2]float64{{0, 0}, {30, 0.4}, {60, 0.3}} }, field: "project.plan.timeTable[2]", err: copoly.ErrOutOfRange},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -98,13 +130,15 @@ func TestParsePlan(t *testing.T) {
 	t.Run("keys of the d.ts", func(t *testing.T) {
 		p, err := Parse([]byte(withPlan(`{"mode":"shots","targetF1":0.4,"polymerMass":250,"tolerance":0.01,
 			"stopConversion":0.3,"finalConversion":0.9,"feed":"mixture","feedF1":0.6,"shots":7,
-			"rateConstant":0.02,"halfLife":40,"batchMass":900,"heatCapacity":1.8,"riseLimit":30}`)))
+			"rateLaw":"table","rateConstant":0.02,"halfLife":40,"timeTable":[[0,0],[15,0.1],[45,0.35]],
+			"heat1":70,"heat2":78,"batchMass":900,"heatCapacity":1.8,"riseLimit":30}`)))
 		if err != nil {
 			t.Fatalf("Parse() error %v", err)
 		}
 		// Values as written just above.
 		want := &Plan{Mode: "shots", TargetF1: 0.4, PolymerMass: 250, Tolerance: 0.01, StopConversion: 0.3,
-			FinalConversion: 0.9, Feed: "mixture", FeedF1: 0.6, Shots: 7, RateConstant: 0.02, HalfLife: 40,
+			FinalConversion: 0.9, Feed: "mixture", FeedF1: 0.6, Shots: 7, RateLaw: RateTable, RateConstant: 0.02, HalfLife: 40,
+			TimeTable: [][2]float64{{0, 0}, {15, 0.1}, {45, 0.35}}, Heat1: 70, Heat2: 78,
 			BatchMass: 900, HeatCapacity: 1.8, RiseLimit: 30}
 		if !reflect.DeepEqual(p.Plan, want) {
 			t.Errorf("Parse().Plan = %+v, want %+v", p.Plan, want)
@@ -116,9 +150,15 @@ func TestParsePlan(t *testing.T) {
 			t.Errorf("Parse(plan null) = %+v, %v, want no plan", p.Plan, err)
 		}
 	})
+	t.Run("empty table is none", func(t *testing.T) {
+		p, err := Parse([]byte(withPlan(`{"timeTable":[]}`)))
+		if err != nil || p.Plan == nil || p.Plan.TimeTable != nil {
+			t.Errorf("Parse(plan timeTable []) = %+v, %v, want an empty plan with no table", p.Plan, err)
+		}
+	})
 	t.Run("empty object kept", func(t *testing.T) {
 		p, err := Parse([]byte(withPlan(`{}`)))
-		if err != nil || p.Plan == nil || *p.Plan != (Plan{}) {
+		if err != nil || p.Plan == nil || !reflect.DeepEqual(*p.Plan, Plan{}) {
 			t.Errorf("Parse(plan {}) = %+v, %v, want an empty plan", p.Plan, err)
 		}
 	})
@@ -134,6 +174,12 @@ func TestParsePlan(t *testing.T) {
 		{"shots negative", `{"shots":-1}`, "project.plan.shots", copoly.ErrOutOfRange, "negative"},
 		{"target text", `{"targetF1":"0.5"}`, "project.plan.targetF1", ErrWrongType, "a number"},
 		{"polymer mass negative", `{"polymerMass":-5}`, "project.plan.polymerMass", copoly.ErrOutOfRange, "negative"},
+		{"rate law unknown", `{"rateLaw":"halflife"}`, "project.plan.rateLaw", ErrNotAllowed, `"halflife"`},
+		{"heat text", `{"heat1":"70 kJ/mol"}`, "project.plan.heat1", ErrWrongType, "a number"},
+		{"table not a list", `{"timeTable":{"0":0}}`, "project.plan.timeTable", ErrWrongType, "list"},
+		{"table row short", `{"timeTable":[[0,0],[30]]}`, "project.plan.timeTable[1]", ErrWrongType, "pair [time, conversion]"},
+		{"table row long", `{"timeTable":[[0,0,1]]}`, "project.plan.timeTable[0]", ErrWrongType, "list of 3 values"},
+		{"table conversion falls", `{"timeTable":[[0,0],[30,0.4],[60,0.3]]}`, "project.plan.timeTable[2]", copoly.ErrOutOfRange, "cannot decrease"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			_, err := Parse([]byte(withPlan(c.plan)))
