@@ -1098,20 +1098,24 @@ func userMonomersOut(ms []project.UserMonomer) []userMonomerDTO {
 // is optional (0 or "" = not given, as in project.Plan). Shots is a float64 so that 2.5 can be
 // refused by name instead of being truncated.
 type projectPlanDTO struct {
-	Mode            string  `js:"mode" copoly:"optional"`
-	TargetF1        float64 `js:"targetF1" copoly:"optional"`
-	PolymerMass     float64 `js:"polymerMass" copoly:"optional"`
-	Tolerance       float64 `js:"tolerance" copoly:"optional"`
-	StopConversion  float64 `js:"stopConversion" copoly:"optional"`
-	FinalConversion float64 `js:"finalConversion" copoly:"optional"`
-	Feed            string  `js:"feed" copoly:"optional"`
-	FeedF1          float64 `js:"feedF1" copoly:"optional"`
-	Shots           float64 `js:"shots" copoly:"optional"`
-	RateConstant    float64 `js:"rateConstant" copoly:"optional"`
-	HalfLife        float64 `js:"halfLife" copoly:"optional"`
-	BatchMass       float64 `js:"batchMass" copoly:"optional"`
-	HeatCapacity    float64 `js:"heatCapacity" copoly:"optional"`
-	RiseLimit       float64 `js:"riseLimit" copoly:"optional"`
+	Mode            string      `js:"mode" copoly:"optional"`
+	TargetF1        float64     `js:"targetF1" copoly:"optional"`
+	PolymerMass     float64     `js:"polymerMass" copoly:"optional"`
+	Tolerance       float64     `js:"tolerance" copoly:"optional"`
+	StopConversion  float64     `js:"stopConversion" copoly:"optional"`
+	FinalConversion float64     `js:"finalConversion" copoly:"optional"`
+	Feed            string      `js:"feed" copoly:"optional"`
+	FeedF1          float64     `js:"feedF1" copoly:"optional"`
+	Shots           float64     `js:"shots" copoly:"optional"`
+	RateLaw         string      `js:"rateLaw" copoly:"optional"`
+	RateConstant    float64     `js:"rateConstant" copoly:"optional"`
+	HalfLife        float64     `js:"halfLife" copoly:"optional"`
+	TimeTable       [][]float64 `js:"timeTable" copoly:"optional" limit:"timeTable" pair:"time, conversion"`
+	Heat1           float64     `js:"heat1" copoly:"optional"`
+	Heat2           float64     `js:"heat2" copoly:"optional"`
+	BatchMass       float64     `js:"batchMass" copoly:"optional"`
+	HeatCapacity    float64     `js:"heatCapacity" copoly:"optional"`
+	RiseLimit       float64     `js:"riseLimit" copoly:"optional"`
 }
 
 // plan converts the plan of a Project read from JavaScript and checks it (project.CheckPlan).
@@ -1122,8 +1126,15 @@ func (d projectPlanDTO) plan(field string) (project.Plan, error) {
 	pl := project.Plan{
 		Mode: d.Mode, TargetF1: d.TargetF1, PolymerMass: d.PolymerMass, Tolerance: d.Tolerance,
 		StopConversion: d.StopConversion, FinalConversion: d.FinalConversion, Feed: d.Feed, FeedF1: d.FeedF1,
-		Shots: int(d.Shots), RateConstant: d.RateConstant, HalfLife: d.HalfLife,
+		Shots: int(d.Shots), RateLaw: d.RateLaw, RateConstant: d.RateConstant, HalfLife: d.HalfLife,
+		Heat1: d.Heat1, Heat2: d.Heat2,
 		BatchMass: d.BatchMass, HeatCapacity: d.HeatCapacity, RiseLimit: d.RiseLimit,
+	}
+	if len(d.TimeTable) > 0 { // [] is no table, as in the file
+		pl.TimeTable = make([][2]float64, len(d.TimeTable))
+		for i, row := range d.TimeTable {
+			pl.TimeTable[i] = [2]float64{row[0], row[1]} // decode read each row as a pair
+		}
 	}
 	return pl, project.CheckPlan(field, pl)
 }
@@ -1139,10 +1150,19 @@ func planValue(pl project.Plan) js.Value {
 		{"mode", pl.Mode}, {"targetF1", pl.TargetF1}, {"polymerMass", pl.PolymerMass}, {"tolerance", pl.Tolerance},
 		{"stopConversion", pl.StopConversion}, {"finalConversion", pl.FinalConversion},
 		{"feed", pl.Feed}, {"feedF1", pl.FeedF1}, {"shots", pl.Shots},
-		{"rateConstant", pl.RateConstant}, {"halfLife", pl.HalfLife},
+		{"rateLaw", pl.RateLaw}, {"rateConstant", pl.RateConstant}, {"halfLife", pl.HalfLife},
+		{"timeTable", pl.TimeTable}, {"heat1", pl.Heat1}, {"heat2", pl.Heat2},
 		{"batchMass", pl.BatchMass}, {"heatCapacity", pl.HeatCapacity}, {"riseLimit", pl.RiseLimit},
 	} {
 		switch x := kv.v.(type) {
+		case [][2]float64:
+			if len(x) > 0 {
+				rows := make([][]float64, len(x))
+				for i, row := range x {
+					rows[i] = []float64{row[0], row[1]}
+				}
+				v.Set(kv.key, toJS(rows))
+			}
 		case string:
 			if x != "" {
 				v.Set(kv.key, x)

@@ -633,7 +633,8 @@ func TestProjectWithPlan(t *testing.T) {
 
 	arg := jsEval(`((d) => { const p = structuredClone(d.project);
 		p.plan = {mode: "shots", targetF1: 0.35, polymerMass: 12.5, tolerance: 0.01, stopConversion: 0.4,
-			finalConversion: 0.9, feed: "mixture", feedF1: 0.55, shots: 9, rateConstant: 0.004, halfLife: 170,
+			finalConversion: 0.9, feed: "mixture", feedF1: 0.55, shots: 9, rateLaw: "table", rateConstant: 0.004,
+			halfLife: 170, timeTable: [[0, 0], [12.5, 0.05], [40, 0.3]], heat1: 69.9, heat2: 1000,
 			batchMass: 40, heatCapacity: 1.9, riseLimit: 20};
 		return {project: p}; })`).Invoke(demo)
 	checked := call(api, "checkProject", arg)
@@ -656,7 +657,7 @@ func TestProjectWithPlan(t *testing.T) {
 	}
 
 	// Keys not given (0 or "") are left out, as in the file; no plan stays no plan.
-	r = call(api, "checkProject", edited(arg, `a.project.plan = {mode: "", targetF1: 0.4, shots: 0, feed: ""}`))
+	r = call(api, "checkProject", edited(arg, `a.project.plan = {mode: "", targetF1: 0.4, shots: 0, feed: "", rateLaw: "", timeTable: [], heat1: 0}`))
 	wantNoError(t, r)
 	if got := stringify(r.Get("project").Get("plan")); got != `{"targetF1":0.4}` {
 		t.Errorf("plan with empty keys = %s, want {\"targetF1\":0.4}", got)
@@ -677,6 +678,17 @@ func TestProjectWithPlan(t *testing.T) {
 		{"shots fractional", `a.project.plan.shots = 2.5`, "project.plan.shots", "whole number"},
 		{"shots negative", `a.project.plan.shots = -2`, "project.plan.shots", "negative"},
 		{"rise limit text", `a.project.plan.riseLimit = "50 K"`, "project.plan.riseLimit", "must be a number"},
+		{"rate law unknown", `a.project.plan.rateLaw = "halflife"`, "project.plan.rateLaw", `"halflife"`},
+		{"heat1 negative", `a.project.plan.heat1 = -70`, "project.plan.heat1", "negative"},
+		{"heat2 above 1000", `a.project.plan.heat2 = 1001`, "project.plan.heat2", "at most 1000"},
+		{"table a number", `a.project.plan.timeTable = 5`, "project.plan.timeTable", "list"},
+		{"table row short", `a.project.plan.timeTable[1] = [12.5]`, "project.plan.timeTable[1]", "time, conversion"},
+		{"table time text", `a.project.plan.timeTable[2][0] = "40 min"`, "project.plan.timeTable[2][0]", "must be a number"},
+		{"table time NaN", `a.project.plan.timeTable[0][0] = NaN`, "project.plan.timeTable[0][0]", "finite"},
+		{"table conversion falls", `a.project.plan.timeTable[2][1] = 0.01`, "project.plan.timeTable[2]", "cannot decrease"},
+		{"table times not increasing", `a.project.plan.timeTable[2][0] = 12.5`, "project.plan.timeTable[2]", "must increase"},
+		{"table conversion in percent", `a.project.plan.timeTable[2][1] = 30`, "project.plan.timeTable[2]", "between 0 and 1"},
+		{"table too long", `a.project.plan.timeTable = Array.from({length: 1001}, (_, i) => [i, 0.5])`, "project.plan.timeTable", "1000"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			bad := edited(arg, c.edit)
