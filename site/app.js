@@ -1991,10 +1991,11 @@
     ["#plan-batch-mass", "batchMass", "reactor contents", true],
     ["#plan-cp", "heatCapacity", "heat capacity", true],
     ["#plan-rise-limit", "riseLimit", "limit on the rise", true],
-    ["#plan-heat1", "heat1", "−ΔHp of M1", false],
-    ["#plan-heat2", "heat2", "−ΔHp of M2", false],
+    ["#plan-heat1", "heat1", "−ΔHp of M1", true],
+    ["#plan-heat2", "heat2", "−ΔHp of M2", true],
   ];
   const PLAN_MODES = ["batch", "semibatch", "shots"];
+  const PLAN_RATES = ["none", "k", "half", "table"]; // the options of #plan-rate, saved as project.plan.rateLaw
   const MODE_TEXT = { batch: "batch", semibatch: "semi-batch", shots: "shot additions" };
 
   // planField returns the box named by a field of copoly.plan ("timeTable[3][1]" is the table).
@@ -2038,8 +2039,10 @@
     }
     $("#plan-mode").value = PLAN_MODES.includes(pl.mode) ? pl.mode : "semibatch";
     $("#plan-feed").value = pl.feed === "mixture" ? "mixture" : "faster";
-    $("#plan-rate").value = pl.rateConstant > 0 ? "k" : pl.halfLife > 0 ? "half" : "none";
-    $("#plan-table").value = "";
+    $("#plan-rate").value = PLAN_RATES.includes(pl.rateLaw) ? pl.rateLaw
+      : pl.rateConstant > 0 ? "k" : pl.halfLife > 0 ? "half" : "none";
+    // The typed text of the table is not saved: the saved numbers are written back, tab-separated.
+    $("#plan-table").value = Array.isArray(pl.timeTable) ? pl.timeTable.map((row) => row.join("\t")).join("\n") : "";
     clearFieldError($("#plan-table"));
     showPlanFields();
   }
@@ -2116,7 +2119,7 @@
       values[key] = v;
     }
     const mode = $("#plan-mode").value;
-    const out = { values, errors, mode };
+    const out = { values, errors, mode, table: null };
     const rate = $("#plan-rate").value;
     if (rate === "k" && $("#plan-k").value.trim() === "") errors.push({ input: $("#plan-k"), message: "Enter the rate constant, or choose no rate law." });
     if (rate === "half" && $("#plan-half").value.trim() === "") errors.push({ input: $("#plan-half"), message: "Enter the half-life, or choose no rate law." });
@@ -2124,7 +2127,7 @@
     if (rate === "table") {
       const t = parseTimeTable($("#plan-table").value);
       if (t.error) errors.push({ input: $("#plan-table"), message: capital(t.error) });
-      else table = t.rows;
+      else out.table = table = t.rows;
     }
     const missing = [[1, p.monomer1], [2, p.monomer2]].filter(([, m]) => !(m.molarMass > 0)).map(([w]) => `M${w}`);
     if (missing.length) out.blocked = `the plan weighs the monomers, so give the molar mass of ${missing.join(" and ")} in step 1.`;
@@ -2177,13 +2180,26 @@
       else if (Number.isFinite(v) && v >= 0 && key !== refused && (key !== "shots" || Number.isInteger(v))) next[key] = v;
     }
     const rate = $("#plan-rate").value;
+    next.rateLaw = rate;
     if (rate !== "k") delete next.rateConstant;
     if (rate !== "half") delete next.halfLife;
-    if (JSON.stringify(next) === JSON.stringify(prev)) return;
-    const checked = call("checkProject", { project: { ...state.project, plan: next } });
-    if (isError(checked)) return; // never store what the project check refuses
-    state.project.plan = checked.project.plan || {};
-    scheduleSave();
+    if (rate !== "table" || $("#plan-table").value.trim() === "") delete next.timeTable;
+    else if (read.table && refused !== "timeTable") next.timeTable = read.table;
+    // A value the project check refuses (a heat above its limit, a table the plan was not yet
+    // asked about) keeps its saved value; anything else refused leaves the project as it was.
+    for (let tries = 0; tries < 4; tries++) {
+      if (JSON.stringify(next) === JSON.stringify(prev)) return;
+      const checked = call("checkProject", { project: { ...state.project, plan: next } });
+      if (!isError(checked)) {
+        state.project.plan = checked.project.plan || {};
+        scheduleSave();
+        return;
+      }
+      const key = (/^project\.plan\.([A-Za-z0-9]+)/.exec(checked.field || "") || [])[1];
+      if (!key || JSON.stringify(next[key]) === JSON.stringify(prev[key])) return;
+      if (prev[key] === undefined) delete next[key];
+      else next[key] = prev[key];
+    }
   }
 
   function planStale(stale) {

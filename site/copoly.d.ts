@@ -272,7 +272,11 @@ export interface Project {
   plan?: {                      // the planning panel's inputs, as the user left them (all optional)
     mode?: string; targetF1?: number; polymerMass?: number; tolerance?: number; stopConversion?: number;
     finalConversion?: number; feed?: string; feedF1?: number; shots?: number;
-    rateConstant?: number; halfLife?: number; batchMass?: number; heatCapacity?: number; riseLimit?: number;
+    rateLaw?: "none" | "k" | "half" | "table";  // the rate-law choice: none, rate constant, half-life, timeTable
+    rateConstant?: number; halfLife?: number;
+    timeTable?: [number, number][];  // measured [time in min, conversion 0..1]: time increasing, conversion not decreasing, ≤ 1000 rows
+    heat1?: number; heat2?: number;  // −ΔHp of M1, M2 in kJ/mol (≤ 1000), in place of the library's
+    batchMass?: number; heatCapacity?: number; riseLimit?: number;
   };
   userMonomers?: UserMonomer[]; // monomers the user added to the library, at most 100; absent when none
 }

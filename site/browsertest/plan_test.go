@@ -174,6 +174,31 @@ func TestBrowserPlanning(t *testing.T) {
 	checkNoFatalBanner(t, ctx)
 	w.check(t, "reloading the page")
 
+	// A measured conversion–time table (pasted with decimal commas and a header) and a heat of
+	// your own for M1 are saved with the project and come back after a reload, the table as the
+	// saved numbers. The values are test inputs, invented.
+	setSelect(t, ctx, "plan-rate", "table")
+	setInput(t, ctx, "plan-table", "min\tX\n0\t0\n30\t0,2\n60\t0,4\n120\t0,7\n240\t0,99\n")
+	setInput(t, ctx, "plan-heat1", "75,5")
+	waitPlan(t, ctx, "the plan with a measured table", "Plan: 1000 g", "by semi-batch")
+	storedProject(t, ctx, "the table and the heat to be saved", planTableStored)
+	run(t, ctx, "reload", chromedp.Reload())
+	waitReady(t, ctx)
+	waitPlan(t, ctx, "the table plan after a reload", "Plan: 1000 g", "by semi-batch")
+	for id, want := range map[string]string{"plan-rate": "table", "plan-heat1": "75.5", "plan-heat2": "",
+		"plan-table": "0\t0\n30\t0.2\n60\t0.4\n120\t0.7\n240\t0.99"} {
+		if v := evalJS[string](t, ctx, fmt.Sprintf(`document.getElementById(%s).value`, jsString(id))); v != want {
+			t.Errorf("after a reload #%s = %q, want %q", id, v, want)
+		}
+	}
+	// The table gives the schedule a time axis, within the table's 240 min.
+	last := evalJS[string](t, ctx, `(() => { const c = document.querySelector('#plan-schedule tbody tr:last-child td[data-col="time"]'); return c ? c.textContent : "(no time column)"; })()`)
+	if v, err := strconv.ParseFloat(last, 64); err != nil || v <= 0 || v > 240 {
+		t.Errorf("after a reload the last schedule row time = %q, want minutes within the table's 0–240", last)
+	}
+	storedProject(t, ctx, "the table and the heat to stay saved", planTableStored)
+	w.check(t, "saving a measured table and a heat")
+
 	// A monomer of your own is saved with the project and offered in the pickers as (yours).
 	evalJS[bool](t, ctx, `document.getElementById("own-box").open = true`)
 	setInput(t, ctx, "um-name", "invented acrylate (test)")
@@ -199,6 +224,17 @@ const planStored = `
 	const pl = p.plan || {};
 	const want = {mode: "semibatch", targetF1: 0.5, polymerMass: 1000, tolerance: 0.015, rateConstant: 0.02};
 	for (const k in want) if (pl[k] !== want[k]) return "plan." + k + " = " + JSON.stringify(pl[k]) + ", want " + want[k];
+	return "";`
+
+// planTableStored is the body of a storedProject check: the rate law, table and heat the test
+// typed, the table's conversions as fractions of the decimal-comma text.
+const planTableStored = `
+	const pl = p.plan || {};
+	const table = JSON.stringify([[0, 0], [30, 0.2], [60, 0.4], [120, 0.7], [240, 0.99]]);
+	if (pl.rateLaw !== "table") return "plan.rateLaw = " + JSON.stringify(pl.rateLaw);
+	if (JSON.stringify(pl.timeTable) !== table) return "plan.timeTable = " + JSON.stringify(pl.timeTable);
+	if (pl.heat1 !== 75.5 || pl.heat2 !== undefined) return "plan.heat1, heat2 = " + pl.heat1 + ", " + pl.heat2;
+	if (pl.rateConstant !== undefined) return "plan.rateConstant = " + pl.rateConstant + ", want none with a table";
 	return "";`
 
 // waitPlan waits until #plan-status holds every one of texts.
