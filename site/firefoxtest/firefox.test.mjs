@@ -27,9 +27,9 @@ import path from "node:path";
 import { pathToFileURL } from "node:url";
 import puppeteer from "puppeteer-core";
 
-// Time limits. They are generous because a CI machine with two shared cores and no GPU starts
-// Firefox and compiles the module slowly (a start took 35 s there once); they bound a hung
-// browser or page, they measure nothing (the load time is measured by make bench).
+// Time limits. They are generous because a machine with two busy cores and no GPU starts Firefox
+// slowly (up to 36 s was seen on a developer machine under load, against 9 s when quiet); they
+// bound a hung browser or page, they measure nothing (the load time is measured by make bench).
 const testTimeoutMs = 8 * 60_000;
 const launchTimeoutMs = 120_000; // from spawning Firefox to a WebDriver BiDi session
 const readyTimeoutMs = 90_000; // from a navigation to window.copolyReady
