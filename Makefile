@@ -6,7 +6,7 @@ WASMEXEC := $(GOROOT)/lib/wasm/go_js_wasm_exec
 PY ?= /usr/bin/python3
 DIST := dist
 
-.PHONY: all wasm site run test vet test-native test-noasm test-wasm test-fixtures test-browser bench clean
+.PHONY: all wasm site run test vet test-native test-noasm test-wasm test-fixtures test-browser test-firefox bench clean
 
 all: site
 
@@ -64,7 +64,28 @@ test-browser: site
 	fi
 	COPOLY_HTML=$(abspath $(DIST)/copoly.html) $(GO) test -count=1 -v -run Browser ./site/browsertest/
 
-test: vet test-native test-noasm test-wasm test-fixtures test-browser
+## test-firefox: open dist/copoly.html from file:// in headless Firefox ESR over WebDriver BiDi
+## (puppeteer-core, installed into site/firefoxtest/node_modules by npm ci from its lock file)
+FIREFOX ?= /usr/bin/firefox-esr
+FIREFOXTEST := site/firefoxtest
+test-firefox: site
+	@if [ ! -x "$(FIREFOX)" ]; then \
+		if [ "$$COPOLY_REQUIRE_FIREFOX" = 1 ]; then \
+			echo "FAIL: the Firefox test is required (COPOLY_REQUIRE_FIREFOX=1) but $(FIREFOX) is missing; install it with: apt-get install -y firefox-esr"; exit 1; \
+		fi; \
+		echo "****************************************************************************"; \
+		echo "*** FIREFOX TEST SKIPPED: no $(FIREFOX)"; \
+		echo "*** install it with: apt-get install -y firefox-esr   (then: make test-firefox)"; \
+		echo "****************************************************************************"; \
+		exit 0; \
+	fi; \
+	cd $(FIREFOXTEST) && \
+	if [ ! -f node_modules/.package-lock.json ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then \
+		npm ci --no-audit --no-fund || exit 1; \
+	fi && \
+	COPOLY_HTML=$(abspath $(DIST)/copoly.html) COPOLY_FIREFOX=$(FIREFOX) node --test firefox.test.mjs
+
+test: vet test-native test-noasm test-wasm test-fixtures test-browser test-firefox
 
 ## bench: sizes, load time against a bare Go page, and Go benchmarks natively and as js/wasm
 bench: site
