@@ -147,3 +147,64 @@ func BenchmarkChains(b *testing.B) {
 		}
 	})
 }
+
+// BenchmarkRecompute is everything the page computes after one edit of a project with 20 bench
+// runs: the composition curve (101 feeds), the drift to X = 0.95 (101 conversions) with its
+// conversion limit and composition distribution, the sequence statistics at the feed and over
+// the batch, 12 sample chains of 60 units, every estimation method with a 95 % JCR, the next
+// runs, a 200-step semi-batch plan with its 500-sample band over that JCR, and 10⁴ simulated
+// chains of DPn 100. The page's own work (drawing) is not included; wasm/BenchmarkRecompute
+// adds the bridge's conversions.
+func BenchmarkRecompute(b *testing.B) {
+	runs := simulatedRuns(Terminal{0.52, 0.46}, 0.01, 21)
+	feeds, xs := grid(101, 1), grid(101, 0.95)
+	dst := make([]float64, len(feeds))
+	b.Run("edit-20-runs", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			est, err := Estimate(runs, 0.95)
+			if err != nil || est.Nonlinear == nil {
+				b.Fatalf("Estimate: %v", err)
+			}
+			m := Terminal{est.Nonlinear.R1, est.Nonlinear.R2}
+			const f10 = 0.3
+			if _, err := m.InstantaneousTo(dst, feeds); err != nil {
+				b.Fatal(err)
+			}
+			if _, err := m.Drift(f10, xs); err != nil {
+				b.Fatal(err)
+			}
+			if _, err := m.ConversionLimit(f10, 0.02); err != nil {
+				b.Fatal(err)
+			}
+			if _, err := m.CompositionDistribution(f10, 0.95, 20, 100.12, 86.09); err != nil {
+				b.Fatal(err)
+			}
+			if _, err := m.Sequence(f10); err != nil {
+				b.Fatal(err)
+			}
+			if _, err := m.BatchSequence(f10, 0.95); err != nil {
+				b.Fatal(err)
+			}
+			if _, err := m.Chains(f10, 12, 60, 1); err != nil {
+				b.Fatal(err)
+			}
+			if _, err := NextRuns(m.R1, m.R2, runs, nil); err != nil {
+				b.Fatal(err)
+			}
+			in := PlanInput{Model: m, TargetF1: 0.5, MolarMass1: 100.12, MolarMass2: 86.09,
+				PolymerMass: 1000, Mode: PlanSemibatch, RateConstant: 0.01}
+			p, err := MakePlan(in)
+			if err != nil {
+				b.Fatal(err)
+			}
+			if _, err := PlanBand(in, p, est.Nonlinear.Region.Boundary, 500, 1); err != nil {
+				b.Fatal(err)
+			}
+			sinkC, err = SimulateChains(ChainOptions{Model: m, F10: f10, DPn: 100, Count: 10000, Seed: 1})
+			if err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+}

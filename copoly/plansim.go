@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"sort"
 )
 
 // additions are a plan's schedule as the chemist carries it out: per row, the polymer formed
@@ -218,7 +217,8 @@ func (in *PlanInput) outcome(p *Plan, ad additions, idx []int, m Terminal) (inst
 }
 
 // quantiles returns the 2.5 % and 97.5 % quantiles of v (linear interpolation between order
-// statistics), ignoring NaN.
+// statistics, Hyndman and Fan's type 7), ignoring NaN. It selects the four order statistics it
+// needs instead of sorting: PlanBand asks for hundreds of quantiles of hundreds of samples.
 func quantiles(v []float64) (lo, hi float64) {
 	s := make([]float64, 0, len(v))
 	for _, x := range v {
@@ -229,16 +229,70 @@ func quantiles(v []float64) (lo, hi float64) {
 	if len(s) == 0 {
 		return math.NaN(), math.NaN()
 	}
-	sort.Float64s(s)
+	// The order statistics are taken in increasing rank, each selection leaving the smaller
+	// values to its left, so the next one searches only to the right of the last.
+	from := 0
 	q := func(p float64) float64 {
 		x := p * float64(len(s)-1)
 		i := int(x)
+		a := selectNth(s, from, i)
 		if i+1 >= len(s) {
-			return s[len(s)-1]
+			from = i
+			return a
 		}
-		return s[i] + (x-float64(i))*(s[i+1]-s[i])
+		b := selectNth(s, i+1, i+1)
+		from = i + 1
+		return a + (x-float64(i))*(b-a)
 	}
-	return q(0.025), q(0.975)
+	lo = q(0.025)
+	hi = q(0.975)
+	return lo, hi
+}
+
+// selectNth rearranges s[from:] so that s[k] holds the value it would hold if s[from:] were
+// sorted, with no larger value before it and no smaller one after it, and returns s[k]
+// (Hoare's selection, "Find", Commun. ACM 1961, 4, 321, with a median-of-three pivot). Every
+// value in s[:from] must be at most every value in s[from:].
+func selectNth(s []float64, from, k int) float64 {
+	lo, hi := from, len(s)-1
+	for lo < hi {
+		mid := lo + (hi-lo)/2
+		// Median of three to s[mid].
+		if s[mid] < s[lo] {
+			s[mid], s[lo] = s[lo], s[mid]
+		}
+		if s[hi] < s[lo] {
+			s[hi], s[lo] = s[lo], s[hi]
+		}
+		if s[hi] < s[mid] {
+			s[hi], s[mid] = s[mid], s[hi]
+		}
+		pivot := s[mid]
+		i, j := lo, hi
+		for i <= j {
+			for s[i] < pivot {
+				i++
+			}
+			for s[j] > pivot {
+				j--
+			}
+			if i <= j {
+				s[i], s[j] = s[j], s[i]
+				i++
+				j--
+			}
+		}
+		// Now s[lo..j] <= pivot <= s[i..hi], and values between j and i equal the pivot.
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return s[k]
+		}
+	}
+	return s[k]
 }
 
 // insidePolygon reports whether (x, y) lies inside the closed polygon (even–odd rule).

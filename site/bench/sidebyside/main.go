@@ -188,6 +188,7 @@ var budgets = []budget{
 	{"full fit of 20 runs with every method and a 95 % JCR: under 50 ms in js/wasm", []string{"Estimate/20-runs"}, 50, 0},
 	{"semi-batch plan of 200 steps with a 500-sample band: under 100 ms in js/wasm", []string{"Plan/semibatch-200-steps", "Plan/band-500-samples"}, 100, 0},
 	{"10^6 monomer additions of Monte Carlo growth: under 100 ms in js/wasm", []string{"Chains/1e6-units"}, 100, 0},
+	{"full recompute after an edit (20 runs: fits, JCR, drift, plan + band, 10^4 chains): under 100 ms in js/wasm", []string{"Recompute/edit-20-runs"}, 100, 0},
 }
 
 func writeBudgets(w io.Writer, native, wasm *run) {
