@@ -1328,7 +1328,8 @@
       drawNext();
       return;
     }
-    const key = JSON.stringify([runs, level]);
+    // The labels are part of the key: the plots and their saved data name the runs by them.
+    const key = JSON.stringify([runs, level, bench.rowOf.map((i) => (theBench().rows[i] || {}).label || "")]);
     if (key === bench.fitKey && bench.fit) return;
     const f = call("fit", { runs, level });
     bench.fitKey = key;
