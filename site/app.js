@@ -424,6 +424,7 @@
   function updateBadge() {
     const p = state.project;
     $("#demo-badge").hidden = !(p && p.invented);
+    $("#print-demo").hidden = !(p && p.invented);
     setText("#project-name-print", p ? p.name : "");
     setText("#ratio-source-print", p ? p.ratioSource : "");
   }
@@ -455,10 +456,13 @@
     fig.querySelector("figcaption").hidden = false;
     const actions = fig.querySelector(".plot-actions");
     const base = `${slug(state.project ? state.project.name : "")}-${name}`;
+    // Every figure has the same three buttons: their names say which chart they save.
+    const chartName = svg.getAttribute("aria-label") || name;
+    const named = (b) => { b.setAttribute("aria-label", `${b.textContent}: ${chartName}`); return b; };
     actions.replaceChildren(
-      button("Save SVG", () => Plot.saveSVG(svg, base + ".svg")),
-      button("Save PNG", () => Plot.savePNG(svg, base + ".png").catch((e) => showGeneralError(`PNG not saved: ${e.message}`))),
-      ...(csvRows ? [button("Save data (CSV)", () => Plot.saveCSV(csvRows, base + ".csv"))] : []),
+      named(button("Save SVG", () => Plot.saveSVG(svg, base + ".svg"))),
+      named(button("Save PNG", () => Plot.savePNG(svg, base + ".png").catch((e) => showGeneralError(`PNG not saved: ${e.message}`)))),
+      ...(csvRows ? [named(button("Save data (CSV)", () => Plot.saveCSV(csvRows, base + ".csv")))] : []),
     );
   }
 
@@ -1332,7 +1336,8 @@
       drawNext();
       return;
     }
-    const key = JSON.stringify([runs, level]);
+    // The labels are part of the key: the plots and their saved data name the runs by them.
+    const key = JSON.stringify([runs, level, bench.rowOf.map((i) => (theBench().rows[i] || {}).label || "")]);
     if (key === bench.fitKey && bench.fit) return;
     const f = call("fit", { runs, level });
     bench.fitKey = key;
@@ -2538,6 +2543,7 @@
     const rateIn = $("#sf-rate"), kIn = $("#sf-k");
     clearFieldError(rateIn);
     clearFieldError(kIn);
+    delete $("#sf-out").dataset.result; // marks an answer, which the printed report keeps
     if (!r || !a || r.mode !== "semibatch") return;
     const read = (input, label, fallback) => {
       const raw = input.value.trim();
@@ -2559,6 +2565,7 @@
       if (input) setFieldError(input, msg);
       return setText("#sf-out", input ? "" : sentence(msg));
     }
+    $("#sf-out").dataset.result = "";
     setText("#sf-out", `About ${fix(s.inventory, 1)} g of unreacted monomer sits in the reactor, at f1 = ${fix(s.f1, 3)}. Metering faster, or a slower reaction, raises it.`);
   }
 
@@ -3269,9 +3276,33 @@
     loadExtra(prev);
   }
 
+  // ---- Printed report ------------------------------------------------------------------------
+
+  // stampReport writes the date and the engine's version into the print-only head of the report
+  // (style.css, @media print, turns the page into the report). It runs once the page is ready
+  // and again just before printing, so the date is the date of printing.
+  function stampReport() {
+    const d = new Date();
+    const pad = (n) => String(n).padStart(2, "0");
+    const off = -d.getTimezoneOffset();
+    const zone = `UTC${off < 0 ? "−" : "+"}${pad(Math.floor(Math.abs(off) / 60))}:${pad(Math.abs(off) % 60)}`;
+    const t = $("#print-date");
+    t.dateTime = d.toISOString();
+    t.textContent = `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())} ${pad(d.getHours())}:${pad(d.getMinutes())} (${zone})`;
+    if (engine && engine.version) setText("#print-version", `version ${engine.version}`);
+  }
+
+  function wireReport() {
+    $("#print-report").addEventListener("click", () => { stampReport(); window.print(); });
+    window.addEventListener("beforeprint", stampReport);
+    window.matchMedia("print").addEventListener("change", (e) => { if (e.matches) stampReport(); });
+    window.copolyReady.then(stampReport, () => {});
+  }
+
   // ---- Start ----------------------------------------------------------------------------------
 
   function wire() {
+    wireReport();
     // Ratios typed by hand no longer match the region of a fit: drop it (before recompute runs).
     for (const sel of ["#r1", "#r2"]) $(sel).addEventListener("input", () => { state.formJcr = null; });
     for (const sel of PROJECT_INPUTS) $(sel).addEventListener("input", recompute);

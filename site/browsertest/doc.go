@@ -15,6 +15,16 @@
 // triads, the classes and the model kept. The page must do all this without a
 // console error, an uncaught exception or any request beyond its own file.
 //
+// Three more look at the page itself. The print test emulates print media on a viewport as wide
+// as A4's printable width and checks that the report holds every required section (with the date,
+// the engine's version and the invented-demo marker) and no control or empty section, then has
+// Chromium print it to PDF. The keyboard test reads Chromium's accessibility tree for the name of
+// every visible control and plot, and presses Tab through the whole page. The security tests type
+// script-bearing text into every free-text field, save and import files carrying it, and check
+// that nothing runs and the text comes back literally; they check that the Content-Security-Policy
+// refuses code from strings and that no request reaches a local server the page tries to reach
+// in every way it could. Only there are console errors expected, and only the policy's refusals.
+//
 // The package has only a test. Run it through make, which builds the page first:
 //
 //	make test-browser
@@ -25,6 +35,7 @@
 //	COPOLY_REQUIRE_BROWSER  "1": a missing Chromium fails the test instead of skipping it (CI sets
 //	                        CI, which has the same effect)
 //	COPOLY_SHOT             if set, a PNG screenshot of the page at the end of the test is written here
+//	COPOLY_PDF              if set, the print test writes the PDF of the report here
 //
 // Chromium is /usr/bin/chromium or the first chromium on PATH (Debian: apt-get install -y chromium).
 package browsertest
