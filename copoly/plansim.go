@@ -108,11 +108,19 @@ type Band struct {
 // MaxBandSamples bounds [PlanBand].
 const MaxBandSamples = 5000
 
+// bandTestBudget bounds the work of drawing [PlanBand]'s samples: the number of tries times the
+// number of boundary points each inside-the-polygon test visits. A region from a fit (about 50
+// points, more than half its bounding box inside) needs well under 1 % of it for the most
+// samples; a region with next to no area would otherwise try 1000 times per sample.
+const bandTestBudget = 200_000_000
+
 // PlanBand draws samples pairs (r1, r2) uniformly inside the polygon region (the joint
 // confidence region of the ratios, as traced by [FitNonlinear]), runs the plan's schedule with
 // each (see simulate; a batch simply drifts from its charge), and returns the 95 % band of the
 // instantaneous and cumulative composition along the schedule. The sampling is seeded and
-// reproducible.
+// reproducible. A region with no area (its points on a line), or one so thin that fewer than
+// samples of the tries allowed by a fixed work budget fall inside it, gives a [*FieldError]
+// naming "jcr"; so the time taken is bounded whatever the region.
 func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint64) (Band, error) {
 	if err := in.validate(); err != nil {
 		return Band{}, err
@@ -133,6 +141,10 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 	if samples < 10 || samples > MaxBandSamples {
 		return Band{}, &InputError{Field: "samples", Value: float64(samples), Reason: fmt.Sprintf("between 10 and %d samples", MaxBandSamples), Err: ErrOutOfRange}
 	}
+	if !(polygonArea(region) > 1e-12*(hi1-lo1)*(hi2-lo2)) || hi1 == lo1 || hi2 == lo2 {
+		return Band{}, &FieldError{Field: "jcr", Reason: "the region has no area to sample from (its points lie on a line or on each other)", Err: ErrOutOfRange}
+	}
+	maxTries := min(1000*samples, bandTestBudget/len(region))
 	rng := rand.New(rand.NewPCG(seed, 0x6a6372))
 	rows := len(p.Schedule)
 	// A batch drifts smoothly: its band is computed at about 50 rows and interpolated between
@@ -152,7 +164,7 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 	cum := make([][]float64, rows)
 	ad := in.additions(p)
 	drawn, tries := 0, 0
-	for drawn < samples && tries < 1000*samples {
+	for drawn < samples && tries < maxTries {
 		tries++
 		r1 := lo1 + (hi1-lo1)*rng.Float64()
 		r2 := lo2 + (hi2-lo2)*rng.Float64()
@@ -167,7 +179,7 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 		}
 	}
 	if drawn < samples {
-		return Band{}, &FieldError{Field: "jcr", Reason: "the region has no area to sample from", Err: ErrOutOfRange}
+		return Band{}, &FieldError{Field: "jcr", Reason: fmt.Sprintf("the region is too thin to sample: %d of %d tries fell inside it, %d samples were asked for", drawn, tries, samples), Err: ErrOutOfRange}
 	}
 	b := Band{Samples: drawn, InstLow: make([]float64, rows), InstHigh: make([]float64, rows), CumLow: make([]float64, rows), CumHigh: make([]float64, rows)}
 	for _, i := range idx {
@@ -239,6 +251,21 @@ func quantiles(v []float64) (lo, hi float64) {
 		return s[i] + (x-float64(i))*(s[i+1]-s[i])
 	}
 	return q(0.025), q(0.975)
+}
+
+// polygonArea returns the area enclosed by the closed polygon by the shoelace formula (the
+// absolute value of the signed area; a self-crossing polygon's lobes may cancel).
+//
+//	A = ½ |Σ (xᵢ yᵢ₊₁ − xᵢ₊₁ yᵢ)|
+//
+// References:
+//   - B. Braden, The surveyor's area formula, College Math. J. 1986, 17, 326 (from memory).
+func polygonArea(poly [][2]float64) float64 {
+	var a float64
+	for i, j := 0, len(poly)-1; i < len(poly); j, i = i, i+1 {
+		a += poly[j][0]*poly[i][1] - poly[i][0]*poly[j][1]
+	}
+	return math.Abs(a) / 2
 }
 
 // insidePolygon reports whether (x, y) lies inside the closed polygon (even–odd rule).
