@@ -2,6 +2,7 @@ package copoly
 
 import (
 	"fmt"
+	"slices"
 	"strings"
 )
 
@@ -231,7 +232,7 @@ func headerKey(h string) string {
 // F and f); without one, the columns are taken in the order of [BenchTable.Columns], after a
 // first text column taken as the label. A header naming the columns of another form (X, mass1,
 // integral1…) switches the table to that form. A block with a header row but no data rows is
-// an error. A paste that fails (unknown header names, a row wider than the columns, too many
+// an error, and so is a header naming one column twice ("F1" and "F"). A paste that fails (unknown header names, a row wider than the columns, too many
 // rows) returns an error naming "paste" or "table" and changes nothing, not even the form.
 func (t *BenchTable) Paste(text string) error {
 	tab, err := ParseTable(text)
@@ -252,6 +253,9 @@ func (t *BenchTable) Paste(text string) error {
 			}
 			if k == "" {
 				return &FieldError{Field: "paste", Reason: fmt.Sprintf("unknown column %q; use names such as label, f10, X, F1, sF, sX, sf (or paste without a header in the order %s)", h, strings.Join(cols, ", ")), Err: ErrNotTable}
+			}
+			if j := slices.Index(keys, k); j >= 0 {
+				return &FieldError{Field: "paste", Reason: fmt.Sprintf("columns %d (%q) and %d (%q) are both %s; keep one of them", j+1, tab.Header[j], len(keys)+1, h, k), Err: ErrNotTable}
 			}
 			keys = append(keys, k)
 		}

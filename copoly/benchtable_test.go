@@ -48,8 +48,9 @@ func TestBenchTablePasteWithoutHeader(t *testing.T) {
 }
 
 // TestBenchTablePasteFailureChangesNothing holds the regression cases of FuzzBenchPaste: a
-// block with only a header row was accepted and added nothing, silently; and a header naming
-// the columns of another form switched the table's form even when the paste then failed.
+// block with only a header row was accepted and added nothing, silently; a header naming one
+// column twice kept the last of the two cells, even an empty one; and a header naming the
+// columns of another form switched the table's form even when the paste then failed.
 func TestBenchTablePasteFailureChangesNothing(t *testing.T) {
 	tooMany := "X\tF1\tf10\n" + strings.Repeat("0.1\t0.2\t0.3\n", MaxRuns) // with the row kept, one too many
 	tests := []struct {
@@ -60,6 +61,9 @@ func TestBenchTablePasteFailureChangesNothing(t *testing.T) {
 		{"header of another form only", "mass1\tmass2\tX\tw1", "paste", "no rows of data", ErrNotTable},
 		{"row wider than the header", "X\tF1\tf10\n0.1\t0.2\t0.3\t0.4\n", "paste", "column 4 has no name in the header row (X, F1, f10, )", ErrNotTable},
 		{"row wider than the columns", "0.1\t0.2\t0.3\t0.4\t0.5\n", "paste", "a row has 5 cells but only 4 columns", ErrNotTable},
+		// A header naming a column twice: the second, empty, cell overwrote the first.
+		{"a column named twice", "n1,n1,I1,H1,I1,H1\n000", "paste", `columns 1 ("n1") and 2 ("n1") are both moles1`, ErrNotTable},
+		{"a column named twice in other words", "X\tF\tF1\n0.1\t0.2\t0.3\n", "paste", `columns 2 ("F") and 3 ("F1") are both F1`, ErrNotTable},
 		{"too many rows", tooMany, "paste", fmt.Sprintf("at most %d rows", MaxRuns), ErrTooMany},
 	}
 	for _, tt := range tests {
