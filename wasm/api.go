@@ -452,7 +452,7 @@ func averages(arg js.Value) (any, error) {
 			return nil, sliceField(err)
 		}
 	default:
-		return nil, &copoly.FieldError{Field: "bins", Reason: "give the molar-mass classes (bins) or the chromatogram slices (slices)", Err: errMissing}
+		return nil, &copoly.FieldError{Field: "bins", Reason: "is missing: give the molar-mass classes (bins) or the chromatogram slices (slices)", Err: errMissing}
 	}
 	out := averagesOut{Mn: a.Mn, Mw: a.Mw, Mz: a.Mz, Dispersity: a.Dispersity}
 	if in.F1 != nil && masses {
