@@ -195,7 +195,8 @@ func TestPlanSafety(t *testing.T) {
 }
 
 // TestPlanBandDegenerateRegion: a region with no or next to no area is an error naming jcr,
-// reached after a bounded number of tries. Before the area check and the work budget, 4096
+// reached after a bounded number of tries, and too many samples of too long a schedule one
+// naming samples. Before the area check and the work budget, 4096
 // points on a line with 5000 samples made PlanBand try 5 million points against a
 // 4096-edge polygon (minutes in the browser) before giving up.
 func TestPlanBandDegenerateRegion(t *testing.T) {
@@ -227,10 +228,30 @@ func TestPlanBandDegenerateRegion(t *testing.T) {
 			}
 		})
 	}
+	// Samples times schedule rows is bounded: the most samples with the most steps is refused
+	// by name, and the most samples with the default steps, or the default samples with the most
+	// steps, are allowed.
+	in.Steps = MaxPlanSteps
+	long, err := MakePlan(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sq := [][2]float64{{0.79, 0.149}, {0.81, 0.149}, {0.81, 0.151}, {0.79, 0.151}}
+	if _, err := PlanBand(in, long, sq, MaxBandSamples, 1); Field(err) != "samples" || !errors.Is(err, ErrTooMany) {
+		t.Errorf("PlanBand(%d samples, %d rows) error %v, want ErrTooMany naming samples", MaxBandSamples, len(long.Schedule), err)
+	}
+	if _, err := PlanBand(in, long, sq, 500, 1); err != nil {
+		t.Errorf("PlanBand(500 samples, %d rows) error %v", len(long.Schedule), err)
+	}
+	in.Steps = 0
+	if _, err := PlanBand(in, p, sq, MaxBandSamples, 1); err != nil {
+		t.Errorf("PlanBand(%d samples, %d rows) error %v", MaxBandSamples, len(p.Schedule), err)
+	}
+
 	// polygonArea of the unit square, and of the square traced in the other direction
 	// (shoelace formula, by hand).
-	sq := [][2]float64{{0, 0}, {1, 0}, {1, 1}, {0, 1}}
-	if a, b := polygonArea(sq), polygonArea([][2]float64{{0, 1}, {1, 1}, {1, 0}, {0, 0}}); a != 1 || b != 1 {
+	unit := [][2]float64{{0, 0}, {1, 0}, {1, 1}, {0, 1}}
+	if a, b := polygonArea(unit), polygonArea([][2]float64{{0, 1}, {1, 1}, {1, 0}, {0, 0}}); a != 1 || b != 1 {
 		t.Errorf("polygonArea(unit square) = %v and %v reversed, want 1", a, b)
 	}
 }

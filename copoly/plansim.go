@@ -105,8 +105,13 @@ type Band struct {
 	ProductLow, ProductHigh float64
 }
 
-// MaxBandSamples bounds [PlanBand].
-const MaxBandSamples = 5000
+// Limits of [PlanBand]. Each sample replays the whole schedule, so the work grows as samples
+// times schedule rows: MaxBandWork allows the most samples with the default 200 steps, or the
+// default 500 samples with the most steps, but not both (a minute and more in the browser).
+const (
+	MaxBandSamples = 5000
+	MaxBandWork    = 2_000_000 // samples × schedule rows
+)
 
 // bandTestBudget bounds the work of drawing [PlanBand]'s samples: the number of tries times the
 // number of boundary points each inside-the-polygon test visits. A region from a fit (about 50
@@ -120,7 +125,8 @@ const bandTestBudget = 200_000_000
 // instantaneous and cumulative composition along the schedule. The sampling is seeded and
 // reproducible. A region with no area (its points on a line), or one so thin that fewer than
 // samples of the tries allowed by a fixed work budget fall inside it, gives a [*FieldError]
-// naming "jcr"; so the time taken is bounded whatever the region.
+// naming "jcr", and samples times the schedule's rows above [MaxBandWork] an error naming
+// "samples"; so the time taken is bounded whatever the input.
 func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint64) (Band, error) {
 	if err := in.validate(); err != nil {
 		return Band{}, err
@@ -140,6 +146,9 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 	}
 	if samples < 10 || samples > MaxBandSamples {
 		return Band{}, &InputError{Field: "samples", Value: float64(samples), Reason: fmt.Sprintf("between 10 and %d samples", MaxBandSamples), Err: ErrOutOfRange}
+	}
+	if rows := len(p.Schedule); samples*rows > MaxBandWork {
+		return Band{}, &InputError{Field: "samples", Value: float64(samples), Reason: fmt.Sprintf("%d samples of a schedule of %d rows is more than the %d sample rows a band can take; use fewer samples or steps", samples, rows, MaxBandWork), Err: ErrTooMany}
 	}
 	if !(polygonArea(region) > 1e-12*(hi1-lo1)*(hi2-lo2)) || hi1 == lo1 || hi2 == lo2 {
 		return Band{}, &FieldError{Field: "jcr", Reason: "the region has no area to sample from (its points lie on a line or on each other)", Err: ErrOutOfRange}

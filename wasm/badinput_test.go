@@ -301,7 +301,13 @@ func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 				{path: "molarMass2", kind: kNumber, optional: true, extra: badMolarMass},
 				{path: "tolerance", kind: kNumber, optional: true, extra: []badValue{{expr: `-0.1`, text: "-0.1"}, {expr: `0.9`, text: "0.9"}}},
 				{path: "bins", kind: kCount, optional: true, extra: []badValue{{expr: `0`, text: "0"}, {expr: `201`, text: "201"}}},
-			}, modelFields...)}},
+			}, modelFields...)},
+			{name: "by mass", arg: `{r1: 0.8, r2: 0.15, f10: 0.5, conversion: [0, 0.1, 0.2], basis: "mass", molarMass1: 104.15, molarMass2: 128.17}`,
+				fields: []sweepField{{path: "conversion", kind: kNumbers, extra: []badValue{
+					{expr: `[0.1, 1.5]`, sub: "[1]", text: "1.5"},
+					{expr: `new Array(1001).fill(0.1)`, text: "1001"},
+				}}}},
+		},
 			otherModels("drift", `f10: 0.5, conversion: [0, 0.5]`)...)},
 		{name: "sequence", first: "r1", bases: append([]sweepBase{{name: "terminal", arg: `{r1: 0.8, r2: 0.15, f1: 0.5, conversion: 0.5, maxLength: 20}`,
 			fields: append([]sweepField{
@@ -454,6 +460,11 @@ func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 				{path: "samples", kind: kCount, optional: true, extra: []badValue{{expr: `9`, text: "9"}, {expr: `5001`, text: "5001"}}},
 				{path: "seed", kind: kNumber, optional: true, extra: []badValue{{expr: `-1`, text: "-1"}, {expr: `2.5`, text: "2.5"}}},
 			},
+		}, {
+			name: "long schedule",
+			arg: `{r1: 0.8, r2: 0.15, targetF1: 0.5, molarMass1: 104.15, molarMass2: 128.17, polymerMass: 1000, mode: "batch", steps: 2000,
+				jcr: [[0.7, 0.1], [0.9, 0.1], [0.9, 0.2], [0.7, 0.2]], samples: 10}`,
+			fields: []sweepField{{path: "samples", kind: kCount, optional: true, extra: []badValue{{expr: `5000`, text: "2000000 sample rows"}}}},
 		}}},
 		{name: "starvedFeed", first: "r1", bases: []sweepBase{{
 			arg: `{r1: 0.8, r2: 0.15, targetF1: 0.5, feedRate: 1, rateConstant: 0.05, molarMass1: 104.15, molarMass2: 128.17}`,
