@@ -264,9 +264,9 @@ var modelFields = []sweepField{
 	{path: "model", kind: kText, optional: true, extra: []badValue{{expr: `"quadratic"`, text: `"quadratic"`}}},
 }
 
-// Bases of the methods that take any model: the penultimate and the implicit model, whose own
-// ratios are swept (fields holds the method's other fields, unchanged).
-func otherModels(method string, rest string) []sweepBase {
+// otherModels are the bases of a method that takes any model for the penultimate and the
+// implicit model, whose own ratios are swept; rest holds the method's other fields.
+func otherModels(rest string) []sweepBase {
 	return []sweepBase{
 		{name: "penultimate", arg: `{model: "penultimate", r11: 0.9, r21: 0.6, r22: 0.2, r12: 0.1, ` + rest + `}`, fields: []sweepField{
 			{path: "r11", kind: kNumber, extra: badRatio}, {path: "r21", kind: kNumber, extra: badRatio},
@@ -286,7 +286,7 @@ func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 	return []sweepMethod{
 		{name: "composition", first: "r1", bases: append([]sweepBase{{name: "terminal", arg: `{r1: 0.8, r2: 0.15, f1: [0.1, 0.5, 0.9]}`,
 			fields: append([]sweepField{{path: "f1", kind: kNumbers, extra: badFractions}}, modelFields...)}},
-			otherModels("composition", `f1: [0.5]`)...)},
+			otherModels(`f1: [0.5]`)...)},
 		{name: "feedFor", first: "r1", bases: []sweepBase{{arg: `{r1: 0.8, r2: 0.15, targetF1: 0.55}`, fields: []sweepField{
 			{path: "r1", kind: kNumber, extra: badRatio}, {path: "r2", kind: kNumber, extra: badRatio},
 			{path: "targetF1", kind: kNumber, extra: badFraction},
@@ -308,14 +308,14 @@ func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 					{expr: `new Array(1001).fill(0.1)`, text: "1001"},
 				}}}},
 		},
-			otherModels("drift", `f10: 0.5, conversion: [0, 0.5]`)...)},
+			otherModels(`f10: 0.5, conversion: [0, 0.5]`)...)},
 		{name: "sequence", first: "r1", bases: append([]sweepBase{{name: "terminal", arg: `{r1: 0.8, r2: 0.15, f1: 0.5, conversion: 0.5, maxLength: 20}`,
 			fields: append([]sweepField{
 				{path: "f1", kind: kNumber, extra: badFraction},
 				{path: "conversion", kind: kNumber, optional: true, extra: badFraction},
 				{path: "maxLength", kind: kCount, optional: true, extra: []badValue{{expr: `0`, text: "0"}, {expr: `1001`, text: "1001"}}},
 			}, modelFields...)}},
-			otherModels("sequence", `f1: 0.5, conversion: 0.5`)...)},
+			otherModels(`f1: 0.5, conversion: 0.5`)...)},
 		{name: "chains", first: "r1", bases: append([]sweepBase{
 			{name: "samples", arg: `{r1: 0.8, r2: 0.15, f10: 0.5, count: 5, length: 20, seed: 3}`, fields: append([]sweepField{
 				{path: "f10", kind: kNumber, extra: badFraction},
@@ -334,7 +334,7 @@ func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 			{name: "simulation, too many units", arg: `{r1: 0.8, r2: 0.15, f10: 0.5, conversion: 0.5, count: 50, length: 1000}`, fields: []sweepField{
 				{path: "count", kind: kCount, optional: true, extra: []badValue{{expr: `100000`, text: "below 20000000 units"}}},
 			}},
-		}, otherModels("chains", `f10: 0.5, count: 20, length: 20`)...)},
+		}, otherModels(`f10: 0.5, count: 20, length: 20`)...)},
 		{name: "discriminate", first: "runs", bases: []sweepBase{{arg: `{runs: ` + triadsJSON + `}`, fields: []sweepField{
 			{path: "runs", kind: kObjects, extra: []badValue{{expr: `new Array(1001).fill({f10: 0.5})`, text: "1001"}}},
 			{path: "runs[0].f10", kind: kNumber, extra: badFraction},
@@ -526,7 +526,6 @@ var sweepJS = jsEval(`{
 
 // sweep is one run of the sweep over an api object.
 type sweep struct {
-	t        *testing.T
 	api      js.Value
 	calls    int
 	maxAlloc uint64 // the most Go memory one call allocated, in bytes
@@ -573,21 +572,9 @@ func wantBad(t *testing.T, v js.Value, field, text string) {
 
 func TestBadInputSweep(t *testing.T) {
 	api, _ := testAPI(t)
-	s := &sweep{t: t, api: api}
+	s := &sweep{api: api}
 
-	// The base project: the demo with every optional part filled in.
-	project := jsEval(`((p) => {
-		p = structuredClone(p);
-		p.savedAt = "2026-01-02T03:04:05Z";
-		p.level = 0.95;
-		p.jcr = [[0.7, 0.1], [0.9, 0.1], [0.8, 0.2]];
-		p.model = {kind: "penultimate", r11: 0.9, r21: 0.6, r22: 0.2, r12: 0.1};
-		p.triads = [{f10: 0.3, F1: 0.4, A111: 0.1}];
-		p.sizeBins = [{low: 1e4, high: 2e4, weightFraction: 1}];
-		p.plan.timeTable = [[0, 0], [10, 0.1]];
-		p.userMonomers = [{name: "X-1", molarMass: 100, hazards: ["toxic"]}];
-		return p;
-	})`).Invoke(call(api, "demoProject").Get("project"))
+	project := fullProject(api)
 	sweepJS.Set("project", project)
 	_, fitObjs := fitRuns()
 	_, triadObjs := triadSet(t)
@@ -666,6 +653,45 @@ func TestBadInputSweep(t *testing.T) {
 	}
 	if s.maxAlloc > 8<<20 {
 		t.Errorf("one call (%s) allocated %d MiB of Go memory, want at most 8 MiB", s.maxCase, s.maxAlloc>>20)
+	}
+}
+
+// fullProject returns the demo project with every optional part filled in.
+func fullProject(api js.Value) js.Value {
+	return jsEval(`((p) => {
+		p = structuredClone(p);
+		p.savedAt = "2026-01-02T03:04:05Z";
+		p.level = 0.95;
+		p.jcr = [[0.7, 0.1], [0.9, 0.1], [0.8, 0.2]];
+		p.model = {kind: "penultimate", r11: 0.9, r21: 0.6, r22: 0.2, r12: 0.1};
+		p.triads = [{f10: 0.3, F1: 0.4, A111: 0.1}];
+		p.sizeBins = [{low: 1e4, high: 2e4, weightFraction: 1}];
+		p.plan.timeTable = [[0, 0], [10, 0.1]];
+		p.userMonomers = [{name: "X-1", molarMass: 100, hazards: ["toxic"]}];
+		return p;
+	})`).Invoke(call(api, "demoProject").Get("project"))
+}
+
+// TestExportImportRoundTrip: a project with every optional part, exported and imported, comes
+// back as checkProject gives it, and so again after each further round trip, with the same file.
+func TestExportImportRoundTrip(t *testing.T) {
+	api, _ := testAPI(t)
+	want := call(api, "checkProject", map[string]any{"project": fullProject(api)})
+	wantNoError(t, want)
+	p, file := want.Get("project"), ""
+	for round := 1; round <= 3; round++ {
+		exp := call(api, "exportProject", map[string]any{"project": p})
+		wantNoError(t, exp)
+		if round > 1 && exp.Get("json").String() != file {
+			t.Errorf("round %d exported another file", round)
+		}
+		file = exp.Get("json").String()
+		imp := call(api, "importProject", map[string]any{"json": file})
+		wantNoError(t, imp)
+		if stringify(imp.Get("project")) != stringify(want.Get("project")) {
+			t.Fatalf("round %d: importProject(exportProject(p)) = %.300s, want %.300s", round, stringify(imp.Get("project")), stringify(want.Get("project")))
+		}
+		p = imp.Get("project")
 	}
 }
 
