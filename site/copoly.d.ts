@@ -38,7 +38,8 @@ export interface CopolyError {
 //   plan .................................... steps ≤ 2000, shots ≤ 500, samples 10–5000,
 //                                              samples × schedule rows ≤ 2·10⁶
 //   importProject json ...................... 1 MiB; a project's names 200 characters, ratioSource
-//                                              1000, notes 100 000 bytes, userMonomers 100 (20 hazards each)
+//                                              1000, notes 100 000 bytes, savedAt 64, userMonomers 100
+//                                              (20 hazards each)
 //   one-word options (model, mode, basis, feed, kinds) 32 characters
 // fit skips the Mayo–Lewis intersection method, with a warning, above 200 runs with a conversion.
 

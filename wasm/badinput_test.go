@@ -207,7 +207,7 @@ func projectFields(prefix string) []sweepField {
 		f("tolerance", kNumber, false, badValue{expr: `0`, text: "= 0"}, badValue{expr: `0.6`, text: "0.6"}, badValue{expr: `-0.1`, text: "-0.1"}),
 		f("notes", kText, true, badValue{expr: `"x".repeat(100001)`, text: "100001"}),
 		f("invented", kBool, true),
-		f("savedAt", kText, true, badValue{expr: `"yesterday"`, text: `"yesterday"`}),
+		f("savedAt", kText, true, badValue{expr: `"yesterday"`, text: `"yesterday"`}, badValue{expr: `"2026-01-02T03:04:05." + "1".repeat(50) + "Z"`, text: "71 characters"}),
 		f("bench", kObject, true),
 		f("bench.rows", kObjects, false, badValue{expr: `Array.from({length: 1001}, () => ({cells: {}}))`, text: "1001"}),
 		f("bench.rows[0].label", kText, true, badValue{expr: `"x".repeat(201)`, text: "201"}),
@@ -660,7 +660,7 @@ func TestBadInputSweep(t *testing.T) {
 func fullProject(api js.Value) js.Value {
 	return jsEval(`((p) => {
 		p = structuredClone(p);
-		p.savedAt = "2026-01-02T03:04:05Z";
+		p.savedAt = "2026-01-02T03:04:05.123456789+14:00"; // the longest RFC 3339 time: 35 characters
 		p.level = 0.95;
 		p.jcr = [[0.7, 0.1], [0.9, 0.1], [0.8, 0.2]];
 		p.model = {kind: "penultimate", r11: 0.9, r21: 0.6, r22: 0.2, r12: 0.1};

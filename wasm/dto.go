@@ -1000,7 +1000,7 @@ type projectDTO struct {
 	Tolerance   float64           `js:"tolerance"`
 	Notes       string            `js:"notes" copoly:"optional" limit:"notes"`
 	Invented    bool              `js:"invented" copoly:"optional"`
-	SavedAt     string            `js:"savedAt" copoly:"optional" limit:"word"`
+	SavedAt     string            `js:"savedAt" copoly:"optional" limit:"stamp"`
 	Bench       *benchDTO         `js:"bench"`
 	Level       float64           `js:"level" copoly:"optional"`
 	JCR         [][]float64       `js:"jcr" copoly:"optional" limit:"jcr"`
@@ -1464,7 +1464,7 @@ var limits = map[string]int{
 
 	"triads":   project.MaxTriadRows,      // = copoly.MaxTriadRuns
 	"sizeBins": project.MaxSizeBins,       // = copoly.MaxAverageRows
-	"word":     project.MaxPlanWordLength, // a one-word option such as "model", or a date
+	"word":     project.MaxPlanWordLength, // a one-word option such as "model"
 
 	// Texts whose limit copoly counts in characters (runes) or UTF-8 bytes: the bridge counts
 	// UTF-16 code units, of which a rune takes at most two and at most as many as its UTF-8
@@ -1476,6 +1476,7 @@ var limits = map[string]int{
 	"cell":   2 * project.MaxCellLength,
 	"hazard": 2 * project.MaxHazardLength,
 	"notes":  project.MaxNotesBytes,
+	"stamp":  project.MaxSavedAtLength, // ASCII: units are characters
 	"json":   project.MaxFileBytes,
 }
 

@@ -86,6 +86,9 @@ const (
 	MaxNameLength   = 200     // characters in the project name and in each monomer name
 	MaxSourceLength = 1000    // characters in RatioSource
 	MaxNotesBytes   = 100_000 // bytes (UTF-8) in Notes
+	// MaxSavedAtLength bounds SavedAt: RFC 3339 with nanoseconds and an offset takes 35
+	// characters, but time.Parse takes any number of digits of a second.
+	MaxSavedAtLength = 64
 )
 
 // Sentinel errors wrapped by the errors of this package; test for them with errors.Is.
@@ -221,6 +224,9 @@ func (p Project) Validate() error {
 		return err
 	}
 	if p.SavedAt != "" {
+		if err := checkText("project.savedAt", p.SavedAt, MaxSavedAtLength); err != nil {
+			return err
+		}
 		if _, err := time.Parse(time.RFC3339, p.SavedAt); err != nil {
 			return &copoly.FieldError{Field: "project.savedAt", Reason: fmt.Sprintf("%q is not a date and time in RFC 3339 form", p.SavedAt), Err: ErrWrongType}
 		}
