@@ -324,8 +324,11 @@ func FuzzParse(f *testing.F) {
 	f.Fuzz(func(t *testing.T, data []byte) {
 		p, err := Parse(data)
 		if err != nil {
-			if copoly.Field(err) == "" {
-				t.Errorf("Parse(%q) error %q names no field", data, err)
+			// Typed (copoly.Field finds an InputError or FieldError), naming a field of the
+			// project, which the message starts with.
+			f := copoly.Field(err)
+			if f != "project" && !strings.HasPrefix(f, "project.") || !strings.HasPrefix(err.Error(), f) {
+				t.Errorf("Parse(%q) error %q names field %q, want project or project.…", data, err, f)
 			}
 			return
 		}
