@@ -196,22 +196,60 @@ func MolarConversionOf(model Model, massConversion, f10, molarMass1, molarMass2 
 	if err != nil {
 		return 0, err
 	}
-	if err := CheckConversion("massConversion", massConversion); err != nil {
-		return 0, err
-	}
 	if err := CheckMolarMass("molarMass1", molarMass1); err != nil {
 		return 0, err
 	}
 	if err := CheckMolarMass("molarMass2", molarMass2); err != nil {
 		return 0, err
 	}
+	return b.molarConversion("massConversion", massConversion, molarMass1, molarMass2)
+}
+
+// MaxMassConversions is the most mass conversions [MolarConversionsOf] converts in one call.
+// Each takes a bisection over the drift (about 40 evaluations of the unreacted feed), so the
+// limit keeps a call well under a second in the browser; a plotted curve needs a few hundred.
+const MaxMassConversions = 1000
+
+// MolarConversionsOf converts each mass conversion of massConversions as [MolarConversionOf]
+// does, with one batch for all of them. An invalid value gives an error naming
+// "massConversion[i]"; more than [MaxMassConversions] values an error naming "massConversion"
+// wrapping [ErrTooMany].
+func MolarConversionsOf(model Model, massConversions []float64, f10, molarMass1, molarMass2 float64) ([]float64, error) {
+	if n := len(massConversions); n > MaxMassConversions {
+		return nil, &InputError{Field: "massConversion", Value: float64(n), Reason: fmt.Sprintf("at most %d mass conversions per call", MaxMassConversions), Err: ErrTooMany}
+	}
+	b, err := newModelBatch(model, f10)
+	if err != nil {
+		return nil, err
+	}
+	if err := CheckMolarMass("molarMass1", molarMass1); err != nil {
+		return nil, err
+	}
+	if err := CheckMolarMass("molarMass2", molarMass2); err != nil {
+		return nil, err
+	}
+	out := make([]float64, len(massConversions))
+	for i, w := range massConversions {
+		if out[i], err = b.molarConversion(fmt.Sprintf("massConversion[%d]", i), w, molarMass1, molarMass2); err != nil {
+			return nil, err
+		}
+	}
+	return out, nil
+}
+
+// molarConversion is MolarConversionOf on the batch b, with errors naming field.
+func (b *batch) molarConversion(field string, massConversion, molarMass1, molarMass2 float64) (float64, error) {
+	if err := CheckConversion(field, massConversion); err != nil {
+		return 0, err
+	}
+	f10 := b.f10
 	mass := func(x float64) float64 {
 		var f [1]float64
 		b.feedAt(f[:], []float64{x})
 		return MassConversion(x, f10, f[0], molarMass1, molarMass2)
 	}
 	if top := mass(b.xmax); massConversion > top+1e-12 {
-		return 0, &InputError{Field: "massConversion", Value: massConversion, Reason: fmt.Sprintf("this batch stops at a mass conversion of %.4g", top), Err: ErrOutOfRange}
+		return 0, &InputError{Field: field, Value: massConversion, Reason: fmt.Sprintf("this batch stops at a mass conversion of %.4g", top), Err: ErrOutOfRange}
 	}
 	lo, hi := 0.0, b.xmax
 	for hi-lo > 1e-12 {

@@ -1,6 +1,7 @@
 package copoly
 
 import (
+	"errors"
 	"math"
 	"testing"
 
@@ -126,5 +127,34 @@ func TestMassConversion(t *testing.T) {
 	}
 	if _, err := (Terminal{1, 2}).MolarConversion(0.5, 0.5, 0, 50); Field(err) != "molarMass1" {
 		t.Errorf("missing molar mass: error %v, want field molarMass1", err)
+	}
+}
+
+// TestMolarConversionsOf: the list form gives what MolarConversionOf gives value by value, for
+// the terminal and the penultimate model, names a bad value by its index, and refuses more than
+// MaxMassConversions values before any work.
+func TestMolarConversionsOf(t *testing.T) {
+	w := []float64{0, 0.05, 0.3, 0.6}
+	for _, m := range []Model{Terminal{0.40, 0.04}, Penultimate{R11: 0.9, R21: 0.6, R22: 0.2, R12: 0.1}} {
+		got, err := MolarConversionsOf(m, w, 0.4, 104.152, 53.064)
+		if err != nil {
+			t.Fatalf("%v: MolarConversionsOf error %v", m, err)
+		}
+		for i, wi := range w {
+			want, err := MolarConversionOf(m, wi, 0.4, 104.152, 53.064)
+			if err != nil || got[i] != want {
+				t.Errorf("%v: MolarConversionsOf[%d] = %v, MolarConversionOf(%v) = %v, %v", m, i, got[i], wi, want, err)
+			}
+		}
+	}
+	m := Terminal{0.40, 0.04}
+	if _, err := MolarConversionsOf(m, []float64{0.1, 1.5}, 0.4, 104.152, 53.064); Field(err) != "massConversion[1]" || !errors.Is(err, ErrOutOfRange) {
+		t.Errorf("MolarConversionsOf(w[1] = 1.5) error %v, want one naming massConversion[1]", err)
+	}
+	if _, err := MolarConversionsOf(m, []float64{math.NaN()}, 0.4, 104.152, 53.064); Field(err) != "massConversion[0]" || !errors.Is(err, ErrNotFinite) {
+		t.Errorf("MolarConversionsOf(NaN) error %v, want one naming massConversion[0]", err)
+	}
+	if _, err := MolarConversionsOf(m, make([]float64, MaxMassConversions+1), 0.4, 104.152, 53.064); Field(err) != "massConversion" || !errors.Is(err, ErrTooMany) {
+		t.Errorf("MolarConversionsOf(%d values) error %v, want ErrTooMany naming massConversion", MaxMassConversions+1, err)
 	}
 }

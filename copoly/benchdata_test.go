@@ -528,3 +528,56 @@ func TestLinearMethodWarnings(t *testing.T) {
 		t.Errorf("LinearMethodWarnings = %+v, want one warning for row 3", w)
 	}
 }
+
+// FuzzRunInput converts rows of any numbers in every form. A row that converts gives finite
+// fractions (f10, F1, the uncertainties in [0, 1], a conversion in (0, 1] or 0); a row that
+// does not gives a typed error naming one of the row's fields and wrapping a sentinel.
+func FuzzRunInput(f *testing.F) {
+	// Seeds: the rows of TestRunInputConvert's first cases and edge values.
+	f.Add(uint8(0), uint8(0), uint8(0), 0.5, 0.0, 0.0, 0.3, 0.0, 0.0, 0.0, 0.0, 0.0, uint8(1), 1.0, 0.01, 0.0, 0.0, mStyrene, mAN)
+	f.Add(uint8(1), uint8(2), uint8(1), 0.0, 10.415, 5.306, 0.0, 0.6, 0.0, 0.0, 0.0, 0.1, uint8(2), 1.0, 0.0, 0.0, 0.0, mStyrene, mAN)
+	f.Add(uint8(2), uint8(1), uint8(2), 0.0, 0.1, 0.1, 0.0, 0.0, 500.0, 5.0, 300.0, 0.2, uint8(0), 3.0, 0.0, 0.01, 0.0, 0.0, 0.0)
+	f.Add(uint8(0), uint8(2), uint8(3), 0.5, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.5, uint8(2), 1.0, 0.0, 0.0, 0.0, mStyrene, mAN)
+	f.Add(uint8(1), uint8(3), uint8(4), math.NaN(), math.Inf(1), -1.0, 2.0, -0.0, 1e308, 2.5, 1e-320, 1.0, uint8(3), 0.5, -1.0, 2.0, math.NaN(), 0.0, 1e6)
+	forms := [3][]string{
+		{FeedFraction, FeedMass, FeedMoles, "", "grams"},
+		{ConversionNone, ConversionMolar, ConversionMass, "", "percent"},
+		{CompositionFraction, CompositionMassFraction, CompositionNMR, CompositionElement, "", "ir"},
+	}
+	elements := []string{"N", "Cl", "", "Xx", " S "}
+	fields := map[string]bool{"f10": true, "mass1": true, "mass2": true, "moles1": true, "moles2": true, "conversion": true, "F1": true,
+		"massFraction1": true, "integral1": true, "protons1": true, "integral2": true, "protons2": true, "element": true, "carrier": true,
+		"elementCount": true, "elementPercent": true, "sF": true, "sX": true, "sf": true, "feedKind": true, "conversionKind": true,
+		"compositionKind": true, "molarMass1": true, "molarMass2": true}
+	f.Fuzz(func(t *testing.T, feed, conv, comp uint8, f10, a, b, F1, w1, i1, h1, i2, x float64, el uint8, count, sF, sX, sf, M1, M2 float64) {
+		in := RunInput{
+			FeedKind: forms[0][int(feed)%len(forms[0])], ConversionKind: forms[1][int(conv)%len(forms[1])],
+			CompositionKind: forms[2][int(comp)%len(forms[2])],
+			F10:             f10, Mass1: a, Mass2: b, Moles1: a, Moles2: b, Conversion: x,
+			F1: F1, MassFraction1: w1, Integral1: i1, Protons1: h1, Integral2: i2, Protons2: count,
+			Element: elements[int(el)%len(elements)], Carrier: int(el) % 4, ElementCount: count, ElementPercent: 100 * w1,
+			SF: sF, SX: sX, Sf: sf,
+		}
+		r, err := in.Convert(M1, M2)
+		if err != nil {
+			if !fields[Field(err)] {
+				t.Fatalf("%+v.Convert(%v, %v) error %v names field %q", in, M1, M2, err, Field(err))
+			}
+			if !(errors.Is(err, ErrOutOfRange) || errors.Is(err, ErrNotFinite)) {
+				t.Fatalf("%+v.Convert error %v wraps no sentinel", in, err)
+			}
+			if !strings.HasPrefix(err.Error(), Field(err)) {
+				t.Fatalf("%+v.Convert error %q does not start with its field %q", in, err, Field(err))
+			}
+			return
+		}
+		for _, v := range []float64{r.F10, r.F1, r.Conversion, r.SF, r.SX, r.Sf} {
+			if !(v >= 0 && v <= 1) {
+				t.Fatalf("%+v.Convert(%v, %v) = %+v: a value outside [0, 1] or not finite", in, M1, M2, r)
+			}
+		}
+		if (in.ConversionKind == ConversionMolar || in.ConversionKind == ConversionMass) != (r.Conversion > 0) {
+			t.Fatalf("%+v.Convert = %+v: conversion given and converted disagree", in, r)
+		}
+	})
+}

@@ -2,6 +2,7 @@ package copoly
 
 import (
 	"fmt"
+	"slices"
 	"strings"
 )
 
@@ -230,20 +231,31 @@ func headerKey(h string) string {
 // conversion, F1 or F for the copolymer, sF, sX, sf, label or sample…; case matters only between
 // F and f); without one, the columns are taken in the order of [BenchTable.Columns], after a
 // first text column taken as the label. A header naming the columns of another form (X, mass1,
-// integral1…) switches the table to that form. Unknown header names give an error naming them
-// and change nothing.
+// integral1…) switches the table to that form. A block with a header row but no data rows is
+// an error, and so is a header naming one column twice ("F1" and "F"). A paste that fails (unknown header names, a row wider than the columns, too many
+// rows) returns an error naming "paste" or "table" and changes nothing, not even the form.
 func (t *BenchTable) Paste(text string) error {
 	tab, err := ParseTable(text)
 	if err != nil {
 		return err
 	}
+	if len(tab.Rows) == 0 {
+		return &FieldError{Field: "paste", Reason: fmt.Sprintf("the block holds only a header row (%s) and no rows of data", abbreviate(strings.Join(tab.Header, ", "))), Err: ErrNotTable}
+	}
+	next := *t // the form switches below apply only if the paste succeeds
 	cols := t.Columns()
 	var keys []string
 	if len(tab.Header) > 0 {
 		for _, h := range tab.Header {
 			k := headerKey(strings.TrimSpace(h))
+			if h == "" {
+				return &FieldError{Field: "paste", Reason: fmt.Sprintf("column %d has no name in the header row (%s)", len(keys)+1, abbreviate(strings.Join(tab.Header, ", "))), Err: ErrNotTable}
+			}
 			if k == "" {
 				return &FieldError{Field: "paste", Reason: fmt.Sprintf("unknown column %q; use names such as label, f10, X, F1, sF, sX, sf (or paste without a header in the order %s)", h, strings.Join(cols, ", ")), Err: ErrNotTable}
+			}
+			if j := slices.Index(keys, k); j >= 0 {
+				return &FieldError{Field: "paste", Reason: fmt.Sprintf("columns %d (%q) and %d (%q) are both %s; keep one of them", j+1, tab.Header[j], len(keys)+1, h, k), Err: ErrNotTable}
 			}
 			keys = append(keys, k)
 		}
@@ -251,19 +263,19 @@ func (t *BenchTable) Paste(text string) error {
 		for _, k := range keys {
 			switch k {
 			case ColConversion, ColSX:
-				if t.ConversionKind != ConversionMass {
-					t.ConversionKind = ConversionMolar
+				if next.ConversionKind != ConversionMass {
+					next.ConversionKind = ConversionMolar
 				}
 			case ColMass1, ColMass2:
-				t.FeedKind = FeedMass
+				next.FeedKind = FeedMass
 			case ColMoles1, ColMoles2:
-				t.FeedKind = FeedMoles
+				next.FeedKind = FeedMoles
 			case ColMassFraction1:
-				t.CompositionKind = CompositionMassFraction
+				next.CompositionKind = CompositionMassFraction
 			case ColIntegral1, ColIntegral2, ColProtons1, ColProtons2:
-				t.CompositionKind = CompositionNMR
+				next.CompositionKind = CompositionNMR
 			case ColElementPercent:
-				t.CompositionKind = CompositionElement
+				next.CompositionKind = CompositionElement
 			}
 		}
 	}
@@ -294,6 +306,7 @@ func (t *BenchTable) Paste(text string) error {
 		}
 		rows = append(rows, row)
 	}
-	t.Rows = append(t.Rows, rows...)
+	next.Rows = append(t.Rows[:len(t.Rows):len(t.Rows)], rows...)
+	*t = next
 	return nil
 }

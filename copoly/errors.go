@@ -31,7 +31,7 @@ type InputError struct {
 
 func (e *InputError) Error() string {
 	if math.IsNaN(e.Value) {
-		return fmt.Sprintf("%s is not a number: %s", e.Field, e.Reason)
+		return fmt.Sprintf("%s = NaN (not a number): %s", e.Field, e.Reason)
 	}
 	return fmt.Sprintf("%s = %g: %s", e.Field, e.Value, e.Reason)
 }

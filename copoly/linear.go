@@ -276,12 +276,18 @@ func MayoLewisCurve(run Run) (r1, r2 []float64, err error) {
 	return r1, r2, nil
 }
 
+// MaxIntersectionRuns is the most runs [MayoLewisIntersection] takes: the crossings of every
+// pair of curves grow as the square of the runs (a thousand runs took seconds and megabytes),
+// and a graphical method is read from a handful of curves. [Estimate] skips the method, with a
+// warning, above it.
+const MaxIntersectionRuns = 200
+
 // MayoLewisIntersection estimates r1 and r2 from runs taken to finite conversion by the
 // intersection method: each run gives a curve of consistent (r1, r2) ([MayoLewisCurve]); the
 // estimate is the median of the pairwise crossing points. Two curves cross where they share both
 // r2 and p = (1 − r1)/(1 − r2), so the crossings are found along p. It needs at least two runs
-// with a conversion whose curves cross. Curves returns the curves for plotting, one per usable
-// run.
+// with a conversion whose curves cross, and at most [MaxIntersectionRuns] of them. Curves
+// returns the curves for plotting, one per usable run.
 func MayoLewisIntersection(runs []Run) (r1, r2 float64, curves [][2][]float64, err error) {
 	var vs [][]float64
 	for _, r := range runs {
@@ -297,6 +303,9 @@ func MayoLewisIntersection(runs []Run) (r1, r2 float64, curves [][2][]float64, e
 	}
 	if len(vs) < 2 {
 		return 0, 0, curves, &FieldError{Field: "runs", Reason: "the Mayo–Lewis intersection method needs at least two runs with a conversion", Err: ErrOutOfRange}
+	}
+	if len(vs) > MaxIntersectionRuns {
+		return 0, 0, nil, &InputError{Field: "runs", Value: float64(len(vs)), Reason: fmt.Sprintf("the Mayo–Lewis intersection method, a graphical method, takes at most %d runs with a conversion (it crosses every pair of curves)", MaxIntersectionRuns), Err: ErrTooMany}
 	}
 	var xs, ys []float64
 	for i := range vs {

@@ -1,7 +1,9 @@
 package copoly
 
 import (
+	"errors"
 	"math"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -121,6 +123,35 @@ func TestMayoLewisIntersection(t *testing.T) {
 	}
 	if _, _, _, err := MayoLewisIntersection(instantaneousRuns(Terminal{1, 2}, 0.2, 0.5)); err == nil {
 		t.Error("intersection without conversions gave no error")
+	}
+}
+
+// TestMayoLewisIntersectionLimit: the pairwise method takes at most MaxIntersectionRuns runs
+// with a conversion (MaxIntersectionRuns+1 gives an error naming runs), and Estimate then fits
+// by the other methods with a warning about this one.
+func TestMayoLewisIntersectionLimit(t *testing.T) {
+	m := Terminal{0.52, 0.46}
+	feeds := make([]float64, MaxIntersectionRuns+1)
+	for i := range feeds {
+		feeds[i] = 0.05 + 0.9*float64(i)/float64(len(feeds))
+	}
+	if _, _, _, err := MayoLewisIntersection(cumulativeRuns(m, feeds[:MaxIntersectionRuns], []float64{0.3})); err != nil {
+		t.Errorf("MayoLewisIntersection(%d runs) error %v", MaxIntersectionRuns, err)
+	}
+	runs := cumulativeRuns(m, feeds, []float64{0.3})
+	if _, _, _, err := MayoLewisIntersection(runs); Field(err) != "runs" || !errors.Is(err, ErrTooMany) {
+		t.Errorf("MayoLewisIntersection(%d runs) error %v, want ErrTooMany naming runs", len(runs), err)
+	}
+	e, err := Estimate(runs, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	warned := false
+	for _, w := range e.Warnings {
+		warned = warned || (w.Method == MethodMayoLewis && strings.Contains(w.Message, "at most"))
+	}
+	if e.MayoLewis != nil || !warned || e.Nonlinear == nil {
+		t.Errorf("Estimate(%d runs): intersection %v, warnings %v, nonlinear %v", len(runs), e.MayoLewis, e.Warnings, e.Nonlinear)
 	}
 }
 

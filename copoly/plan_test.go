@@ -2,7 +2,9 @@ package copoly
 
 import (
 	"errors"
+	"fmt"
 	"math"
+	"strings"
 	"testing"
 )
 
@@ -189,6 +191,68 @@ func TestPlanSafety(t *testing.T) {
 	p, _ = MakePlan(in)
 	if !math.IsNaN(p.Safety.Rise) {
 		t.Errorf("no heat given, yet rise %v", p.Safety.Rise)
+	}
+}
+
+// TestPlanBandDegenerateRegion: a region with no or next to no area is an error naming jcr,
+// reached after a bounded number of tries, and too many samples of too long a schedule one
+// naming samples. Before the area check and the work budget, 4096
+// points on a line with 5000 samples made PlanBand try 5 million points against a
+// 4096-edge polygon (minutes in the browser) before giving up.
+func TestPlanBandDegenerateRegion(t *testing.T) {
+	in := stBA(PlanSemibatch)
+	p, err := MakePlan(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	line := make([][2]float64, 4096)
+	for i := range line {
+		line[i] = [2]float64{0.5 + float64(i)*1e-4, 0.1 + float64(i)*1e-4}
+	}
+	// A sliver: a triangle whose area is a millionth of its bounding box, inside the budget's
+	// reach for a few samples but not for MaxBandSamples.
+	sliver := [][2]float64{{0.7, 0.1}, {0.9, 0.3}, {0.9, 0.3 - 2e-7}}
+	for _, c := range []struct {
+		name   string
+		region [][2]float64
+		text   string
+	}{
+		{"points on a line", line, "no area"},
+		{"one point repeated", [][2]float64{{0.8, 0.15}, {0.8, 0.15}, {0.8, 0.15}}, "no area"},
+		{"a sliver", sliver, "too thin"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			_, err := PlanBand(in, p, c.region, MaxBandSamples, 1)
+			if Field(err) != "jcr" || !errors.Is(err, ErrOutOfRange) || !strings.Contains(fmt.Sprint(err), c.text) {
+				t.Errorf("PlanBand(%s) error %v, want one naming jcr saying %q", c.name, err, c.text)
+			}
+		})
+	}
+	// Samples times schedule rows is bounded: the most samples with the most steps is refused
+	// by name, and the most samples with the default steps, or the default samples with the most
+	// steps, are allowed.
+	in.Steps = MaxPlanSteps
+	long, err := MakePlan(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sq := [][2]float64{{0.79, 0.149}, {0.81, 0.149}, {0.81, 0.151}, {0.79, 0.151}}
+	if _, err := PlanBand(in, long, sq, MaxBandSamples, 1); Field(err) != "samples" || !errors.Is(err, ErrTooMany) {
+		t.Errorf("PlanBand(%d samples, %d rows) error %v, want ErrTooMany naming samples", MaxBandSamples, len(long.Schedule), err)
+	}
+	if _, err := PlanBand(in, long, sq, 500, 1); err != nil {
+		t.Errorf("PlanBand(500 samples, %d rows) error %v", len(long.Schedule), err)
+	}
+	in.Steps = 0
+	if _, err := PlanBand(in, p, sq, MaxBandSamples, 1); err != nil {
+		t.Errorf("PlanBand(%d samples, %d rows) error %v", MaxBandSamples, len(p.Schedule), err)
+	}
+
+	// polygonArea of the unit square, and of the square traced in the other direction
+	// (shoelace formula, by hand).
+	unit := [][2]float64{{0, 0}, {1, 0}, {1, 1}, {0, 1}}
+	if a, b := polygonArea(unit), polygonArea([][2]float64{{0, 1}, {1, 1}, {1, 0}, {0, 0}}); a != 1 || b != 1 {
+		t.Errorf("polygonArea(unit square) = %v and %v reversed, want 1", a, b)
 	}
 }
 

@@ -104,14 +104,28 @@ type Band struct {
 	ProductLow, ProductHigh float64
 }
 
-// MaxBandSamples bounds [PlanBand].
-const MaxBandSamples = 5000
+// Limits of [PlanBand]. Each sample replays the whole schedule, so the work grows as samples
+// times schedule rows: MaxBandWork allows the most samples with the default 200 steps, or the
+// default 500 samples with the most steps, but not both (a minute and more in the browser).
+const (
+	MaxBandSamples = 5000
+	MaxBandWork    = 2_000_000 // samples × schedule rows
+)
+
+// bandTestBudget bounds the work of drawing [PlanBand]'s samples: the number of tries times the
+// number of boundary points each inside-the-polygon test visits. A region from a fit (about 50
+// points, more than half its bounding box inside) needs well under 1 % of it for the most
+// samples; a region with next to no area would otherwise try 1000 times per sample.
+const bandTestBudget = 200_000_000
 
 // PlanBand draws samples pairs (r1, r2) uniformly inside the polygon region (the joint
 // confidence region of the ratios, as traced by [FitNonlinear]), runs the plan's schedule with
 // each (see simulate; a batch simply drifts from its charge), and returns the 95 % band of the
 // instantaneous and cumulative composition along the schedule. The sampling is seeded and
-// reproducible.
+// reproducible. A region with no area (its points on a line), or one so thin that fewer than
+// samples of the tries allowed by a fixed work budget fall inside it, gives a [*FieldError]
+// naming "jcr", and samples times the schedule's rows above [MaxBandWork] an error naming
+// "samples"; so the time taken is bounded whatever the input.
 func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint64) (Band, error) {
 	if err := in.validate(); err != nil {
 		return Band{}, err
@@ -132,6 +146,13 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 	if samples < 10 || samples > MaxBandSamples {
 		return Band{}, &InputError{Field: "samples", Value: float64(samples), Reason: fmt.Sprintf("between 10 and %d samples", MaxBandSamples), Err: ErrOutOfRange}
 	}
+	if rows := len(p.Schedule); samples*rows > MaxBandWork {
+		return Band{}, &InputError{Field: "samples", Value: float64(samples), Reason: fmt.Sprintf("%d samples of a schedule of %d rows is more than the %d sample rows a band can take; use fewer samples or steps", samples, rows, MaxBandWork), Err: ErrTooMany}
+	}
+	if !(polygonArea(region) > 1e-12*(hi1-lo1)*(hi2-lo2)) || hi1 == lo1 || hi2 == lo2 {
+		return Band{}, &FieldError{Field: "jcr", Reason: "the region has no area to sample from (its points lie on a line or on each other)", Err: ErrOutOfRange}
+	}
+	maxTries := min(1000*samples, bandTestBudget/len(region))
 	rng := rand.New(rand.NewPCG(seed, 0x6a6372))
 	rows := len(p.Schedule)
 	// A batch drifts smoothly: its band is computed at about 50 rows and interpolated between
@@ -151,7 +172,7 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 	cum := make([][]float64, rows)
 	ad := in.additions(p)
 	drawn, tries := 0, 0
-	for drawn < samples && tries < 1000*samples {
+	for drawn < samples && tries < maxTries {
 		tries++
 		r1 := lo1 + (hi1-lo1)*rng.Float64()
 		r2 := lo2 + (hi2-lo2)*rng.Float64()
@@ -166,7 +187,7 @@ func PlanBand(in PlanInput, p *Plan, region [][2]float64, samples int, seed uint
 		}
 	}
 	if drawn < samples {
-		return Band{}, &FieldError{Field: "jcr", Reason: "the region has no area to sample from", Err: ErrOutOfRange}
+		return Band{}, &FieldError{Field: "jcr", Reason: fmt.Sprintf("the region is too thin to sample: %d of %d tries fell inside it, %d samples were asked for", drawn, tries, samples), Err: ErrOutOfRange}
 	}
 	b := Band{Samples: drawn, InstLow: make([]float64, rows), InstHigh: make([]float64, rows), CumLow: make([]float64, rows), CumHigh: make([]float64, rows)}
 	for _, i := range idx {
@@ -293,6 +314,21 @@ func selectNth(s []float64, from, k int) float64 {
 		}
 	}
 	return s[k]
+}
+
+// polygonArea returns the area enclosed by the closed polygon by the shoelace formula (the
+// absolute value of the signed area; a self-crossing polygon's lobes may cancel).
+//
+//	A = ½ |Σ (xᵢ yᵢ₊₁ − xᵢ₊₁ yᵢ)|
+//
+// References:
+//   - B. Braden, The surveyor's area formula, College Math. J. 1986, 17, 326 (from memory).
+func polygonArea(poly [][2]float64) float64 {
+	var a float64
+	for i, j := 0, len(poly)-1; i < len(poly); j, i = i, i+1 {
+		a += poly[j][0]*poly[i][1] - poly[i][0]*poly[j][1]
+	}
+	return math.Abs(a) / 2
 }
 
 // insidePolygon reports whether (x, y) lies inside the closed polygon (even–odd rule).

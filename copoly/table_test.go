@@ -114,6 +114,17 @@ func FuzzParseNumber(f *testing.F) {
 			if !errors.Is(err, ErrNotNumber) {
 				t.Fatalf("ParseNumber(%q) error %v does not wrap ErrNotNumber", s, err)
 			}
+			// Typed, naming its field and quoting the text (shortened when long).
+			var fe *FieldError
+			if !errors.As(err, &fe) || fe.Field != "number" || !strings.HasPrefix(err.Error(), "number: ") {
+				t.Fatalf("ParseNumber(%q) error %v is not a FieldError naming the field number", s, err)
+			}
+			if !strings.Contains(err.Error(), strconv.Quote(abbreviate(s))) {
+				t.Fatalf("ParseNumber(%q) error %q does not quote the text", s, err)
+			}
+			if _, err := ParseCell("runs[7].F1", s); Field(err) != "runs[7].F1" {
+				t.Fatalf("ParseCell(runs[7].F1, %q) error %v names field %q", s, err, Field(err))
+			}
 			return
 		}
 		if math.IsNaN(v) || math.IsInf(v, 0) {

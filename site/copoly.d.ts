@@ -21,6 +21,28 @@ export interface CopolyError {
   field?: string;  // the input field at fault, e.g. "r1", "f1[3]", "conversion[0]", "project.monomer1.molarMass"
 }
 
+// Limits. Every list, count and text has a maximum, far above real use, checked before any work
+// (and a text's length before it is copied into the module); above it the result is a
+// CopolyError naming the field, the value and the limit, e.g.
+//   {error: "f1 = 1e+06: at most 100000 values per call", field: "f1"}.
+//   lists of numbers (f1, conversion) ....... 100 000 values; drift conversion with basis "mass": 1000;
+//                                              nextRuns conversions: 20
+//   runs of fit and nextRuns, discriminate runs, bench.rows ... 1000
+//   bench row: 64 cells, each ≤ 200 characters; label ≤ 200; pasteBench text ≤ 1 MiB, 64 columns
+//   averages bins or slices ................. 10 000
+//   jcr ...................................... 4096 points; timeTable 1000 rows
+//   bins (drift, chains) 1–200; sequence maxLength 1–1000; seed a whole number 0 … 2⁵³ − 1
+//   chains, sample chains ................... count ≤ 1000, length ≤ 10 000
+//   chains, simulation ...................... count ≤ 100 000, length ≤ 10 000, dpn ≤ 100 000,
+//                                              count × (dpn or length) ≤ 2·10⁷ units
+//   plan .................................... steps ≤ 2000, shots ≤ 500, samples 10–5000,
+//                                              samples × schedule rows ≤ 2·10⁶
+//   importProject json ...................... 1 MiB; a project's names 200 characters, ratioSource
+//                                              1000, notes 100 000 bytes, savedAt 64, userMonomers 100
+//                                              (20 hazards each)
+//   one-word options (model, mode, basis, feed, kinds) 32 characters
+// fit skips the Mayo–Lewis intersection method, with a warning, above 200 runs with a conversion.
+
 export interface Classification {
   kind: "ideal" | "alternating" | "strongly-alternating" | "block" | "homopolymer-mixture";
   product: number;        // r1·r2

@@ -173,13 +173,12 @@ func drift(arg js.Value) (any, error) {
 	var conversionMass []float64
 	if basis == "mass" {
 		conversionMass = in.Conversion
-		conversion = make([]float64, len(in.Conversion))
-		for i, w := range in.Conversion {
-			x, err := copoly.MolarConversionOf(m, w, in.F10, mm1, mm2)
-			if err != nil {
-				return nil, renameField(err, "massConversion", fmt.Sprintf("conversion[%d]", i))
+		if conversion, err = copoly.MolarConversionsOf(m, in.Conversion, in.F10, mm1, mm2); err != nil {
+			// "massConversion[3]" is the caller's "conversion[3]".
+			if f := copoly.Field(err); strings.HasPrefix(f, "massConversion") {
+				return nil, renameField(err, f, "conversion"+strings.TrimPrefix(f, "massConversion"))
 			}
-			conversion[i] = x
+			return nil, err
 		}
 	}
 	d, err := copoly.DriftOf(m, in.F10, conversion)
@@ -452,7 +451,7 @@ func averages(arg js.Value) (any, error) {
 			return nil, sliceField(err)
 		}
 	default:
-		return nil, &copoly.FieldError{Field: "bins", Reason: "give the molar-mass classes (bins) or the chromatogram slices (slices)", Err: errMissing}
+		return nil, &copoly.FieldError{Field: "bins", Reason: "is missing: give the molar-mass classes (bins) or the chromatogram slices (slices)", Err: errMissing}
 	}
 	out := averagesOut{Mn: a.Mn, Mw: a.Mw, Mz: a.Mz, Dispersity: a.Dispersity}
 	if in.F1 != nil && masses {

@@ -11,6 +11,7 @@ import (
 	"slices"
 	"strings"
 	"syscall/js"
+	"unicode/utf8"
 
 	"github.com/norunners/vert"
 
@@ -146,7 +147,7 @@ type feedOut struct {
 type driftIn struct {
 	F10        float64   `js:"f10"`
 	Conversion []float64 `js:"conversion"`
-	Basis      *string   `js:"basis"`
+	Basis      *string   `js:"basis" limit:"word"`
 	MolarMass1 *float64  `js:"molarMass1"`
 	MolarMass2 *float64  `js:"molarMass2"`
 	Tolerance  *float64  `js:"tolerance"`
@@ -706,8 +707,8 @@ type nextRunsOut struct {
 }
 
 type qeIn struct {
-	Monomer1 string `js:"monomer1"`
-	Monomer2 string `js:"monomer2"`
+	Monomer1 string `js:"monomer1" limit:"name"`
+	Monomer2 string `js:"monomer2" limit:"name"`
 }
 
 type qeOut struct {
@@ -731,13 +732,13 @@ type planIn struct {
 	MolarMass1      float64     `js:"molarMass1"`
 	MolarMass2      float64     `js:"molarMass2"`
 	PolymerMass     float64     `js:"polymerMass"`
-	Mode            string      `js:"mode"`
-	Monomer1        *string     `js:"monomer1"`
-	Monomer2        *string     `js:"monomer2"`
+	Mode            string      `js:"mode" limit:"word"`
+	Monomer1        *string     `js:"monomer1" limit:"name"`
+	Monomer2        *string     `js:"monomer2" limit:"name"`
 	Tolerance       *float64    `js:"tolerance"`
 	StopConversion  *float64    `js:"stopConversion"`
 	FinalConversion *float64    `js:"finalConversion"`
-	Feed            *string     `js:"feed"`
+	Feed            *string     `js:"feed" limit:"word"`
 	FeedF1          *float64    `js:"feedF1"`
 	Shots           *float64    `js:"shots"`
 	Steps           *float64    `js:"steps"`
@@ -979,27 +980,27 @@ func nonFinite(v any) string {
 
 // projectMonomerDTO is one monomer of a Project.
 type projectMonomerDTO struct {
-	Name      string  `js:"name" copoly:"optional"`
+	Name      string  `js:"name" copoly:"optional" limit:"name"`
 	MolarMass float64 `js:"molarMass" copoly:"optional"`
 }
 
 // projectDTO is the Project of the d.ts, both ways. Version is a float64 so that 1.5 can be
 // refused by name instead of being truncated.
 type projectDTO struct {
-	Format      string            `js:"format"`
+	Format      string            `js:"format" limit:"word"`
 	Version     float64           `js:"version"`
-	Name        string            `js:"name" copoly:"optional"`
+	Name        string            `js:"name" copoly:"optional" limit:"name"`
 	Monomer1    projectMonomerDTO `js:"monomer1"`
 	Monomer2    projectMonomerDTO `js:"monomer2"`
 	R1          float64           `js:"r1"`
 	R2          float64           `js:"r2"`
-	RatioSource string            `js:"ratioSource" copoly:"optional"`
+	RatioSource string            `js:"ratioSource" copoly:"optional" limit:"source"`
 	F10         float64           `js:"f10"`
 	Conversion  float64           `js:"conversion"`
 	Tolerance   float64           `js:"tolerance"`
-	Notes       string            `js:"notes" copoly:"optional"`
+	Notes       string            `js:"notes" copoly:"optional" limit:"notes"`
 	Invented    bool              `js:"invented" copoly:"optional"`
-	SavedAt     string            `js:"savedAt" copoly:"optional"`
+	SavedAt     string            `js:"savedAt" copoly:"optional" limit:"stamp"`
 	Bench       *benchDTO         `js:"bench"`
 	Level       float64           `js:"level" copoly:"optional"`
 	JCR         [][]float64       `js:"jcr" copoly:"optional" limit:"jcr"`
@@ -1055,16 +1056,16 @@ func sizeBins(ds []sizeBinDTO) []project.SizeBin {
 // userMonomerDTO is one UserMonomer of a Project, both ways. Only the name is required; an
 // absent number is 0 (not given), an absent state or note "", absent hazards none.
 type userMonomerDTO struct {
-	Name        string   `js:"name"`
+	Name        string   `js:"name" limit:"name"`
 	MolarMass   float64  `js:"molarMass" copoly:"optional"`
 	Density     float64  `js:"density" copoly:"optional"`
 	DensityTemp float64  `js:"densityTemp" copoly:"optional"`
-	State       string   `js:"state" copoly:"optional"`
+	State       string   `js:"state" copoly:"optional" limit:"word"`
 	Heat        float64  `js:"heat" copoly:"optional"`
 	Q           float64  `js:"q" copoly:"optional"`
 	E           float64  `js:"e" copoly:"optional"`
-	Hazards     []string `js:"hazards" copoly:"optional" limit:"hazards"`
-	Note        string   `js:"note" copoly:"optional"`
+	Hazards     []string `js:"hazards" copoly:"optional" limit:"hazards" each:"hazard"`
+	Note        string   `js:"note" copoly:"optional" limit:"source"`
 }
 
 // userMonomers converts the user monomers read from JavaScript (validated with the project).
@@ -1098,16 +1099,16 @@ func userMonomersOut(ms []project.UserMonomer) []userMonomerDTO {
 // is optional (0 or "" = not given, as in project.Plan). Shots is a float64 so that 2.5 can be
 // refused by name instead of being truncated.
 type projectPlanDTO struct {
-	Mode            string      `js:"mode" copoly:"optional"`
+	Mode            string      `js:"mode" copoly:"optional" limit:"word"`
 	TargetF1        float64     `js:"targetF1" copoly:"optional"`
 	PolymerMass     float64     `js:"polymerMass" copoly:"optional"`
 	Tolerance       float64     `js:"tolerance" copoly:"optional"`
 	StopConversion  float64     `js:"stopConversion" copoly:"optional"`
 	FinalConversion float64     `js:"finalConversion" copoly:"optional"`
-	Feed            string      `js:"feed" copoly:"optional"`
+	Feed            string      `js:"feed" copoly:"optional" limit:"word"`
 	FeedF1          float64     `js:"feedF1" copoly:"optional"`
 	Shots           float64     `js:"shots" copoly:"optional"`
-	RateLaw         string      `js:"rateLaw" copoly:"optional"`
+	RateLaw         string      `js:"rateLaw" copoly:"optional" limit:"word"`
 	RateConstant    float64     `js:"rateConstant" copoly:"optional"`
 	HalfLife        float64     `js:"halfLife" copoly:"optional"`
 	TimeTable       [][]float64 `js:"timeTable" copoly:"optional" limit:"timeTable" pair:"time, conversion"`
@@ -1184,18 +1185,18 @@ func planValue(pl project.Plan) js.Value {
 // rows are required: the kinds default to "" (the first form of each), the element fields to
 // "" and 0.
 type benchDTO struct {
-	FeedKind        string        `js:"feedKind" copoly:"optional"`
-	ConversionKind  string        `js:"conversionKind" copoly:"optional"`
-	CompositionKind string        `js:"compositionKind" copoly:"optional"`
-	Element         string        `js:"element" copoly:"optional"`
+	FeedKind        string        `js:"feedKind" copoly:"optional" limit:"word"`
+	ConversionKind  string        `js:"conversionKind" copoly:"optional" limit:"word"`
+	CompositionKind string        `js:"compositionKind" copoly:"optional" limit:"word"`
+	Element         string        `js:"element" copoly:"optional" limit:"cell"`
 	Carrier         float64       `js:"carrier" copoly:"optional"`
 	ElementCount    float64       `js:"elementCount" copoly:"optional"`
 	Rows            []benchRowDTO `js:"rows" limit:"rows"`
 }
 
 type benchRowDTO struct {
-	Label string            `js:"label" copoly:"optional"`
-	Cells map[string]string `js:"cells" copoly:"optional" limit:"cells"`
+	Label string            `js:"label" copoly:"optional" limit:"label"`
+	Cells map[string]string `js:"cells" copoly:"optional" limit:"cells" each:"cell"`
 }
 
 // benchHeadOut is a BenchTable without its rows; benchValue adds them with their cells in a
@@ -1254,7 +1255,7 @@ type projectIn struct {
 }
 
 type importIn struct {
-	JSON string `js:"json"`
+	JSON string `js:"json" limit:"json"`
 }
 
 func (d projectDTO) project() (project.Project, error) {
@@ -1433,15 +1434,13 @@ func snapshot(v js.Value, t reflect.Type, prefix string) (js.Value, error) {
 			if optional {
 				continue
 			}
-			return js.Value{}, &copoly.FieldError{Field: field, Reason: "is missing", Err: errMissing}
-		}
-		limit := 0
-		if name := sf.Tag.Get("limit"); name != "" {
-			if limit = limits[name]; limit == 0 {
-				panic("copoly: decode has no limit named " + name)
+			reason := "is missing"
+			if fv.IsNull() {
+				reason = "is missing (null)"
 			}
+			return js.Value{}, &copoly.FieldError{Field: field, Reason: reason, Err: errMissing}
 		}
-		cv, err := copyValue(fv, ft, field, limit, sf.Tag.Get("pair"))
+		cv, err := copyValue(fv, ft, field, limitOf(sf, "limit"), limitOf(sf, "each"), sf.Tag.Get("pair"))
 		if err != nil {
 			return js.Value{}, err
 		}
@@ -1466,18 +1465,48 @@ var limits = map[string]int{
 	"triads":   project.MaxTriadRows,      // = copoly.MaxTriadRuns
 	"sizeBins": project.MaxSizeBins,       // = copoly.MaxAverageRows
 	"word":     project.MaxPlanWordLength, // a one-word option such as "model"
+
+	// Texts whose limit copoly counts in characters (runes) or UTF-8 bytes: the bridge counts
+	// UTF-16 code units, of which a rune takes at most two and at most as many as its UTF-8
+	// bytes, so these never refuse a text copoly would accept. copoly then applies its own
+	// limit, with its own message.
+	"name":   2 * project.MaxNameLength,
+	"source": 2 * project.MaxSourceLength,
+	"label":  2 * project.MaxLabelLength,
+	"cell":   2 * project.MaxCellLength,
+	"hazard": 2 * project.MaxHazardLength,
+	"notes":  project.MaxNotesBytes,
+	"stamp":  project.MaxSavedAtLength, // ASCII: units are characters
+	"json":   project.MaxFileBytes,
+}
+
+// limitOf returns the limit named by the struct tag key of sf, 0 when there is no such tag, and
+// panics on a name that is not in limits (a bridge bug).
+func limitOf(sf reflect.StructField, key string) int {
+	name := sf.Tag.Get(key)
+	if name == "" {
+		return 0
+	}
+	limit := limits[name]
+	if limit == 0 {
+		panic("copoly: decode has no limit named " + name)
+	}
+	return limit
 }
 
 // copyValue checks one present JS value against the Go type it will be converted to and
-// returns it, or a plain copy for objects and arrays. limit is the size limit of the field, 0
-// for none (or the default of a list of numbers).
+// returns it, or a plain copy for objects and arrays. limit is the size limit of the field
+// (from its limit:"…" tag): the length of a text, or the entries of a list or map; 0 for none,
+// which only a list of numbers may have (it then takes copoly.MaxPoints). each is the length
+// limit of every text of a list or map of texts (the each:"…" tag).
 //
 // It reads float64, string, bool, structs, []float64, [][]float64 (a list of pairs, each
 // exactly two numbers; pair names the two in messages, from the field's pair:"…" tag, "r1, r2"
 // when empty), slices of structs (each entry read as an object, named field[i]), []string (a
 // list of texts, named field[i]) and map[string]string (an object whose values are all texts,
-// named field.key).
-func copyValue(v js.Value, t reflect.Type, field string, limit int, pair string) (js.Value, error) {
+// named field.key). A field of another type, or a text, list or map without its limits, is a
+// bridge bug: copyValue panics, and TestDecodeLimits finds it without a call.
+func copyValue(v js.Value, t reflect.Type, field string, limit, each int, pair string) (js.Value, error) {
 	jt, ok := typeOf(v)
 	switch t.Kind() {
 	case reflect.Float64:
@@ -1486,15 +1515,9 @@ func copyValue(v js.Value, t reflect.Type, field string, limit int, pair string)
 		}
 		return js.Value{}, wrongType(field, "a number", v)
 	case reflect.String:
-		if ok && jt == js.TypeString {
-			// The length of a primitive string is read through its String wrapper, without
-			// copying the text into Go.
-			if n := object.Invoke(v).Length(); limit > 0 && n > limit {
-				return js.Value{}, &copoly.InputError{Field: field, Value: float64(n), Reason: fmt.Sprintf("the text is %d characters long; the limit is %d", n, limit), Err: copoly.ErrTooMany}
-			}
-			return v, nil
+		if limit > 0 {
+			return copyText(v, field, limit)
 		}
-		return js.Value{}, wrongType(field, "text", v)
 	case reflect.Bool:
 		if ok && jt == js.TypeBoolean {
 			return v, nil
@@ -1517,18 +1540,18 @@ func copyValue(v js.Value, t reflect.Type, field string, limit int, pair string)
 				pair = "r1, r2"
 			}
 			return copyList(v, field, limit, "a list of ["+pair+"] pairs", func(e js.Value, f string) (js.Value, error) {
+				if jt, ok := typeOf(e); !ok || jt != js.TypeObject || !(isArray(e) || isNumberView(e)) {
+					return js.Value{}, wrongType(f, "a pair ["+pair+"] of two numbers", e)
+				}
 				cp, err := copyNumbers(e, f, 2)
 				if errors.Is(err, copoly.ErrTooMany) || err == nil && cp.Length() != 2 {
 					return js.Value{}, &copoly.FieldError{Field: f, Reason: "must be a pair [" + pair + "] of two numbers", Err: errWrongType}
 				}
 				return cp, err
 			})
-		case et.Kind() == reflect.String && limit > 0:
+		case et.Kind() == reflect.String && limit > 0 && each > 0:
 			return copyList(v, field, limit, "a list of texts", func(e js.Value, f string) (js.Value, error) {
-				if jt, ok := typeOf(e); !ok || jt != js.TypeString {
-					return js.Value{}, wrongType(f, "text", e)
-				}
-				return e, nil
+				return copyText(e, f, each)
 			})
 		case et.Kind() == reflect.Struct && limit > 0:
 			return copyList(v, field, limit, "a list of objects", func(e js.Value, f string) (js.Value, error) {
@@ -1539,11 +1562,32 @@ func copyValue(v js.Value, t reflect.Type, field string, limit int, pair string)
 			})
 		}
 	case reflect.Map:
-		if t.Key().Kind() == reflect.String && t.Elem().Kind() == reflect.String && limit > 0 {
-			return copyTexts(v, field, limit)
+		if t.Key().Kind() == reflect.String && t.Elem().Kind() == reflect.String && limit > 0 && each > 0 {
+			return copyTexts(v, field, limit, each)
 		}
 	}
-	panic("copoly: decode cannot read a " + t.String() + " (or it lacks a limit tag)")
+	panic("copoly: decode cannot read a " + t.String() + " (or it lacks a limit or each tag)")
+}
+
+// copyText returns v when it is a text of at most limit UTF-16 code units. The length of a
+// primitive string is read through its String wrapper, so a text too long is refused without
+// being copied into Go.
+func copyText(v js.Value, field string, limit int) (js.Value, error) {
+	if jt, ok := typeOf(v); !ok || jt != js.TypeString {
+		return js.Value{}, wrongType(field, "text", v)
+	}
+	if n := textLength(v); n > limit {
+		return js.Value{}, tooLong(field, n, limit)
+	}
+	return v, nil
+}
+
+// textLength returns the length of the JS string v in UTF-16 code units, read through its
+// String wrapper (syscall/js reads lengths of objects only) without copying the text into Go.
+func textLength(v js.Value) int { return object.Invoke(v).Length() }
+
+func tooLong(field string, n, limit int) error {
+	return &copoly.InputError{Field: field, Value: float64(n), Reason: fmt.Sprintf("the text is %d characters long; the limit is %d", n, limit), Err: copoly.ErrTooMany}
 }
 
 // copyNumbers returns a plain Array copy of v, an Array or typed array of at most limit
@@ -1609,10 +1653,11 @@ func copyArray(v js.Value, field string, limit int, unit, want string) (js.Value
 	return cp, nil
 }
 
-// copyTexts returns a copy of the object v, whose own enumerable keys (at most limit) must all
-// hold texts. The copy has no prototype, so a key such as "__proto__" stays an ordinary key
-// and reaches the checks of the caller instead of vanishing.
-func copyTexts(v js.Value, field string, limit int) (js.Value, error) {
+// copyTexts returns a copy of the object v, whose own enumerable keys (at most limit, each at
+// most each characters long) must all hold texts of at most each characters. The copy has no
+// prototype, so a key such as "__proto__" stays an ordinary key and reaches the checks of the
+// caller instead of vanishing.
+func copyTexts(v js.Value, field string, limit, each int) (js.Value, error) {
 	if jt, ok := typeOf(v); !ok || jt != js.TypeObject || isArray(v) {
 		return js.Value{}, wrongType(field, "an object of texts", v)
 	}
@@ -1626,13 +1671,17 @@ func copyTexts(v js.Value, field string, limit int) (js.Value, error) {
 	}
 	cp := object.Call("create", js.Null())
 	for i := range n {
-		k := keys.Index(i).String()
+		key := keys.Index(i)
+		if m := textLength(key); m > each {
+			return js.Value{}, &copoly.FieldError{Field: field, Reason: fmt.Sprintf("has a key %d characters long (%s); the limit is %d", m, describeText(key), each), Err: copoly.ErrTooMany}
+		}
+		k := key.String()
 		e, err := get(v, k, field+"."+k)
 		if err != nil {
 			return js.Value{}, err
 		}
-		if et, ok := typeOf(e); !ok || et != js.TypeString {
-			return js.Value{}, wrongType(field+"."+k, "text", e)
+		if _, err := copyText(e, field+"."+k, each); err != nil {
+			return js.Value{}, err
 		}
 		cp.Set(k, e)
 	}
@@ -1694,6 +1743,20 @@ func wrongType(field, want string, v js.Value) error {
 	return &copoly.FieldError{Field: field, Reason: "must be " + want + ", not " + describe(v), Err: errWrongType}
 }
 
+// describeText quotes the JS string v for a message, shortened to 40 characters: only that
+// much is copied into Go, however long the text.
+func describeText(v js.Value) string {
+	const n = 40
+	if textLength(v) <= n {
+		return fmt.Sprintf("%q", v.String())
+	}
+	s := []rune(object.Invoke(v).Call("slice", 0, n).String())
+	if len(s) > 0 && s[len(s)-1] == utf8.RuneError {
+		s = s[:len(s)-1] // half of a surrogate pair, cut by the slice
+	}
+	return fmt.Sprintf("%q", string(s)+"…")
+}
+
 // describe names a JS value for an error message.
 func describe(v js.Value) string {
 	t, ok := typeOf(v)
@@ -1710,11 +1773,7 @@ func describe(v js.Value) string {
 	case js.TypeNumber:
 		return fmt.Sprintf("the number %g", v.Float())
 	case js.TypeString:
-		s := v.String()
-		if len(s) > 40 {
-			s = s[:40] + "…"
-		}
-		return fmt.Sprintf("the text %q", s)
+		return "the text " + describeText(v)
 	case js.TypeFunction:
 		return "a function"
 	case js.TypeSymbol:

@@ -684,7 +684,7 @@ func TestProjectWithBench(t *testing.T) {
 		{"jcr point negative", `a.project.jcr[3] = [0.1, -0.2]`, "project.jcr[3]", "negative"},
 		{"jcr point NaN", `a.project.jcr[0] = [NaN, 0.2]`, "project.jcr[0]", "finite"},
 		{"jcr too many", `a.project.jcr = new Array(4097).fill([0.5, 0.5])`, "project.jcr", "at most 4096"},
-		{"jcr a list of numbers", `a.project.jcr = [0.5, 0.5]`, "project.jcr[0]", "a list of numbers"},
+		{"jcr a list of numbers", `a.project.jcr = [0.5, 0.5]`, "project.jcr[0]", "a pair [r1, r2] of two numbers"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			bad := edited(arg, c.edit)

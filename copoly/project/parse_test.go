@@ -3,6 +3,8 @@ package project
 import (
 	"bytes"
 	"errors"
+	"fmt"
+	"math"
 	"reflect"
 	"strings"
 	"testing"
@@ -89,6 +91,43 @@ func TestMarshalRefusesInvalid(t *testing.T) {
 	p.R1 = -1
 	if data, err := Marshal(p); err == nil || copoly.Field(err) != "project.r1" {
 		t.Errorf("Marshal(r1 = -1) = %q, %v, want an error for project.r1", data, err)
+	}
+}
+
+// TestValidateRefusesInvalidUTF8 is the regression test of a FuzzProjectRoundTrip finding: a
+// project built in Go with bytes that are not UTF-8 in a text field passed Validate, but
+// Marshal writes U+FFFD in their place, so Parse(Marshal(p)) was not p.
+func TestValidateRefusesInvalidUTF8(t *testing.T) {
+	tests := []struct {
+		name  string
+		edit  func(p *Project)
+		field string
+	}{
+		{"name", func(p *Project) { p.Name = "run \xff" }, "project.name"},
+		{"monomer name", func(p *Project) { p.Monomer2.Name = "\xed\xa0\x80" }, "project.monomer2.name"},
+		{"notes", func(p *Project) { p.Notes = "ok\xc1" }, "project.notes"},
+		{"bench cell", func(p *Project) { p.Bench.Rows[0].Cells[copoly.ColF1] = "\xc1" }, "project.bench.rows[0].cells.F1"},
+		{"bench label", func(p *Project) { p.Bench.Rows[2].Label = "\x80" }, "project.bench.rows[2].label"},
+		{"hazard", func(p *Project) { p.UserMonomers = []UserMonomer{{Name: "X", Hazards: []string{"\xfe"}}} }, "project.userMonomers[0].hazards[0]"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			p := Demo()
+			tt.edit(&p)
+			err := p.Validate()
+			if copoly.Field(err) != tt.field || !errors.Is(err, ErrWrongType) || !strings.Contains(fmt.Sprint(err), "not valid UTF-8") {
+				t.Errorf("Validate() = %v (field %q), want an ErrWrongType for %s", err, copoly.Field(err), tt.field)
+			}
+			if _, err := Marshal(p); copoly.Field(err) != tt.field {
+				t.Errorf("Marshal() error %v, want one naming %s", err, tt.field)
+			}
+		})
+	}
+	// U+FFFD itself is ordinary text.
+	p := Demo()
+	p.Name = "\uFFFD"
+	if err := p.Validate(); err != nil {
+		t.Errorf("Validate(name U+FFFD) = %v", err)
 	}
 }
 
@@ -285,8 +324,11 @@ func FuzzParse(f *testing.F) {
 	f.Fuzz(func(t *testing.T, data []byte) {
 		p, err := Parse(data)
 		if err != nil {
-			if copoly.Field(err) == "" {
-				t.Errorf("Parse(%q) error %q names no field", data, err)
+			// Typed (copoly.Field finds an InputError or FieldError), naming a field of the
+			// project, which the message starts with.
+			f := copoly.Field(err)
+			if f != "project" && !strings.HasPrefix(f, "project.") || !strings.HasPrefix(err.Error(), f) {
+				t.Errorf("Parse(%q) error %q names field %q, want project or project.…", data, err, f)
 			}
 			return
 		}
@@ -306,6 +348,74 @@ func FuzzParse(f *testing.F) {
 		}
 		if out2, _ := Marshal(again); !bytes.Equal(out, out2) {
 			t.Fatalf("Marshal is not stable:\n%s\n%s", out, out2)
+		}
+	})
+}
+
+// FuzzProjectRoundTrip builds projects from the demo with fuzzed text and numbers in every kind
+// of field. A project Validate refuses must be refused by Marshal with the same error, typed and
+// naming a field under "project"; a project Validate accepts must come back from Marshal and
+// Parse deeply equal, round trip after round trip, with the same file each time.
+func FuzzProjectRoundTrip(f *testing.F) {
+	d := Demo()
+	f.Add(d.Name, d.Notes, d.RatioSource, "HL-09", "0,35", uint8(0), d.R1, d.R2, d.F10, d.Conversion, d.Tolerance,
+		d.Monomer1.MolarMass, 0.95, 0.7, 0.12, 0.9, 70.0, 30.0, 0.4, "semibatch", "flammable", "2026-01-02T03:04:05Z")
+	f.Add("", "", "", "", "", uint8(3), 0.0, 1e4, 1e-300, 1.0, 0.5, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, "", "x", "")
+	f.Add("\xff", "a\x00b", "\xed\xa0\x80", "\u2028", "\"", uint8(7), -0.0, 1e4+1, 1.0, 0.0, 0.0, -1.0, 1.0, -0.0, math.NaN(), math.Inf(1), 1001.0, -1.0, 1.5, "Batch", " ", "2026-13-01")
+	f.Add(strings.Repeat("é", MaxNameLength), strings.Repeat("\u00e9", MaxNotesBytes/2), "s", strings.Repeat("x", MaxLabelLength+1), strings.Repeat("9", MaxCellLength),
+		uint8(15), 5e-324, math.MaxFloat64, 0.999999999, 1e-300, 0.49999, 999999.9, 1e-10, 1e308, 1e-308, 1e-7, 999.999, 1e15, 1.0, "shots", strings.Repeat("h", MaxHazardLength+1), "2026-01-02T03:04:05.123456789+14:00")
+	keys := []string{copoly.ColF10, copoly.ColMass1, copoly.ColMass2, copoly.ColMoles1, copoly.ColMoles2, copoly.ColConversion, copoly.ColF1,
+		copoly.ColMassFraction1, copoly.ColIntegral1, copoly.ColProtons1, copoly.ColIntegral2, copoly.ColProtons2,
+		copoly.ColElementPercent, copoly.ColSF, copoly.ColSX, copoly.ColSf, "label", "F", ""}
+	f.Fuzz(func(t *testing.T, name, notes, source, label, cell string, key uint8, r1, r2, f10, conv, tol, mm, level, j1, j2, r11, heat, tt0, tt1 float64,
+		mode, hazard, savedAt string) {
+		p := Demo()
+		p.Name, p.Notes, p.RatioSource, p.SavedAt = name, notes, source, savedAt
+		p.R1, p.R2, p.F10, p.Conversion, p.Tolerance, p.Level = r1, r2, f10, conv, tol, level
+		p.Monomer1.MolarMass = mm
+		p.Monomer2.Name = hazard
+		p.Bench.Rows = append(p.Bench.Rows, BenchRow{Label: label, Cells: map[string]string{keys[int(key)%len(keys)]: cell}})
+		p.JCR = [][2]float64{{j1, j2}, {j2, j1}, {r1, r2}}
+		p.Model = &Model{Kind: ModelPenultimate, R11: &r11, R22: &j2}
+		p.Triads = []TriadRow{{F10: f10, F1: &j1, A112: &level}}
+		p.SizeBins = []SizeBin{{Low: j1, High: j2, WeightFraction: level}}
+		p.Plan.Mode, p.Plan.Heat1, p.Plan.TimeTable = mode, heat, [][2]float64{{0, 0}, {tt0, tt1}}
+		p.UserMonomers = []UserMonomer{{Name: name, MolarMass: mm, Heat: heat, Q: j1, E: -j2, Hazards: []string{hazard}, Note: source}}
+
+		verr := p.Validate()
+		data, merr := Marshal(p)
+		if verr != nil {
+			if merr == nil || merr.Error() != verr.Error() {
+				t.Fatalf("Validate error %v, but Marshal error %v", verr, merr)
+			}
+			field := copoly.Field(verr)
+			if field != "project" && !strings.HasPrefix(field, "project.") {
+				t.Fatalf("Validate error %v names field %q", verr, field)
+			}
+			if !strings.HasPrefix(verr.Error(), field) {
+				t.Fatalf("Validate error %q does not start with its field %q", verr, field)
+			}
+			return
+		}
+		if merr != nil {
+			if errors.Is(merr, ErrTooLong) && copoly.Field(merr) == "project" {
+				return // a valid project whose file would pass MaxFileBytes
+			}
+			t.Fatalf("Validate accepted the project but Marshal error %v", merr)
+		}
+		for round := 1; round <= 3; round++ {
+			next, err := Parse(data)
+			if err != nil {
+				t.Fatalf("round %d: Parse(Marshal(p)) error %v\n%s", round, err, data)
+			}
+			if !reflect.DeepEqual(next, p) {
+				t.Fatalf("round %d changed the project:\n%+v\n%+v", round, p, next)
+			}
+			again, err := Marshal(next)
+			if err != nil || !bytes.Equal(again, data) {
+				t.Fatalf("round %d: Marshal gave another file (%v):\n%s\n%s", round, err, data, again)
+			}
+			data = again
 		}
 	})
 }

@@ -86,6 +86,9 @@ const (
 	MaxNameLength   = 200     // characters in the project name and in each monomer name
 	MaxSourceLength = 1000    // characters in RatioSource
 	MaxNotesBytes   = 100_000 // bytes (UTF-8) in Notes
+	// MaxSavedAtLength bounds SavedAt: RFC 3339 with nanoseconds and an offset takes 35
+	// characters, but time.Parse takes any number of digits of a second.
+	MaxSavedAtLength = 64
 )
 
 // Sentinel errors wrapped by the errors of this package; test for them with errors.Is.
@@ -217,7 +220,13 @@ func (p Project) Validate() error {
 	if len(p.Notes) > MaxNotesBytes {
 		return &copoly.FieldError{Field: "project.notes", Reason: fmt.Sprintf("the notes take %d bytes; the limit is %d", len(p.Notes), MaxNotesBytes), Err: ErrTooLong}
 	}
+	if err := checkUTF8("project.notes", p.Notes); err != nil {
+		return err
+	}
 	if p.SavedAt != "" {
+		if err := checkText("project.savedAt", p.SavedAt, MaxSavedAtLength); err != nil {
+			return err
+		}
 		if _, err := time.Parse(time.RFC3339, p.SavedAt); err != nil {
 			return &copoly.FieldError{Field: "project.savedAt", Reason: fmt.Sprintf("%q is not a date and time in RFC 3339 form", p.SavedAt), Err: ErrWrongType}
 		}
@@ -267,12 +276,30 @@ func checkVersion(v float64) error {
 	}
 }
 
-// checkText reports a text longer than max characters.
+// checkText reports a text longer than max characters, or one that is not valid UTF-8.
 func checkText(field, s string, max int) error {
 	if n := utf8.RuneCountInString(s); n > max {
 		return &copoly.FieldError{Field: field, Reason: fmt.Sprintf("is %d characters long; the limit is %d", n, max), Err: ErrTooLong}
 	}
-	return nil
+	return checkUTF8(field, s)
+}
+
+// checkUTF8 reports a text that is not valid UTF-8. JSON cannot carry such bytes (Marshal would
+// write U+FFFD in their place), so a project holding them would not read back as it was
+// saved; JavaScript text and Parse never produce them, only a Go caller can.
+func checkUTF8(field, s string) error {
+	if utf8.ValidString(s) {
+		return nil
+	}
+	at := 0
+	for at < len(s) {
+		r, size := utf8.DecodeRuneInString(s[at:])
+		if r == utf8.RuneError && size == 1 {
+			break
+		}
+		at += size
+	}
+	return &copoly.FieldError{Field: field, Reason: fmt.Sprintf("is not valid UTF-8 text (byte %d is 0x%02x)", at, s[at]), Err: ErrWrongType}
 }
 
 // Demo returns the built-in demo project. Its lab, trial and runs are invented; Invented is

@@ -66,6 +66,8 @@ func TestValidate(t *testing.T) {
 		{name: "name at limit", edit: func(p *Project) { p.Name = strings.Repeat("é", MaxNameLength) }},
 		{name: "notes at limit", edit: func(p *Project) { p.Notes = strings.Repeat("n", MaxNotesBytes) }},
 		{name: "saved at", edit: func(p *Project) { p.SavedAt = "2026-01-02T03:04:05Z" }},
+		// RFC 3339 with nanoseconds and an offset, 35 characters (RFC 3339 section 5.6 grammar).
+		{name: "saved at with nanoseconds", edit: func(p *Project) { p.SavedAt = "2026-01-02T03:04:05.123456789+14:00" }},
 
 		// Identity of the file.
 		{name: "format empty", edit: func(p *Project) { p.Format = "" }, field: "project.format", err: ErrNotProject},
@@ -78,6 +80,7 @@ func TestValidate(t *testing.T) {
 		{name: "ratio source too long", edit: func(p *Project) { p.RatioSource = strings.Repeat("x", MaxSourceLength+1) }, field: "project.ratioSource", err: ErrTooLong},
 		{name: "notes too long", edit: func(p *Project) { p.Notes = strings.Repeat("n", MaxNotesBytes+1) }, field: "project.notes", err: ErrTooLong},
 		{name: "saved at not a date", edit: func(p *Project) { p.SavedAt = "yesterday" }, field: "project.savedAt", err: ErrWrongType},
+		{name: "saved at too long", edit: func(p *Project) { p.SavedAt = "2026-01-02T03:04:05." + strings.Repeat("1", 50) + "Z" }, field: "project.savedAt", err: ErrTooLong},
 
 		// Molar masses.
 		{name: "molar mass 1 negative", edit: func(p *Project) { p.Monomer1.MolarMass = -104.15 }, field: "project.monomer1.molarMass", err: copoly.ErrOutOfRange},
