@@ -1466,6 +1466,11 @@ var limits = map[string]int{
 	"triads":   project.MaxTriadRows,      // = copoly.MaxTriadRuns
 	"sizeBins": project.MaxSizeBins,       // = copoly.MaxAverageRows
 	"word":     project.MaxPlanWordLength, // a one-word option such as "model"
+
+	// Storage (storage.go): the name of a page or writer, of a kept copy, and the inputs of a draft.
+	"id":          64, // project.CheckID's limit
+	"keptName":    100,
+	"draftFields": project.MaxDraftFields,
 }
 
 // copyValue checks one present JS value against the Go type it will be converted to and
