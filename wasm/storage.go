@@ -42,8 +42,11 @@ const (
 // unavailableMessage is shown when the browser offers no storage.
 const unavailableMessage = "Browser storage is unavailable here (private browsing, a locked-down browser, or not a browser), so the project is kept only while this page is open. Export it to a file to keep it."
 
-// fullMessage replaces the reason of a write refused for lack of room.
-const fullMessage = "the browser's storage for this page is full"
+// Plain reasons of failed writes, for the page (see plain).
+const (
+	fullMessage      = "the browser's storage for this page is full"
+	notStoredMessage = "the browser did not keep what was written; its storage for this page may be full"
+)
 
 // errNoIndexedDB reports a JS environment without IndexedDB; it will not appear later.
 var errNoIndexedDB = errors.New("this JavaScript environment has no IndexedDB")
@@ -146,17 +149,27 @@ func unavailable(err error) error {
 }
 
 // plain returns err with a reason a chemist can read when the browser refused a write for lack
-// of room (a QuotaExceededError); other errors pass unchanged.
+// of room (a QuotaExceededError) or did not keep it (project.ErrNotStored); other errors pass
+// unchanged. The technical detail follows in parentheses.
 func plain(err error) error {
-	if err == nil || copoly.Field(err) != "storage" || !strings.Contains(strings.ToLower(err.Error()), "quota") {
+	if err == nil || copoly.Field(err) != "storage" {
 		return err
 	}
-	return &copoly.FieldError{Field: "storage", Reason: fullMessage + " (" + strings.TrimPrefix(err.Error(), "storage: ") + ")", Err: err}
+	reason := fullMessage
+	switch {
+	case strings.Contains(strings.ToLower(err.Error()), "quota"):
+	case errors.Is(err, project.ErrNotStored):
+		reason = notStoredMessage
+	default:
+		return err
+	}
+	return &copoly.FieldError{Field: "storage", Reason: reason + " (" + strings.TrimPrefix(err.Error(), "storage: ") + ")", Err: err}
 }
 
 // load is the job of loadProject: a StorageLoad, or an error when storage fails while reading.
-// With tab it adds that page's draft when the draft is newer than the project.
-func (s *storage) load(tab string) (any, error) {
+// With tab it adds that page's draft, the later of the stored one and the page's own copy
+// (given), when it is newer than the project.
+func (s *storage) load(tab string, given *project.Draft) (any, error) {
 	out := object.New()
 	st, err := s.begin()
 	if err != nil {
@@ -165,6 +178,9 @@ func (s *storage) load(tab string) (any, error) {
 		out.Set("revision", revisionValue(project.Revision{}))
 		out.Set("kept", array.New())
 		out.Set("message", unavailableMessage+" ("+err.Error()+")")
+		if given != nil {
+			out.Set("draft", draftValue(*given))
+		}
 		return out, nil
 	}
 	defer s.end()
@@ -191,8 +207,9 @@ func (s *storage) load(tab string) (any, error) {
 	}
 	out.Set("kept", kept)
 	if tab != "" {
-		// A draft that cannot be read is no reason to fail the load: it only repeats typing.
-		if d, err := st.LoadDraft(tab); err == nil && d != nil && d.Newer(l.Project, l.Revision) {
+		// A stored draft that cannot be read is no reason to fail the load: it only repeats typing.
+		stored, _ := st.LoadDraft(tab)
+		if d := project.LatestDraft(given, stored); d != nil && d.Newer(l.Project, l.Revision) {
 			out.Set("draft", draftValue(*d))
 		}
 	}
@@ -299,69 +316,100 @@ func dropped() js.Value {
 }
 
 // registerStorage adds the storage methods of the d.ts to api, bound to st. Each reads its
-// argument at the call and does its work on a goroutine behind the Promise.
+// argument at the call and does its work on a goroutine behind the Promise. (One wrapAsync call
+// site for all of them keeps the module small.)
 func registerStorage(api js.Value, st *storage) {
-	api.Set("loadProject", wrapAsync("loadProject", argOptional, func(arg js.Value) (asyncJob, error) {
-		var in tabIn
-		if err := decode(arg, &in, ""); err != nil {
-			return nil, err
-		}
-		tab := ""
-		if in.Tab != nil {
-			if err := project.CheckID("tab", *in.Tab); err != nil {
-				return nil, err
-			}
-			tab = *in.Tab
-		}
-		return func() (any, error) { return st.load(tab) }, nil
-	}))
-	api.Set("saveProject", wrapAsync("saveProject", argRequired, func(arg js.Value) (asyncJob, error) {
-		p, err := readProject(arg)
-		if err != nil {
-			return nil, err
-		}
-		base, err := readBase(arg)
-		if err != nil {
-			return nil, err
-		}
-		return func() (any, error) { return st.save(p, base) }, nil
-	}))
-	api.Set("saveDraft", wrapAsync("saveDraft", argRequired, func(arg js.Value) (asyncJob, error) {
-		var in draftIn
-		if err := decode(arg, &in, ""); err != nil {
-			return nil, err
-		}
-		if err := project.CheckID("tab", in.Tab); err != nil {
-			return nil, err
-		}
-		if err := project.CheckDraftFields("fields", in.Fields); err != nil {
-			return nil, err
-		}
-		base, err := readBase(arg)
-		if err != nil {
-			return nil, err
-		}
-		return func() (any, error) { return st.saveDraft(in.Tab, in.Fields, base) }, nil
-	}))
-	api.Set("dropDraft", wrapAsync("dropDraft", argRequired, func(arg js.Value) (asyncJob, error) {
-		var in draftTabIn
-		if err := decode(arg, &in, ""); err != nil {
-			return nil, err
-		}
-		if err := project.CheckID("tab", in.Tab); err != nil {
-			return nil, err
-		}
-		return func() (any, error) { return st.dropDraft(in.Tab) }, nil
-	}))
-	for name, job := range map[string]func(string) (any, error){"keptCopy": st.keptCopy, "dropKept": st.dropKept} {
-		api.Set(name, wrapAsync(name, argRequired, func(arg js.Value) (asyncJob, error) {
-			var in keptIn
-			if err := decode(arg, &in, ""); err != nil {
-				return nil, err
-			}
-			return func() (any, error) { return job(in.Name) }, nil
-		}))
+	for _, m := range []struct {
+		name   string
+		policy argPolicy
+		fn     asyncExport
+	}{
+		{"loadProject", argOptional, st.loadArg},
+		{"saveProject", argRequired, st.saveArg},
+		{"saveDraft", argRequired, st.saveDraftArg},
+		{"dropDraft", argRequired, st.dropDraftArg},
+		{"keptCopy", argRequired, func(arg js.Value) (asyncJob, error) { return keptArg(arg, st.keptCopy) }},
+		{"dropKept", argRequired, func(arg js.Value) (asyncJob, error) { return keptArg(arg, st.dropKept) }},
+	} {
+		api.Set(m.name, wrapAsync(m.name, m.policy, m.fn))
 	}
+}
+
+func (st *storage) loadArg(arg js.Value) (asyncJob, error) {
+	var in tabIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	tab := ""
+	if in.Tab != nil {
+		if err := project.CheckID("tab", *in.Tab); err != nil {
+			return nil, err
+		}
+		tab = *in.Tab
+	}
+	// The page's own copy of its draft is only a cache of typing: one that does not read is
+	// ignored rather than failing the load.
+	var given *project.Draft
+	var cp draftCopyIn
+	if tab != "" && decode(arg, &cp, "") == nil && cp.Draft != nil {
+		d := project.Draft{Format: project.DraftFormat, Version: 1, SavedAt: cp.Draft.SavedAt, Fields: cp.Draft.Fields}
+		if b := cp.Draft.BasedOn; b != nil && b.N == math.Trunc(b.N) && b.N >= 0 && b.N <= project.MaxRevision {
+			d.BasedOn = project.Revision{N: int64(b.N), Writer: b.Writer}
+		}
+		if project.CheckDraft("draft", d) == nil {
+			given = &d
+		}
+	}
+	return func() (any, error) { return st.load(tab, given) }, nil
+}
+
+func (st *storage) saveArg(arg js.Value) (asyncJob, error) {
+	p, err := readProject(arg)
+	if err != nil {
+		return nil, err
+	}
+	base, err := readBase(arg)
+	if err != nil {
+		return nil, err
+	}
+	return func() (any, error) { return st.save(p, base) }, nil
+}
+
+func (st *storage) saveDraftArg(arg js.Value) (asyncJob, error) {
+	var in draftIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	if err := project.CheckID("tab", in.Tab); err != nil {
+		return nil, err
+	}
+	if err := project.CheckDraftFields("fields", in.Fields); err != nil {
+		return nil, err
+	}
+	base, err := readBase(arg)
+	if err != nil {
+		return nil, err
+	}
+	return func() (any, error) { return st.saveDraft(in.Tab, in.Fields, base) }, nil
+}
+
+func (st *storage) dropDraftArg(arg js.Value) (asyncJob, error) {
+	var in draftTabIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	if err := project.CheckID("tab", in.Tab); err != nil {
+		return nil, err
+	}
+	return func() (any, error) { return st.dropDraft(in.Tab) }, nil
+}
+
+func keptArg(arg js.Value, job func(name string) (any, error)) (asyncJob, error) {
+	var in keptIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	return func() (any, error) { return job(in.Name) }, nil
 }
 
 // Arguments of the storage methods (see decode).
@@ -375,6 +423,13 @@ type (
 	}
 	tabIn struct {
 		Tab *string `js:"tab" limit:"id"`
+	}
+	draftCopyIn struct {
+		Draft *struct {
+			SavedAt string            `js:"savedAt" limit:"id"`
+			BasedOn *revisionDTO      `js:"basedOn"`
+			Fields  map[string]string `js:"fields" limit:"draftFields"`
+		} `js:"draft"`
 	}
 	draftTabIn struct {
 		Tab string `js:"tab" limit:"id"`

@@ -5,6 +5,7 @@ package main
 import (
 	"context"
 	"errors"
+	"io"
 	"io/fs"
 	"strings"
 	"syscall/js"
@@ -263,6 +264,27 @@ func TestDraft(t *testing.T) {
 			t.Errorf("loadProject(%v) = %s, want no draft", arg, stringify(r))
 		}
 	}
+	// The page's own copy of its draft (written at once when the page is left) wins when it is
+	// later than the stored one, and is ignored when it does not read.
+	later := map[string]any{"savedAt": "2026-05-06T07:08:09.500Z", "basedOn": map[string]any{"n": 0, "writer": ""}, "fields": map[string]any{"r2": "-0.04"}}
+	earlier := map[string]any{"savedAt": "2026-05-06T07:08:08.500Z", "fields": map[string]any{"r2": "0.0"}}
+	for _, tt := range []struct {
+		name  string
+		draft any
+		want  string
+	}{
+		{"later copy", later, "-0.04"},
+		{"earlier copy", earlier, "-0.0x"},
+		{"copy without fields", map[string]any{"savedAt": "2026-05-06T07:08:09.500Z"}, "-0.0x"},
+		{"copy with a bad time", map[string]any{"savedAt": "now", "fields": map[string]any{}}, "-0.0x"},
+		{"copy not an object", "typed", "-0.0x"},
+	} {
+		r := await(t, call(api, "loadProject", map[string]any{"tab": "t1", "draft": tt.draft}))
+		wantNoError(t, r)
+		if got := r.Get("draft").Get("fields").Get("r2").String(); got != tt.want {
+			t.Errorf("%s: loadProject({tab, draft}) = %s, want r2 %q", tt.name, stringify(r), tt.want)
+		}
+	}
 	wantNoError(t, await(t, call(api, "dropDraft", map[string]any{"tab": "t1"})))
 	if r := await(t, call(api, "loadProject", map[string]any{"tab": "t1"})); !r.Get("draft").IsUndefined() {
 		t.Errorf("loadProject() after dropDraft() = %s", stringify(r))
@@ -286,20 +308,31 @@ func TestDraft(t *testing.T) {
 }
 
 // fullFS is an in-memory file system whose writes fail, while full is set, with the error a
-// browser gives when its storage quota is used up.
+// browser gives when its storage quota is used up; while unseen is set, a new file opened for
+// writing takes the bytes written and keeps nothing (as hackpadfs does when a put throws).
 type fullFS struct {
 	*mem.FS
-	full bool
+	full, unseen bool
 }
 
 var errFull = errors.New("QuotaExceededError: the quota has been exceeded")
 
 func (f *fullFS) OpenFile(name string, flag int, perm hackpadfs.FileMode) (hackpadfs.File, error) {
-	if f.full && flag&(hackpadfs.FlagWriteOnly|hackpadfs.FlagReadWrite|hackpadfs.FlagCreate) != 0 {
+	if f.full && flag&(hackpadfs.FlagWriteOnly|hackpadfs.FlagCreate) != 0 {
 		return nil, &fs.PathError{Op: "open", Path: name, Err: errFull}
+	}
+	if f.unseen && flag&hackpadfs.FlagCreate != 0 {
+		return nowhere{}, nil
 	}
 	return f.FS.OpenFile(name, flag, perm)
 }
+
+// nowhere is a file that takes every write and keeps nothing.
+type nowhere struct{ hackpadfs.File }
+
+func (nowhere) Read([]byte) (int, error)    { return 0, io.EOF }
+func (nowhere) Write(p []byte) (int, error) { return len(p), nil }
+func (nowhere) Close() error                { return nil }
 
 func (f *fullFS) Rename(oldName, newName string) error {
 	if f.full {
@@ -329,7 +362,14 @@ func TestStorageFull(t *testing.T) {
 	if r := await(t, call(api, "loadProject")); r.Get("project").Get("r1").Float() != 0.8 || !r.Get("message").IsUndefined() {
 		t.Errorf("loadProject() after a failed save = %s, want the first save (r1 0.8)", stringify(r))
 	}
+	// A write the file system reports done but that does not read back is named too.
+	f.full, f.unseen = false, true
+	wantError(t, await(t, call(api, "saveProject", next)), "storage", notStoredMessage)
+	if r := await(t, call(api, "loadProject")); r.Get("project").Get("r1").Float() != 0.8 {
+		t.Errorf("loadProject() after an unseen failed save = %s, want the first save (r1 0.8)", stringify(r))
+	}
 	// Room again: the same save (the page's retry on the next change) goes through.
+	f.unseen = false
 	f.full = false
 	if s := await(t, call(api, "saveProject", next)); !s.Get("saved").Bool() || s.Get("revision").Get("n").Int() != 2 {
 		t.Errorf("saveProject() once there is room = %s", stringify(s))
@@ -352,6 +392,11 @@ func TestStorageUnavailable(t *testing.T) {
 	}
 	wantError(t, await(t, call(api, "saveProject", demoArg(t, api))), "storage", "browser storage is unavailable")
 	wantError(t, await(t, call(api, "saveDraft", map[string]any{"tab": "t", "fields": map[string]any{}})), "storage", "browser storage is unavailable")
+	// Without storage the page's own copy of its draft still comes back.
+	r = await(t, call(api, "loadProject", map[string]any{"tab": "t", "draft": map[string]any{"savedAt": "2026-05-06T07:08:09.500Z", "fields": map[string]any{"r1": "0.4x"}}}))
+	if r.Get("draft").Get("fields").Get("r1").String() != "0.4x" {
+		t.Errorf("loadProject({tab, draft}) without storage = %s, want the draft back", stringify(r))
+	}
 	// Asked again, the answer is the same (the failure is remembered, not retried).
 	if r2 := await(t, call(api, "loadProject")); r2.Get("storage").String() != "unavailable" {
 		t.Errorf("second loadProject() = %s", stringify(r2))

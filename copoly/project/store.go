@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io/fs"
 	"path"
+	"strconv"
 	"strings"
 	"time"
 
@@ -91,10 +92,11 @@ const (
 // the browser, an in-memory file system in tests. It never loses a good copy and never
 // overwrites stored data silently:
 //
-//   - A save writes the new file completely under a temporary name first, then renames the
-//     current file to the previous one and the new file to the current one. Each rename is a
-//     single transaction, so a write cut short at any point (a full disk, a closed tab) leaves
-//     the last good project readable, as the current or the previous file.
+//   - A save writes the new file completely under a temporary name first, copies the current
+//     file to the previous one, then renames the new file to the current one; every write is
+//     read back. A rename is a single transaction, so a save cut short at any point (a full
+//     disk, a closed tab, a write the browser refused) leaves the last good project as the
+//     current file, and a save never reports success for bytes that are not stored.
 //   - A stored file that no longer parses is copied into KeptDir before anything replaces it,
 //     and Load copies it there as soon as it finds it, so that the user can download it.
 //   - Every save says which revision it was based on. When another page saved since, the save
@@ -248,19 +250,25 @@ func (s Store) Save(p Project, base Revision, now time.Time) (Saved, error) {
 			return Saved{}, storageError("a damaged saved copy could not be kept aside, so nothing was replaced", err)
 		}
 	}
+	// The new file is written in full first. Then the current file is copied, never renamed, to
+	// the previous one: a rename whose write fails unseen (see writeFile) would still remove its
+	// source. Last the new file is renamed over the current one and read back.
 	tmp := Dir + "/saving-" + s.Writer + tmpSuffix
-	if err := hackpadfs.WriteFullFile(s.FS, tmp, data, 0o600); err != nil {
+	if err := s.writeChecked(tmp, data); err != nil {
 		_ = hackpadfs.Remove(s.FS, tmp)
 		return Saved{}, storageError("the project could not be saved", err)
 	}
 	if cur.project != nil {
-		if err := hackpadfs.Rename(s.FS, CurrentPath, PreviousPath); err != nil {
+		if err := s.writeFile(PreviousPath, cur.data); err != nil {
 			_ = hackpadfs.Remove(s.FS, tmp)
 			return Saved{}, storageError("the project could not be saved", err)
 		}
 	}
 	if err := hackpadfs.Rename(s.FS, tmp, CurrentPath); err != nil {
 		_ = hackpadfs.Remove(s.FS, tmp)
+		return Saved{}, storageError("the project could not be saved", err)
+	}
+	if err := s.check(CurrentPath, data); err != nil {
 		return Saved{}, storageError("the project could not be saved", err)
 	}
 	return Saved{Project: p, Revision: rev}, nil
@@ -298,19 +306,18 @@ func storedBytes(p Project, rev Revision) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	r, err := json.MarshalIndent(rev, "  ", "  ")
-	if err != nil {
-		return nil, err
-	}
 	body, ok := bytes.CutSuffix(data, []byte("\n}\n"))
 	if !ok {
 		panic("project: Marshal did not end its object with a closing brace")
 	}
-	out := make([]byte, 0, len(data)+len(r)+20)
+	// The writer is letters, digits, '-' and '_' (CheckID): a JSON string as it stands.
+	out := make([]byte, 0, len(data)+100)
 	out = append(out, body...)
-	out = append(out, ",\n  \"revision\": "...)
-	out = append(out, r...)
-	out = append(out, "\n}\n"...)
+	out = append(out, ",\n  \"revision\": {\n    \"n\": "...)
+	out = strconv.AppendInt(out, rev.N, 10)
+	out = append(out, ",\n    \"writer\": \""...)
+	out = append(out, rev.Writer...)
+	out = append(out, "\"\n  }\n}\n"...)
 	if len(out) > MaxFileBytes {
 		return nil, &copoly.FieldError{Field: "project", Reason: fmt.Sprintf("the project file would take %d bytes, more than the %d a project can have; shorten the notes or the bench data", len(out), MaxFileBytes), Err: ErrTooLong}
 	}
@@ -338,31 +345,42 @@ func (s Store) tidy(now time.Time) {
 		}
 	}
 	for _, dir := range []string{Dir, KeptDir, DraftDir} {
-		entries, err := hackpadfs.ReadDir(s.FS, dir)
+		names, err := dirNames(s.FS, dir)
 		if err != nil {
 			continue
 		}
-		for _, e := range entries {
+		for _, name := range names {
 			age := staleTmp
 			switch {
-			case strings.HasSuffix(e.Name(), tmpSuffix):
+			case strings.HasSuffix(name, tmpSuffix):
 			case dir == DraftDir:
 				age = DraftMaxAge
 			default:
 				continue
 			}
-			if info, err := e.Info(); err == nil && !info.IsDir() && now.Sub(info.ModTime()) > age {
-				_ = hackpadfs.Remove(s.FS, path.Join(dir, e.Name()))
+			p := path.Join(dir, name)
+			if info, err := hackpadfs.Stat(s.FS, p); err == nil && !info.IsDir() && now.Sub(info.ModTime()) > age {
+				_ = hackpadfs.Remove(s.FS, p)
 			}
 		}
 	}
 }
 
-// writeFile writes data to name through a temporary file renamed into place, so that name
-// holds either its old content or data, never a part of data.
+// ErrNotStored reports a write that the file system reported done but that did not read back
+// (see writeFile); in a browser the likely cause is a full storage.
+var ErrNotStored = errors.New("project: what was written did not read back")
+
+// writeFile writes data to name through a temporary file renamed into place, so that name holds
+// either its old content or data, never a part of data, and reads it back.
+//
+// Reading back matters: the key-value file systems of hackpadfs (IndexedDB, mem) run each write
+// as a transaction and report only the transaction's own failure, not that of a step inside it,
+// so a write the browser refuses at once (a put that throws) is reported done. A rename is a
+// write of the new name and a removal of the old one in one transaction: when its write fails
+// that way, the old name is gone and the new one unchanged.
 func (s Store) writeFile(name string, data []byte) error {
 	tmp := name + "-" + s.Writer + tmpSuffix
-	if err := hackpadfs.WriteFullFile(s.FS, tmp, data, 0o600); err != nil {
+	if err := s.writeChecked(tmp, data); err != nil {
 		_ = hackpadfs.Remove(s.FS, tmp)
 		return err
 	}
@@ -370,7 +388,50 @@ func (s Store) writeFile(name string, data []byte) error {
 		_ = hackpadfs.Remove(s.FS, tmp)
 		return err
 	}
+	return s.check(name, data)
+}
+
+// writeChecked writes data to name in place and reads it back.
+func (s Store) writeChecked(name string, data []byte) error {
+	if err := hackpadfs.WriteFullFile(s.FS, name, data, 0o600); err != nil {
+		return err
+	}
+	return s.check(name, data)
+}
+
+// check reports whether name holds data, with ErrNotStored when it holds anything else or nothing.
+func (s Store) check(name string, data []byte) error {
+	got, err := hackpadfs.ReadFile(s.FS, name)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return &fs.PathError{Op: "write", Path: name, Err: ErrNotStored}
+	case err != nil:
+		return err
+	case !bytes.Equal(got, data):
+		return &fs.PathError{Op: "write", Path: name, Err: ErrNotStored}
+	}
 	return nil
+}
+
+// dirNames lists the names in the directory dir of fsys, unsorted.
+//
+// It asks the directory for its names alone (ReadDirNames), which the key-value file systems of
+// hackpadfs (IndexedDB, mem) offer on a directory opened for reading and writing; opening it so
+// writes nothing. The usual ReadDir method would, through the linker keeping every ReadDir
+// method of the program, bring the operating system's directory reading of package os into the
+// page's module (about 25 kB) for nothing. Other file systems give an error wrapping
+// hackpadfs.ErrNotImplemented.
+func dirNames(fsys hackpadfs.FS, dir string) ([]string, error) {
+	f, err := hackpadfs.OpenFile(fsys, dir, hackpadfs.FlagReadWrite, 0)
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	d, ok := f.(interface{ ReadDirNames() ([]string, error) })
+	if !ok {
+		return nil, &fs.PathError{Op: "readdir", Path: dir, Err: hackpadfs.ErrNotImplemented}
+	}
+	return d.ReadDirNames()
 }
 
 func storageError(what string, err error) error {

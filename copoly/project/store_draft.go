@@ -1,6 +1,7 @@
 package project
 
 import (
+	"cmp"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -73,6 +74,40 @@ func CheckDraftFields(field string, fields map[string]string) error {
 	return nil
 }
 
+// CheckDraft reports a draft that LoadDraft would not return: another format or version, a
+// SavedAt that is not RFC 3339, an invalid BasedOn, or fields that fail CheckDraftFields (nil
+// fields included). field names it in the error.
+func CheckDraft(field string, d Draft) error {
+	if d.Format != DraftFormat || d.Version != 1 {
+		return &copoly.FieldError{Field: field, Reason: fmt.Sprintf("is not a version-1 %q", DraftFormat), Err: ErrWrongType}
+	}
+	if _, err := time.Parse(time.RFC3339, d.SavedAt); err != nil {
+		return &copoly.FieldError{Field: field + ".savedAt", Reason: fmt.Sprintf("%q is not a date and time in RFC 3339 form", d.SavedAt), Err: ErrWrongType}
+	}
+	if d.Fields == nil {
+		return &copoly.FieldError{Field: field + ".fields", Reason: "is missing", Err: ErrMissing}
+	}
+	if err := CheckRevision(field+".basedOn", d.BasedOn); err != nil {
+		return err
+	}
+	return CheckDraftFields(field+".fields", d.Fields)
+}
+
+// LatestDraft returns the later of two drafts of one page by SavedAt (a when they were saved
+// at the same instant), or the one that is not nil. The page keeps a copy of its draft of its
+// own, written at once when the page is closed, which the stored draft may lack.
+func LatestDraft(a, b *Draft) *Draft {
+	if a == nil || b == nil {
+		return cmp.Or(a, b)
+	}
+	ta, _ := time.Parse(time.RFC3339, a.SavedAt)
+	tb, _ := time.Parse(time.RFC3339, b.SavedAt)
+	if tb.After(ta) {
+		return b
+	}
+	return a
+}
+
 // SaveDraft stores fields as the draft of the page tab (see CheckID), typed on top of the
 // stored revision base, at now; it replaces that page's earlier draft and nothing else.
 func (s Store) SaveDraft(tab string, fields map[string]string, base Revision, now time.Time) (Draft, error) {
@@ -113,11 +148,7 @@ func (s Store) LoadDraft(tab string) (*Draft, error) {
 		return nil, storageError("the typing of this page could not be read", err)
 	}
 	var d Draft
-	if json.Unmarshal(data, &d) != nil || d.Format != DraftFormat || d.Version != 1 || d.Fields == nil ||
-		CheckDraftFields("fields", d.Fields) != nil || CheckRevision("basedOn", d.BasedOn) != nil {
-		return nil, nil
-	}
-	if _, err := time.Parse(time.RFC3339, d.SavedAt); err != nil {
+	if json.Unmarshal(data, &d) != nil || CheckDraft("draft", d) != nil {
 		return nil, nil
 	}
 	return &d, nil

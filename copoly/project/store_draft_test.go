@@ -177,3 +177,56 @@ func TestKept(t *testing.T) {
 		t.Errorf("after DropKept(%s): %v", a.Name, keptNames(kept))
 	}
 }
+
+func TestLatestDraft(t *testing.T) {
+	at := func(s string) *Draft { return &Draft{SavedAt: s} }
+	early, late := at("2026-03-02T09:30:15.250Z"), at("2026-03-02T09:30:15.251Z")
+	tie := at("2026-03-02T10:30:15.251+01:00") // the instant of late, in another zone
+	tests := []struct {
+		name string
+		a, b *Draft
+		want *Draft
+	}{
+		{"both nil", nil, nil, nil},
+		{"a only", early, nil, early},
+		{"b only", nil, late, late},
+		{"b later", early, late, late},
+		{"a later", late, early, late},
+		{"same instant", late, tie, late},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			if got := LatestDraft(tt.a, tt.b); got != tt.want {
+				t.Errorf("LatestDraft(%v, %v) = %v, want %v", tt.a, tt.b, got, tt.want)
+			}
+		})
+	}
+}
+
+func TestCheckDraft(t *testing.T) {
+	good := Draft{Format: DraftFormat, Version: 1, SavedAt: "2026-03-02T09:30:15.250Z", BasedOn: Revision{N: 2, Writer: pageA}, Fields: map[string]string{"r1": "0,4"}}
+	if err := CheckDraft("draft", good); err != nil {
+		t.Fatalf("CheckDraft(good) = %v", err)
+	}
+	tests := []struct {
+		name  string
+		edit  func(d *Draft)
+		field string
+	}{
+		{"other format", func(d *Draft) { d.Format = "copoly-project" }, "draft"},
+		{"version 2", func(d *Draft) { d.Version = 2 }, "draft"},
+		{"time not RFC 3339", func(d *Draft) { d.SavedAt = "2.3.2026" }, "draft.savedAt"},
+		{"no fields", func(d *Draft) { d.Fields = nil }, "draft.fields"},
+		{"bad base", func(d *Draft) { d.BasedOn = Revision{N: 1} }, "draft.basedOn.writer"},
+		{"bad input name", func(d *Draft) { d.Fields = map[string]string{"a.b": ""} }, "draft.fields.a.b"},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			d := good
+			tt.edit(&d)
+			if err := CheckDraft("draft", d); copoly.Field(err) != tt.field {
+				t.Errorf("CheckDraft() = %v, want an error for %q", err, tt.field)
+			}
+		})
+	}
+}

@@ -6,7 +6,6 @@ import (
 	"fmt"
 	"io/fs"
 	"path"
-	"sort"
 	"strings"
 	"time"
 
@@ -40,7 +39,7 @@ type Kept struct {
 
 // Kept lists the copies in KeptDir, oldest first (by name when written in the same instant).
 func (s Store) Kept() ([]Kept, error) {
-	entries, err := hackpadfs.ReadDir(s.FS, KeptDir)
+	names, err := dirNames(s.FS, KeptDir)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil, nil
 	}
@@ -48,24 +47,31 @@ func (s Store) Kept() ([]Kept, error) {
 		return nil, storageError("the kept copies could not be listed", err)
 	}
 	var out []Kept
-	for _, e := range entries {
-		kind, ok := keptKind(e.Name())
+	for _, name := range names {
+		kind, ok := keptKind(name)
 		if !ok {
 			continue
 		}
-		info, err := e.Info()
+		info, err := hackpadfs.Stat(s.FS, path.Join(KeptDir, name))
 		if err != nil || info.IsDir() {
 			continue
 		}
-		out = append(out, Kept{Name: e.Name(), Kind: kind, Size: info.Size(), Time: info.ModTime()})
+		out = append(out, Kept{Name: name, Kind: kind, Size: info.Size(), Time: info.ModTime()})
 	}
-	sort.SliceStable(out, func(i, j int) bool {
-		if !out[i].Time.Equal(out[j].Time) {
-			return out[i].Time.Before(out[j].Time)
+	// Oldest first, by name within one instant: an insertion sort, as the list is short.
+	for i := 1; i < len(out); i++ {
+		for j := i; j > 0 && keptBefore(out[j], out[j-1]); j-- {
+			out[j], out[j-1] = out[j-1], out[j]
 		}
-		return out[i].Name < out[j].Name
-	})
+	}
 	return out, nil
+}
+
+func keptBefore(a, b Kept) bool {
+	if !a.Time.Equal(b.Time) {
+		return a.Time.Before(b.Time)
+	}
+	return a.Name < b.Name
 }
 
 // ReadKept returns the kept copy called name and its bytes. A name that is not a kept copy
