@@ -469,7 +469,8 @@
     }
     if (state.invalid) text += " · the marked field is not valid, so that change is not saved";
     setText("#storage-status", text);
-    $("#storage-status").title = store.failed ? store.failedDetail : "";
+    if (store.failed) $("#storage-status").title = store.failedDetail;
+    else if (state.storage !== "unavailable") $("#storage-status").title = "";
   }
 
   function showConflict(r) {
@@ -508,6 +509,7 @@
     store.storedKey = projectKey(state.project);
     state.savedAt = c.other.project.savedAt || "";
     queued(() => callAsync("dropKept", { name: c.kept.name }));
+    dropDraft(); // this tab's typing is not to come back over the version the user kept
     showStorageStatus();
   }
 
@@ -524,7 +526,7 @@
       const li = document.createElement("li");
       const when = k.time ? ` on ${new Date(k.time).toLocaleDateString()} at ${clockTime(k.time)}` : "";
       const text = k.kind === "conflict"
-        ? `A version not saved over one another tab had saved, kept${when}.`
+        ? `A version kept aside when two tabs saved this project (a conflict copy)${when}.`
         : `A saved copy that could not be read (damaged), set aside${when}, ${k.size} bytes.`;
       const fetchCopy = async (then) => {
         const r = await queued(() => callAsync("keptCopy", { name: k.name }));
@@ -564,6 +566,7 @@
   }
 
   function draftTyped() {
+    $("#draft-bar").hidden = true; // typing on accepts the restored text
     store.edits++;
     store.draftDirty = true;
     clearTimeout(store.draftTimer);
@@ -589,6 +592,8 @@
 
   // dropDraft removes this tab's draft, both copies, once the stored project holds it all.
   function dropDraft() {
+    clearTimeout(store.draftTimer);
+    store.draftDirty = false;
     try { sessionStorage.removeItem(DRAFT_COPY); } catch (e) { /* none to remove */ }
     queued(() => callAsync("dropDraft", { tab: store.tab }));
   }
@@ -629,8 +634,6 @@
       fillForm(store.loaded);
       recompute();
     }
-    store.draftDirty = false;
-    clearTimeout(store.draftTimer);
     dropDraft();
   }
 

@@ -178,6 +178,16 @@ func TestBrowserStorageUnavailable(t *testing.T) {
 			run(t, ctx, "let the saves and drafts run", chromedp.Sleep(saveSettle))
 			checkNoFatalBanner(t, ctx)
 			w.check(t, "typing without storage")
+
+			// Text typed just before a reload still comes back (from the tab's own copy).
+			setInput(t, ctx, "r2", "0.0x")
+			run(t, ctx, "reload at once", chromedp.Reload())
+			waitReady(t, ctx)
+			if got := fieldText(t, ctx, "r2"); got != "0.0x" {
+				t.Errorf("without storage, after typing and reloading at once #r2 = %q, want 0.0x", got)
+			}
+			waitStatus(t, ctx, "storage is unavailable after the reload", `unavailable`)
+			w.check(t, "reloading without storage")
 		})
 	}
 }
