@@ -382,7 +382,9 @@ export interface Copoly {
   }): PlanResult | CopolyError;
   starvedFeed(a: { r1: number; r2: number; targetF1: number; feedRate: number; rateConstant: number; molarMass1: number; molarMass2: number }): { inventory: number; f1: number } | CopolyError;
   qe(a: { monomer1: string; monomer2: string }): { r1: number; r2: number; q1: number; e1: number; q2: number; e2: number; source1: string; source2: string } | CopolyError;  // screening estimate
-  loadProject(a?: { tab?: string }): Promise<StorageLoad | CopolyError>;     // tab: the page's name for its draft
+  loadProject(a?: { tab?: string;              // the page's name for its draft
+    draft?: { savedAt: string; basedOn?: Revision; fields: { [input: string]: string } } }  // the page's own copy of its draft (the later one wins); one that does not read is ignored
+  ): Promise<StorageLoad | CopolyError>;
   saveProject(a: { project: Project; basedOn?: Revision }): Promise<SaveResult | CopolyError>;  // basedOn absent: the zero revision
   saveDraft(a: { tab: string; fields: { [input: string]: string }; basedOn?: Revision }): Promise<{ saved: true; savedAt: string } | CopolyError>;
   dropDraft(a: { tab: string }): Promise<{ dropped: true } | CopolyError>;

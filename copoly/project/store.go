@@ -187,7 +187,8 @@ type Conflict struct {
 // current project on top of base, the revision the page loaded or last saved.
 //
 // An invalid p gives the validation error and nothing is written. When a readable stored
-// project exists and its revision is not base, another page saved since: p is kept as the
+// project exists and its revision is neither base nor one this Store's Writer wrote, another
+// page saved since: p is kept as the
 // conflict copy of this Store's Writer ("conflict-<writer>.json" in KeptDir, replacing that
 // page's earlier conflict copy) and Saved.Conflict describes the stored project, which is not
 // touched. Otherwise p becomes the current project with revision N one above the highest
@@ -230,7 +231,9 @@ func (s Store) Save(p Project, base Revision, now time.Time) (Saved, error) {
 		return Saved{}, err
 	}
 
-	if inUse.project != nil && inUse.rev != base {
+	// A stored revision that this page wrote itself is no conflict even when it is not base (the
+	// page missed the answer to a save that did go through): no other page's work is at stake.
+	if inUse.project != nil && inUse.rev != base && inUse.rev.Writer != s.Writer {
 		k, err := s.put(KindConflict, conflictName(s.Writer), data)
 		if err != nil {
 			return Saved{}, storageError("another tab or window saved this project since this page opened it, and this page's version could not be kept as a separate copy", err)

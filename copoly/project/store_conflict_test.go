@@ -106,6 +106,8 @@ func TestConflictCases(t *testing.T) {
 		{name: "stored without revision, page loaded one", current: marshal(t, good), base: rev4, conflict: true},
 		{name: "page loaded nothing, something stored since", current: storedAs(t, good, rev5), base: Revision{}, conflict: true},
 		{name: "base is an older revision than the page's own", current: storedAs(t, good, rev4), base: rev5, conflict: true},
+		// The page's own save went through but the page missed the answer: no other page's work.
+		{name: "stored by this page after its base", current: storedAs(t, good, Revision{N: 6, Writer: pageA}), base: Revision{N: 5, Writer: pageA}, rev: Revision{N: 7, Writer: pageA}},
 		// With the current file damaged, the previous copy is the stored project.
 		{name: "current damaged, base is previous", current: garbage, previous: storedAs(t, good, rev4), base: rev4, rev: Revision{N: 5, Writer: pageA}},
 		{name: "current damaged, previous moved on", current: garbage, previous: storedAs(t, good, rev5), base: rev4, conflict: true},
