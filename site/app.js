@@ -590,11 +590,15 @@
     queued(() => callAsync("saveDraft", { tab: store.tab, fields, basedOn }));
   }
 
-  // dropDraft removes this tab's draft, both copies, once the stored project holds it all.
+  // dropDraft removes this tab's draft once the stored project holds it all. The sessionStorage
+  // copy becomes an empty draft of now, which outranks the stored draft should the page be
+  // reloaded before copoly has removed that one.
   function dropDraft() {
     clearTimeout(store.draftTimer);
     store.draftDirty = false;
-    try { sessionStorage.removeItem(DRAFT_COPY); } catch (e) { /* none to remove */ }
+    try {
+      sessionStorage.setItem(DRAFT_COPY, JSON.stringify({ savedAt: new Date().toISOString(), basedOn: store.revision, fields: {} }));
+    } catch (e) { /* no sessionStorage: the stored draft alone */ }
     queued(() => callAsync("dropDraft", { tab: store.tab }));
   }
 

@@ -352,7 +352,11 @@ func (st *storage) loadArg(arg js.Value) (asyncJob, error) {
 	var given *project.Draft
 	var cp draftCopyIn
 	if tab != "" && decode(arg, &cp, "") == nil && cp.Draft != nil {
+		// No fields is the page's mark of a draft it dropped, newer than any stored one.
 		d := project.Draft{Format: project.DraftFormat, Version: 1, SavedAt: cp.Draft.SavedAt, Fields: cp.Draft.Fields}
+		if d.Fields == nil {
+			d.Fields = map[string]string{}
+		}
 		if b := cp.Draft.BasedOn; b != nil && b.N == math.Trunc(b.N) && b.N >= 0 && b.N <= project.MaxRevision {
 			d.BasedOn = project.Revision{N: int64(b.N), Writer: b.Writer}
 		}

@@ -275,7 +275,7 @@ func TestDraft(t *testing.T) {
 	}{
 		{"later copy", later, "-0.04"},
 		{"earlier copy", earlier, "-0.0x"},
-		{"copy without fields", map[string]any{"savedAt": "2026-05-06T07:08:09.500Z"}, "-0.0x"},
+		{"copy without fields key", map[string]any{"savedAt": "2026-05-06T07:08:09.500Z"}, "-0.0x"},
 		{"copy with a bad time", map[string]any{"savedAt": "now", "fields": map[string]any{}}, "-0.0x"},
 		{"copy not an object", "typed", "-0.0x"},
 	} {
@@ -284,6 +284,11 @@ func TestDraft(t *testing.T) {
 		if got := r.Get("draft").Get("fields").Get("r2").String(); got != tt.want {
 			t.Errorf("%s: loadProject({tab, draft}) = %s, want r2 %q", tt.name, stringify(r), tt.want)
 		}
+	}
+	// A later copy with no fields (the page dropped its draft) outranks the stored draft.
+	r = await(t, call(api, "loadProject", map[string]any{"tab": "t1", "draft": map[string]any{"savedAt": "2026-05-06T07:08:09.500Z", "fields": map[string]any{}}}))
+	if d := r.Get("draft"); d.IsUndefined() || stringify(d.Get("fields")) != "{}" {
+		t.Errorf("loadProject() with a later empty copy = %s, want a draft with no fields", stringify(r))
 	}
 	wantNoError(t, await(t, call(api, "dropDraft", map[string]any{"tab": "t1"})))
 	if r := await(t, call(api, "loadProject", map[string]any{"tab": "t1"})); !r.Get("draft").IsUndefined() {

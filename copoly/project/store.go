@@ -24,7 +24,8 @@ const (
 	KeptDir      = Dir + "/kept"          // copies set aside (damaged files, conflict copies), never overwritten silently
 	DraftDir     = Dir + "/drafts"        // the form of each page as typed (see Draft)
 
-	// legacyDamagedPath is where copoly 0.1 kept a damaged current file; Load moves it to KeptDir.
+	// legacyDamagedPath is where earlier copoly versions kept a damaged current file; Load moves
+	// it to KeptDir.
 	legacyDamagedPath = Dir + "/damaged.json"
 	// tmpSuffix ends the name of a file being written; it is renamed into place once complete.
 	tmpSuffix = ".tmp"
@@ -43,7 +44,7 @@ const maxIDLength = 64
 // Revision identifies one save of the stored project: N counts the saves and Writer names the
 // page that made it, so two pages that both saved on top of revision {4, A} make {5, B} and
 // {5, C}, which differ. The zero Revision stands for "nothing stored", and for a stored file
-// written before revisions existed (it has no "revision" key).
+// written by an earlier copoly, before revisions existed (it has no "revision" key).
 //
 // The revision is kept in the stored file as one more key beside those of the project file,
 //
@@ -102,7 +103,8 @@ const (
 //   - Every save says which revision it was based on. When another page saved since, the save
 //     is kept in KeptDir as a conflict copy and the stored project is left as it is (Conflict).
 //
-// A Store is a small value; the file system it names must be safe for concurrent use when
+// A Store is a small value. Its file system must be one of the key-value file systems of
+// hackpadfs (indexeddb in the page, mem in tests; see dirNames), safe for concurrent use when
 // several pages share it (IndexedDB is).
 type Store struct {
 	FS hackpadfs.FS
@@ -188,13 +190,14 @@ type Conflict struct {
 //
 // An invalid p gives the validation error and nothing is written. When a readable stored
 // project exists and its revision is neither base nor one this Store's Writer wrote, another
-// page saved since: p is kept as the
-// conflict copy of this Store's Writer ("conflict-<writer>.json" in KeptDir, replacing that
-// page's earlier conflict copy) and Saved.Conflict describes the stored project, which is not
-// touched. Otherwise p becomes the current project with revision N one above the highest
-// stored, the current file becomes the previous one, and any stored file that did not parse is
-// first kept in KeptDir (if that fails, nothing is replaced). A file-system error comes back
-// with field "storage"; the stored project is then still the last good one.
+// page saved since: p is kept as the conflict copy of this Store's Writer
+// ("conflict-<writer>.json" in KeptDir, replacing that page's earlier conflict copy) and
+// Saved.Conflict describes the stored project, which is not touched. Otherwise p becomes the
+// current project with revision N one above the highest stored, the current file is copied to
+// the previous one, and any stored file that did not parse is first kept in KeptDir (if that
+// fails, nothing is replaced). A file-system error, or a write that does not read back
+// (ErrNotStored), comes back with field "storage"; the current file is then still the last
+// good project.
 func (s Store) Save(p Project, base Revision, now time.Time) (Saved, error) {
 	if err := CheckID("writer", s.Writer); err != nil {
 		return Saved{}, err
@@ -340,7 +343,7 @@ func revisionOf(data []byte) Revision {
 }
 
 // tidy removes temporary files older than staleTmp, drafts older than DraftMaxAge, and moves a
-// damaged file of copoly 0.1 into KeptDir. It is best effort: a failure leaves things as they are.
+// damaged file kept by an earlier copoly into KeptDir. It is best effort: a failure leaves things as they are.
 func (s Store) tidy(now time.Time) {
 	if data, err := hackpadfs.ReadFile(s.FS, legacyDamagedPath); err == nil {
 		if _, err := s.keep(KindDamaged, data, now); err == nil {

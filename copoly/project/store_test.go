@@ -225,10 +225,10 @@ func TestSaveRefusesBadArguments(t *testing.T) {
 	}
 }
 
-// A file of copoly 0.1 has no revision: it loads as revision zero, and a page that loaded it
+// A file stored by an earlier copoly has no revision: it loads as revision zero, and a page that loaded it
 // saves over it without a conflict.
 func TestVersion1WithoutRevision(t *testing.T) {
-	// A version-1 project file as copoly 0.1 stored it: the project keys only.
+	// A version-1 project file as an earlier copoly stored it: the project keys only.
 	const old = `{
   "format": "copoly-project",
   "version": 1,
@@ -458,7 +458,7 @@ func TestTidy(t *testing.T) {
 	if _, err := s.SaveDraft("tab1", map[string]string{"r1": "0.4"}, Revision{}, monday); err != nil {
 		t.Fatal(err)
 	}
-	// copoly 0.1 kept a damaged current file here.
+	// An earlier copoly kept a damaged current file here.
 	write(t, s.FS, legacyDamagedPath, "{broken")
 
 	// A moment later the temporary file may belong to a save in progress: it stays.
