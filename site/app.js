@@ -432,7 +432,10 @@
     const project = state.project;
     if (!project || engineStopped) return;
     const key = projectKey(project);
-    if (key === store.storedKey) return; // nothing new to store
+    if (key === store.storedKey) { // nothing new to store
+      if (store.failed) { store.failed = ""; showStorageStatus(); }
+      return;
+    }
     const edits = store.edits;
     const r = await callAsync("saveProject", { project, basedOn: store.revision });
     if (isError(r)) {

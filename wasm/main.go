@@ -36,7 +36,7 @@
 //	             riseLimit?, jcr?, samples?, seed?})
 //	copoly.starvedFeed({r1, r2, targetF1, feedRate, rateConstant, molarMass1, molarMass2})
 //	copoly.qe({monomer1, monomer2})
-//	copoly.loadProject({tab?})                  → Promise
+//	copoly.loadProject({tab?, draft?})          → Promise
 //	copoly.saveProject({project, basedOn?})     → Promise
 //	copoly.saveDraft({tab, fields, basedOn?})   → Promise
 //	copoly.dropDraft({tab})                     → Promise
