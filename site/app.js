@@ -5,7 +5,9 @@
 //   - every user or file text reaches the page through textContent, never innerHTML;
 //   - an invalid input is marked beside its field and never replaces the last valid project, its
 //     results stay on screen and it is never saved;
-//   - the project is saved (debounced) after every valid change;
+//   - the project is saved (debounced) after every valid change, based on the stored revision this
+//     tab loaded, so that a save never silently replaces another tab's; the form as typed is saved
+//     as a draft after every keystroke and restored after a reload;
 //   - the module exiting (go.run resolving) is a crash: #fatal-banner says so.
 "use strict";
 
@@ -391,25 +393,86 @@
     saveTimer = setTimeout(save, SAVE_DELAY_MS);
   }
 
-  async function save() {
-    if (!state.project || engineStopped) return;
+  // ---- Storage: saves, conflicts, kept copies, drafts ------------------------------------------
+  //
+  // Each save is based on the stored revision this tab loaded or last saved (store.revision); when
+  // another tab saved since, copoly keeps this tab's version as a conflict copy, leaves the other
+  // untouched, and #conflict-bar asks which to keep. A failed save (storage full) keeps the project
+  // on the page and in memory and is tried again with the next change. Copies set aside (stored
+  // files that could not be read, conflict copies) are offered in #kept-bar. The form as typed,
+  // valid or not, is saved as this tab's draft a moment after each keystroke and when the tab is
+  // hidden or left; after a reload #draft-bar says it was restored.
+  const DRAFT_DELAY_MS = 150;
+  const DRAFT_COPY = "copoly-draft"; // sessionStorage key of this tab's copy of its draft
+  const DRAFT_INPUTS = [...PROJECT_INPUTS, "#model-kind"];
+  const store = {
+    revision: { n: 0, writer: "" }, // the stored revision the next save is based on
+    storedKey: "",            // projectKey of what this tab last stored or loaded
+    failed: "",               // why the last save failed; "" once one succeeds
+    failedDetail: "",
+    conflict: null,           // {other: {project, revision}, kept} while the user has not chosen
+    tab: "",                  // this tab's name for its draft
+    draftTimer: 0,
+    draftDirty: false,
+    edits: 0,                 // typed changes so far, to tell whether the draft is still needed
+    loaded: null,             // the project as loaded, for "Discard the restored typing"
+    chain: Promise.resolve(), // this tab's storage calls, one after another
+  };
+
+  const projectKey = (p) => JSON.stringify({ ...p, savedAt: undefined });
+
+  // queued runs fn after this tab's earlier storage calls, and under a lock shared by the tabs of
+  // this browser where there is one, so that two tabs never save at the same instant.
+  function queued(fn) {
+    const locks = navigator.locks;
+    const run = () => (locks && typeof locks.request === "function" ? locks.request("copoly-storage", fn) : fn());
+    const p = store.chain.then(run, run);
+    store.chain = p.catch(() => {});
+    return p;
+  }
+
+  function save() {
+    if (!state.project || engineStopped) return Promise.resolve();
+    return queued(storeProject);
+  }
+
+  async function storeProject() {
     const project = state.project;
-    const r = await callAsync("saveProject", { project });
-    if (isError(r)) {
-      if (state.storage === "unavailable") showStorageStatus();
-      else setText("#storage-status", `Not saved: ${sentence(r.error)} Export the project to keep this version.`);
+    if (!project || engineStopped) return;
+    const key = projectKey(project);
+    if (key === store.storedKey) { // nothing new to store
+      if (store.failed) { store.failed = ""; showStorageStatus(); }
       return;
     }
+    const edits = store.edits;
+    const r = await callAsync("saveProject", { project, basedOn: store.revision });
+    if (isError(r)) {
+      // The project stays in state.project and on screen; the next change tries again.
+      const reason = String(r.error).replace(/^storage: /, "");
+      store.failed = state.storage === "unavailable" ? "" : reason.replace(/ \(.*$/s, "");
+      store.failedDetail = reason;
+      return showStorageStatus();
+    }
     state.storage = r.storage || "indexeddb";
+    store.failed = store.failedDetail = "";
+    if (!r.saved) return showConflict(r);
+    store.revision = r.revision;
+    store.storedKey = key;
     project.savedAt = r.savedAt;
     state.savedAt = r.savedAt;
     showStorageStatus();
+    // The stored project now holds all that was typed: the draft is no longer needed.
+    if (edits === store.edits && !state.invalid && !store.draftDirty && store.tab) dropDraft();
   }
 
   function showStorageStatus() {
     let text;
     if (state.storage === "unavailable") {
       text = "Browser storage unavailable — your work is kept only in this tab; export the project to keep it";
+    } else if (store.conflict) {
+      text = "Not saved over the version another tab saved: choose above which one to keep";
+    } else if (store.failed) {
+      text = `Not saved: ${store.failed}. Your changes are still here and are saved with your next change; the last saved version is kept. Export the project to keep a copy now`;
     } else if (state.savedAt) {
       text = `Saved ${clockTime(state.savedAt)}`;
     } else {
@@ -417,6 +480,188 @@
     }
     if (state.invalid) text += " · the marked field is not valid, so that change is not saved";
     setText("#storage-status", text);
+    if (store.failed) $("#storage-status").title = store.failedDetail;
+    else if (state.storage !== "unavailable") $("#storage-status").title = "";
+  }
+
+  function showConflict(r) {
+    store.conflict = { other: r.conflict, kept: r.kept };
+    const at = r.conflict.project.savedAt ? ` at ${clockTime(r.conflict.project.savedAt)}` : "";
+    setText("#conflict-text", `Another tab or window saved this project${at}, after this tab opened it. Nothing was overwritten: ` +
+      "that version stays saved, and this tab's version is kept as a separate copy. Which one do you want to keep? You can export either first.");
+    $("#conflict-bar").hidden = false;
+    showStorageStatus();
+  }
+
+  function closeConflict() {
+    const c = store.conflict;
+    store.conflict = null;
+    $("#conflict-bar").hidden = true;
+    return c;
+  }
+
+  // keepMine saves this tab's project over the other tab's (which becomes the previous copy).
+  async function keepMine() {
+    const c = closeConflict();
+    if (!c) return;
+    store.revision = c.other.revision;
+    store.storedKey = "";
+    await save();
+    if (!store.conflict && !store.failed) queued(() => callAsync("dropKept", { name: c.kept.name }));
+    showStorageStatus();
+  }
+
+  // keepOther puts the other tab's project on screen; "Bring it back" still offers this tab's.
+  function keepOther() {
+    const c = closeConflict();
+    if (!c) return;
+    store.revision = c.other.revision;
+    replaceProject(c.other.project, "You kept the version saved in the other tab.");
+    store.storedKey = projectKey(state.project);
+    state.savedAt = c.other.project.savedAt || "";
+    queued(() => callAsync("dropKept", { name: c.kept.name }));
+    dropDraft(); // this tab's typing is not to come back over the version the user kept
+    showStorageStatus();
+  }
+
+  function exportThis(p) {
+    const r = call("exportProject", { project: p });
+    if (isError(r)) return showGeneralError(`Not exported: ${r.error}`);
+    Plot.download(new Blob([r.json], { type: "application/json" }), r.filename);
+  }
+
+  // showKept lists the copies set aside, each to download or delete; a conflict copy can also be
+  // opened in place of the project on screen.
+  function showKept(list) {
+    const items = list.map((k) => {
+      const li = document.createElement("li");
+      const when = k.time ? ` on ${new Date(k.time).toLocaleDateString()} at ${clockTime(k.time)}` : "";
+      const text = k.kind === "conflict"
+        ? `A version kept aside when two tabs saved this project (a conflict copy)${when}.`
+        : `A saved copy that could not be read (damaged), set aside${when}, ${k.size} bytes.`;
+      const fetchCopy = async (then) => {
+        const r = await queued(() => callAsync("keptCopy", { name: k.name }));
+        if (isError(r)) return showGeneralError(`The kept copy could not be read: ${r.error}`);
+        then(r);
+      };
+      li.append(document.createTextNode(text + " "));
+      if (k.kind === "conflict") {
+        li.append(button("Open it", () => fetchCopy((r) => {
+          if (r.project) replaceProject(r.project, "The kept version is open.");
+        })), " ");
+      }
+      li.append(button("Download", () => fetchCopy((r) => Plot.download(new Blob([r.bytes], { type: "application/octet-stream" }), r.filename))), " ");
+      li.append(button("Delete", async () => {
+        const r = await queued(() => callAsync("dropKept", { name: k.name }));
+        if (isError(r)) return showGeneralError(`The kept copy was not deleted: ${r.error}`);
+        li.remove();
+        $("#kept-bar").hidden = !$("#kept-list").children.length;
+      }));
+      li.dataset.kept = k.name;
+      return li;
+    });
+    $("#kept-list").replaceChildren(...items);
+    $("#kept-bar").hidden = items.length === 0;
+  }
+
+  // tabName is this tab's name for its draft, kept in sessionStorage so that it survives a reload.
+  function tabName() {
+    let id = "";
+    try { id = sessionStorage.getItem("copoly-tab") || ""; } catch (e) { /* no sessionStorage: a name per load */ }
+    if (!/^[A-Za-z0-9_-]{1,64}$/.test(id)) {
+      const a = crypto.getRandomValues(new Uint32Array(2));
+      id = "t" + a[0].toString(36) + a[1].toString(36);
+      try { sessionStorage.setItem("copoly-tab", id); } catch (e) { /* as above */ }
+    }
+    return id;
+  }
+
+  function draftTyped() {
+    $("#draft-bar").hidden = true; // typing on accepts the restored text
+    store.edits++;
+    store.draftDirty = true;
+    clearTimeout(store.draftTimer);
+    store.draftTimer = setTimeout(flushDraft, DRAFT_DELAY_MS);
+  }
+
+  // flushDraft saves the form as typed, if it changed since the last draft: into browser storage
+  // through copoly, and at once into sessionStorage. The second copy matters when the tab is
+  // reloaded or closed: the page then stops before an IndexedDB write started in "pagehide" can
+  // finish, while sessionStorage is written before the handler returns and survives a reload.
+  function flushDraft() {
+    clearTimeout(store.draftTimer);
+    if (!store.draftDirty || !engine || engineStopped || !store.tab) return;
+    store.draftDirty = false;
+    const fields = {};
+    for (const sel of DRAFT_INPUTS) fields[sel.slice(1)] = $(sel).value;
+    const basedOn = store.revision;
+    try {
+      sessionStorage.setItem(DRAFT_COPY, JSON.stringify({ savedAt: new Date().toISOString(), basedOn, fields }));
+    } catch (e) { /* no sessionStorage: the stored draft alone */ }
+    queued(() => callAsync("saveDraft", { tab: store.tab, fields, basedOn }));
+  }
+
+  // dropDraft removes this tab's draft once the stored project holds it all. The sessionStorage
+  // copy becomes an empty draft of now, which outranks the stored draft should the page be
+  // reloaded before copoly has removed that one.
+  function dropDraft() {
+    clearTimeout(store.draftTimer);
+    store.draftDirty = false;
+    try {
+      sessionStorage.setItem(DRAFT_COPY, JSON.stringify({ savedAt: new Date().toISOString(), basedOn: store.revision, fields: {} }));
+    } catch (e) { /* no sessionStorage: the stored draft alone */ }
+    queued(() => callAsync("dropDraft", { tab: store.tab }));
+  }
+
+  // draftCopy is the sessionStorage copy of this tab's draft, or undefined.
+  function draftCopy() {
+    try {
+      const d = JSON.parse(sessionStorage.getItem(DRAFT_COPY) || "null");
+      return d && typeof d === "object" ? d : undefined;
+    } catch (e) {
+      return undefined;
+    }
+  }
+
+  // restoreDraft puts a draft newer than the stored project back into the form; it reports
+  // whether any text differed from what the project fills in.
+  function restoreDraft(draft) {
+    if (!draft || !draft.fields) return false;
+    let changed = false;
+    for (const sel of DRAFT_INPUTS) {
+      const text = draft.fields[sel.slice(1)];
+      if (typeof text !== "string" || $(sel).value === text) continue;
+      if (sel === "#model-kind" && !MODEL_NAME[text]) continue;
+      $(sel).value = text;
+      if (sel === "#r1" || sel === "#r2") state.formJcr = null;
+      changed = true;
+    }
+    if (!changed) return false;
+    showModelFields();
+    setText("#draft-text", `What you were typing at ${clockTime(draft.savedAt)} is back in the form: the page was closed or reloaded before all of it was saved.`);
+    $("#draft-bar").hidden = false;
+    return true;
+  }
+
+  function discardDraft() {
+    $("#draft-bar").hidden = true;
+    if (store.loaded) {
+      fillForm(store.loaded);
+      recompute();
+    }
+    dropDraft();
+  }
+
+  function wireStorage() {
+    for (const sel of DRAFT_INPUTS) $(sel).addEventListener("input", draftTyped);
+    $("#model-kind").addEventListener("change", draftTyped);
+    document.addEventListener("visibilitychange", () => { if (document.visibilityState === "hidden") flushDraft(); });
+    window.addEventListener("pagehide", flushDraft);
+    $("#conflict-keep-mine").addEventListener("click", keepMine);
+    $("#conflict-keep-other").addEventListener("click", keepOther);
+    $("#conflict-export-mine").addEventListener("click", () => { if (state.project) exportThis(state.project); });
+    $("#conflict-export-other").addEventListener("click", () => { if (store.conflict) exportThis(store.conflict.other.project); });
+    $("#draft-discard").addEventListener("click", discardDraft);
   }
 
   // updateBadge shows the demo badge for the invented demo and refreshes the print copies of
@@ -3391,9 +3636,11 @@
 
   async function start() {
     wire();
+    wireStorage();
     engine = await startModule();
     // Storage opens on a goroutine: ask for the project first and fill the pickers meanwhile.
-    const loading = callAsync("loadProject", {});
+    store.tab = tabName();
+    const loading = callAsync("loadProject", { tab: store.tab, draft: draftCopy() });
     setText("#engine-version", engine.version ? `version ${engine.version}` : "");
     const lib = call("library", {});
     if (!isError(lib)) state.library = { monomers: lib.monomers || [], pairs: lib.pairs || [] };
@@ -3409,6 +3656,8 @@
     } else {
       state.storage = loaded.storage;
       project = loaded.project;
+      if (loaded.revision) store.revision = loaded.revision;
+      showKept(loaded.kept || []);
       if (loaded.message && loaded.storage === "unavailable") {
         // #storage-status already says so; keep the engine's reason at hand without repeating it.
         $("#storage-status").title = loaded.message;
@@ -3419,6 +3668,8 @@
     }
     if (project) {
       state.savedAt = project.savedAt || "";
+      store.storedKey = projectKey(project);
+      store.loaded = project;
     } else {
       const demo = call("demoProject", {});
       if (isError(demo)) throw new Error(demo.error);
@@ -3433,6 +3684,8 @@
     const form = readForm();
     const errs = form.errors || drawAll(project);
     if (errs.length) markInvalid(errs);
+    // Typing restored from this tab's draft is a change: checked, drawn and saved like one.
+    if (restoreDraft(isError(loaded) ? null : loaded.draft)) recompute();
     $("#engine-status").hidden = true;
     performance.mark("copoly:ready");
     readyResolve();

@@ -317,11 +317,45 @@ export interface UserMonomer {
   note: string;                  // where the values come from, ≤ 1000 characters
 }
 
-export interface StorageLoad {
-  project: Project | null;      // null when nothing was stored yet
-  storage: "indexeddb" | "unavailable";
-  message?: string;             // e.g. "The stored project was damaged; the previous copy was restored."
+// Storage. Each save of the stored project has a revision; a page saves "based on" the revision
+// it loaded or last saved, and a save whose base is no longer the stored revision (another tab
+// saved meanwhile) is kept aside as a conflict copy instead of replacing the other tab's.
+export interface Revision {
+  n: number;                    // count of saves, 0..2^53-1 (0 with writer "": nothing stored, or a file without one)
+  writer: string;               // the page that made it: 1..64 letters, digits, "-" or "_"
 }
+
+// A copy set aside in browser storage: a stored file that could not be read ("damaged", kept byte
+// for byte, never replaced), or a save refused by a conflict ("conflict", one per tab).
+export interface KeptCopy {
+  name: string;                 // e.g. "damaged-20260302T093015Z.json", "conflict-k3f9q2.json"
+  kind: "damaged" | "conflict";
+  size: number;                 // bytes
+  time?: string;                // RFC 3339, when it was written
+}
+
+// The form of one tab exactly as typed (valid or not), saved a moment after each keystroke.
+export interface Draft {
+  savedAt: string;              // RFC 3339 with milliseconds
+  basedOn: Revision;            // the stored revision the tab was editing
+  fields: { [input: string]: string };  // input name (1..64 letters, digits, "-", "_") → text; ≤ 200 inputs, ≤ 1 MiB
+}
+
+export interface StorageLoad {
+  project: Project | null;      // null when nothing is stored, or no stored copy can be read (start from the demo)
+  storage: "indexeddb" | "unavailable";
+  revision: Revision;           // of project: pass it as basedOn of the next saveProject
+  message?: string;             // for the user, e.g. the previous copy is shown because the latest was damaged
+  damaged?: true;               // a stored copy could not be read (it is in kept)
+  kept: KeptCopy[];             // copies set aside, oldest first
+  draft?: Draft;                // with tab: that tab's typing, when newer than project
+}
+
+export type SaveResult =
+  | { saved: true; storage: "indexeddb"; savedAt: string; revision: Revision }
+  | { saved: false; storage: "indexeddb"; savedAt: string; revision: Revision;  // revision of the conflict copy
+      conflict: { project: Project; revision: Revision };  // the stored project (untouched) and its revision
+      kept: KeptCopy };                                     // where this save's project was kept
 
 export interface Copoly {
   version: string;
@@ -370,8 +404,14 @@ export interface Copoly {
   }): PlanResult | CopolyError;
   starvedFeed(a: { r1: number; r2: number; targetF1: number; feedRate: number; rateConstant: number; molarMass1: number; molarMass2: number }): { inventory: number; f1: number } | CopolyError;
   qe(a: { monomer1: string; monomer2: string }): { r1: number; r2: number; q1: number; e1: number; q2: number; e2: number; source1: string; source2: string } | CopolyError;  // screening estimate
-  loadProject(a?: {}): Promise<StorageLoad | CopolyError>;
-  saveProject(a: { project: Project }): Promise<{ saved: true; storage: "indexeddb"; savedAt: string } | CopolyError>;
+  loadProject(a?: { tab?: string;              // the page's name for its draft
+    draft?: { savedAt: string; basedOn?: Revision; fields: { [input: string]: string } } }  // the page's own copy of its draft (the later one wins); one that does not read is ignored
+  ): Promise<StorageLoad | CopolyError>;
+  saveProject(a: { project: Project; basedOn?: Revision }): Promise<SaveResult | CopolyError>;  // basedOn absent: the zero revision
+  saveDraft(a: { tab: string; fields: { [input: string]: string }; basedOn?: Revision }): Promise<{ saved: true; savedAt: string } | CopolyError>;
+  dropDraft(a: { tab: string }): Promise<{ dropped: true } | CopolyError>;
+  keptCopy(a: { name: string }): Promise<{ copy: KeptCopy; filename: string; bytes: Uint8Array; project?: Project } | CopolyError>;  // project: when the bytes read as one
+  dropKept(a: { name: string }): Promise<{ dropped: true } | CopolyError>;
 }
 
 declare global {

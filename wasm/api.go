@@ -65,16 +65,7 @@ func newAPI(st *storage) js.Value {
 	} {
 		api.Set(m.name, wrap(m.name, m.policy, m.fn))
 	}
-	api.Set("loadProject", wrapAsync("loadProject", argOptional, func(js.Value) (asyncJob, error) {
-		return st.load, nil
-	}))
-	api.Set("saveProject", wrapAsync("saveProject", argRequired, func(arg js.Value) (asyncJob, error) {
-		p, err := readProject(arg)
-		if err != nil {
-			return nil, err
-		}
-		return func() (any, error) { return st.save(p) }, nil
-	}))
+	registerStorage(api, st)
 	return api
 }
 

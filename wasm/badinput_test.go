@@ -19,6 +19,7 @@ import (
 	"strings"
 	"syscall/js"
 	"testing"
+	"time"
 
 	"gonum.org/v1/gonum/floats/scalar"
 )
@@ -482,8 +483,32 @@ func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 			{path: "monomer1", kind: kText, extra: []badValue{{expr: `"unobtainium"`, text: `"unobtainium"`}}},
 			{path: "monomer2", kind: kText, extra: []badValue{{expr: `""`, text: `""`}}},
 		}}}},
-		{name: "loadProject", async: true, optional: true},
-		{name: "saveProject", async: true, first: "project", bases: []sweepBase{{arg: projectArg, fields: projectFields("project.")}}},
+		{name: "loadProject", async: true, optional: true, bases: []sweepBase{{arg: `{tab: "sweep-tab"}`, fields: []sweepField{
+			{path: "tab", kind: kText, optional: true},
+		}}}},
+		{name: "saveProject", async: true, first: "project", bases: []sweepBase{{arg: projectArg, fields: projectFields("project.")}, {
+			name: "based on a revision",
+			arg:  `{project, basedOn: {n: 0, writer: "sweep-tab"}}`,
+			fields: []sweepField{
+				{path: "basedOn", kind: kObject, optional: true},
+				{path: "basedOn.n", kind: kNumber, extra: []badValue{{expr: `-1`, text: "-1"}, {expr: `2.5`, text: "2.5"}}},
+				{path: "basedOn.writer", kind: kText, optional: true},
+			},
+		}}},
+		{name: "saveDraft", async: true, first: "tab", bases: []sweepBase{{arg: `{tab: "sweep-tab", fields: {r1: "0,4", notes: "typed"}}`, fields: []sweepField{
+			{path: "tab", kind: kText},
+			{path: "fields", kind: kCells},
+			{path: "fields.r1", kind: kText, optional: true},
+		}}}},
+		{name: "dropDraft", async: true, first: "tab", bases: []sweepBase{{arg: `{tab: "sweep-tab"}`, fields: []sweepField{
+			{path: "tab", kind: kText},
+		}}}},
+		{name: "keptCopy", async: true, first: "name", bases: []sweepBase{{arg: `{name: "no-such-copy.json"}`, fields: []sweepField{
+			{path: "name", kind: kText},
+		}}}},
+		{name: "dropKept", async: true, first: "name", bases: []sweepBase{{arg: `{name: "no-such-copy.json"}`, fields: []sweepField{
+			{path: "name", kind: kText},
+		}}}},
 	}
 }
 
@@ -571,7 +596,7 @@ func wantBad(t *testing.T, v js.Value, field, text string) {
 }
 
 func TestBadInputSweep(t *testing.T) {
-	api, _ := testAPI(t)
+	api, memFS := testAPI(t)
 	s := &sweep{api: api}
 
 	project := fullProject(api)
@@ -580,6 +605,27 @@ func TestBadInputSweep(t *testing.T) {
 	_, triadObjs := triadSet(t)
 	toJSON := func(v []any) string { return js.Global().Get("JSON").Call("stringify", js.ValueOf(v)).String() }
 	methods := sweepMethods(toJSON(fitObjs), toJSON(triadObjs))
+
+	// keptCopy and dropKept need a kept copy: a save based on a revision the store has moved
+	// past is kept aside as a conflict copy.
+	// another tab: a second module instance on the same storage
+	other := newStorage()
+	other.open = memOpener(memFS)
+	other.now = func() time.Time { return fixedNow }
+	wantNoError(t, await(t, call(newAPI(other), "saveProject", map[string]any{"project": project})))
+	conflict := await(t, call(api, "saveProject", map[string]any{"project": project}))
+	keptName := js.Undefined()
+	if kept := conflict.Get("kept"); kept.Type() == js.TypeObject {
+		keptName = kept.Get("name")
+	}
+	if keptName.Type() != js.TypeString {
+		t.Fatalf("a save on an old revision gave %.300s, want a conflict with its kept copy", stringify(conflict))
+	}
+	for i := range methods {
+		if n := methods[i].name; n == "keptCopy" || n == "dropKept" {
+			methods[i].bases[0].arg = fmt.Sprintf("{name: %q}", keptName.String())
+		}
+	}
 
 	// Every method of the copoly object is swept, and no other.
 	var names []string
@@ -593,7 +639,7 @@ func TestBadInputSweep(t *testing.T) {
 			got = append(got, k)
 		}
 	}
-	if len(names) != 21 || !reflect.DeepEqual(got, names) {
+	if len(names) != 25 || !reflect.DeepEqual(got, names) {
 		t.Fatalf("the sweep covers %d methods %v; the copoly object has %v", len(names), names, got)
 	}
 

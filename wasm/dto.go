@@ -1478,6 +1478,11 @@ var limits = map[string]int{
 	"notes":  project.MaxNotesBytes,
 	"stamp":  project.MaxSavedAtLength, // ASCII: units are characters
 	"json":   project.MaxFileBytes,
+
+	// Storage (storage.go): the name of a page or writer, of a kept copy, and the inputs of a draft.
+	"id":          64, // project.CheckID's limit
+	"keptName":    100,
+	"draftFields": project.MaxDraftFields,
 }
 
 // limitOf returns the limit named by the struct tag key of sf, 0 when there is no such tag, and

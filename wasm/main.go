@@ -36,8 +36,12 @@
 //	             riseLimit?, jcr?, samples?, seed?})
 //	copoly.starvedFeed({r1, r2, targetF1, feedRate, rateConstant, molarMass1, molarMass2})
 //	copoly.qe({monomer1, monomer2})
-//	copoly.loadProject()             → Promise
-//	copoly.saveProject({project})    → Promise
+//	copoly.loadProject({tab?, draft?})          → Promise
+//	copoly.saveProject({project, basedOn?})     → Promise
+//	copoly.saveDraft({tab, fields, basedOn?})   → Promise
+//	copoly.dropDraft({tab})                     → Promise
+//	copoly.keptCopy({name})                     → Promise
+//	copoly.dropKept({name})                     → Promise
 //
 // where ...model is {r1, r2} (the terminal model, also with model: "terminal"),
 // {model: "penultimate", r11, r21, r22, r12} or {model: "implicit", r1, r2, s1, s2}. Some
@@ -50,15 +54,15 @@
 // field names the input at fault ("r1", "f1[3]", "runs[2].F1", "bench.rows[3].cells.f10",
 // "timeTable[2]", "jcr[5][0]", "project.monomer1.molarMass", "project.plan.mode", "arguments").
 // A Go panic inside a method is recovered and reported the same way with an "internal error"
-// message, so the module keeps answering. loadProject and saveProject return Promises that
-// always resolve, never reject.
+// message, so the module keeps answering. The storage methods return Promises that always
+// resolve, never reject.
 //
 // # Storage
 //
-// Projects are kept in the IndexedDB database "copoly" through hackpadfs (see package
-// copoly/copoly/project for the files and the two-copy rule). The database is opened on the
-// first loadProject or saveProject, on a goroutine, never at start-up: a page without IndexedDB
-// (Node, some private modes) loads at full speed and gets storage "unavailable".
+// Projects are kept in the IndexedDB database "copoly" through hackpadfs (see project.Store
+// for the files, the two-copy rule, revisions, kept copies and drafts). The database is opened
+// on the first storage call, on a goroutine, never at start-up: a page without IndexedDB (Node,
+// some private modes) loads at full speed and gets storage "unavailable".
 //
 // # Files
 //

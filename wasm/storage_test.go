@@ -5,6 +5,8 @@ package main
 import (
 	"context"
 	"errors"
+	"io"
+	"io/fs"
 	"strings"
 	"syscall/js"
 	"testing"
@@ -93,20 +95,22 @@ func TestSaveLoad(t *testing.T) {
 
 	r := await(t, call(api, "loadProject"))
 	wantNoError(t, r)
-	if !r.Get("project").IsNull() || r.Get("storage").String() != "indexeddb" || !r.Get("message").IsUndefined() {
-		t.Errorf("loadProject() on empty storage = %s, want {project: null, storage: \"indexeddb\"}", stringify(r))
+	if want := `{"project":null,"storage":"indexeddb","revision":{"n":0,"writer":""},"kept":[]}`; stringify(r) != want {
+		t.Errorf("loadProject() on empty storage = %s, want %s", stringify(r), want)
 	}
 
 	s := await(t, call(api, "saveProject", demo))
 	wantNoError(t, s)
-	// fixedNow above, RFC 3339.
-	if !s.Get("saved").Bool() || s.Get("storage").String() != "indexeddb" || s.Get("savedAt").String() != "2026-05-06T07:08:09Z" {
+	// fixedNow above, RFC 3339; the first save is revision 1.
+	if !s.Get("saved").Bool() || s.Get("storage").String() != "indexeddb" || s.Get("savedAt").String() != "2026-05-06T07:08:09Z" ||
+		s.Get("revision").Get("n").Int() != 1 || s.Get("revision").Get("writer").String() == "" || !s.Get("conflict").IsUndefined() {
 		t.Errorf("saveProject(demo) = %s", stringify(s))
 	}
+	rev1 := s.Get("revision")
 	r = await(t, call(api, "loadProject", map[string]any{}))
 	wantNoError(t, r)
 	loaded := r.Get("project")
-	if loaded.Get("savedAt").String() != "2026-05-06T07:08:09Z" || loaded.Get("name").String() != demo.Get("project").Get("name").String() {
+	if loaded.Get("savedAt").String() != "2026-05-06T07:08:09Z" || loaded.Get("name").String() != demo.Get("project").Get("name").String() || stringify(r.Get("revision")) != stringify(rev1) {
 		t.Errorf("loadProject() after a save = %s", stringify(r))
 	}
 
@@ -117,23 +121,267 @@ func TestSaveLoad(t *testing.T) {
 		t.Errorf("after a refused save loadProject() = %s, want %s", stringify(got), stringify(r))
 	}
 
-	// A second save keeps the first as the previous copy; a damaged current copy then falls back.
-	second := jsEval(`((d) => { const p = structuredClone(d.project); p.r1 = 0.75; return {project: p}; })`).Invoke(demo)
-	wantNoError(t, await(t, call(api, "saveProject", second)))
-	if err := hackpadfs.WriteFullFile(m, project.CurrentPath, []byte(`{"format":"copoly-pro`), 0o600); err != nil {
+	// A second save on the first keeps it as the previous copy; a damaged current copy then
+	// falls back to it, says so, and keeps the damaged bytes for download.
+	second := jsEval(`((d, rev) => { const p = structuredClone(d.project); p.r1 = 0.75; return {project: p, basedOn: rev}; })`).Invoke(demo, rev1)
+	s2 := await(t, call(api, "saveProject", second))
+	if wantNoError(t, s2); !s2.Get("saved").Bool() || s2.Get("revision").Get("n").Int() != 2 {
+		t.Fatalf("second saveProject() = %s", stringify(s2))
+	}
+	const cut = `{"format":"copoly-pro`
+	if err := hackpadfs.WriteFullFile(m, project.CurrentPath, []byte(cut), 0o600); err != nil {
 		t.Fatal(err)
 	}
 	r = await(t, call(api, "loadProject"))
 	wantNoError(t, r)
-	if r.Get("project").Get("r1").Float() != 0.8 || r.Get("message").String() != project.RestoredMessage {
-		t.Errorf("loadProject() with a damaged current copy = %s, want the first save (r1 0.8) and %q", stringify(r), project.RestoredMessage)
+	if r.Get("project").Get("r1").Float() != 0.8 || r.Get("message").String() != project.RestoredMessage || !r.Get("damaged").Bool() ||
+		stringify(r.Get("revision")) != stringify(rev1) || r.Get("kept").Length() != 1 {
+		t.Errorf("loadProject() with a damaged current copy = %s, want the first save (r1 0.8), %q and one kept copy", stringify(r), project.RestoredMessage)
+	}
+	k := r.Get("kept").Index(0)
+	if k.Get("kind").String() != project.KindDamaged || k.Get("size").Int() != len(cut) {
+		t.Errorf("kept copy = %s", stringify(k))
+	}
+	c := await(t, call(api, "keptCopy", map[string]any{"name": k.Get("name")}))
+	wantNoError(t, c)
+	if got := js.Global().Get("TextDecoder").New().Call("decode", c.Get("bytes")).String(); got != cut || c.Get("filename").String() != "copoly-"+k.Get("name").String() || !c.Get("project").IsUndefined() {
+		t.Errorf("keptCopy() = %s with bytes %q, want %q", stringify(c), got, cut)
 	}
 
-	// Both copies damaged: an error naming storage, never a crash.
+	// Both copies damaged: no project, a message, both kept; never an error or a crash.
 	if err := hackpadfs.WriteFullFile(m, project.PreviousPath, []byte(`[]`), 0o600); err != nil {
 		t.Fatal(err)
 	}
-	wantError(t, await(t, call(api, "loadProject")), "storage", "damaged")
+	r = await(t, call(api, "loadProject"))
+	wantNoError(t, r)
+	if !r.Get("project").IsNull() || r.Get("message").String() != project.LostMessage || r.Get("kept").Length() != 2 || r.Get("revision").Get("n").Int() != 0 {
+		t.Errorf("loadProject() with both copies damaged = %s", stringify(r))
+	}
+	// The page starts from the demo and saves it: both damaged copies stay kept.
+	wantNoError(t, await(t, call(api, "saveProject", demo)))
+	r = await(t, call(api, "loadProject"))
+	if r.Get("project").Get("r1").Float() != 0.8 || r.Get("kept").Length() != 2 || !r.Get("message").IsUndefined() {
+		t.Errorf("loadProject() after saving over damaged copies = %s", stringify(r))
+	}
+	for i := range r.Get("kept").Length() {
+		name := r.Get("kept").Index(i).Get("name")
+		wantNoError(t, await(t, call(api, "dropKept", map[string]any{"name": name})))
+		wantError(t, await(t, call(api, "keptCopy", map[string]any{"name": name})), "name", "no kept copy")
+	}
+	wantError(t, await(t, call(api, "dropKept", map[string]any{"name": "../current.json"})), "name", "no kept copy")
+	wantError(t, await(t, call(api, "keptCopy", map[string]any{"name": 3})), "name", "must be text")
+}
+
+// Two pages (tabs) with their own storage on one file system: the later save on an old
+// revision is kept aside as a conflict copy, and the page can then replace or keep.
+func TestConflict(t *testing.T) {
+	m, err := mem.NewFS()
+	if err != nil {
+		t.Fatal(err)
+	}
+	page := func(writer string) js.Value {
+		st := newStorage()
+		st.open, st.now, st.writer = memOpener(m), func() time.Time { return fixedNow }, writer
+		return newAPI(st)
+	}
+	a, b := page("tabA"), page("tabB")
+	demo := demoArg(t, a)
+	edit := func(js string, base js.Value) js.Value {
+		return jsEval(`((d, base) => { const p = structuredClone(d.project); `+js+`; return {project: p, basedOn: base}; })`).Invoke(demo, base)
+	}
+	baseA := await(t, call(a, "loadProject")).Get("revision")
+	baseB := await(t, call(b, "loadProject")).Get("revision")
+
+	sa := await(t, call(a, "saveProject", edit("p.r1 = 0.61", baseA)))
+	wantNoError(t, sa)
+	sb := await(t, call(b, "saveProject", edit("p.r2 = 0.33", baseB)))
+	wantNoError(t, sb)
+	if sb.Get("saved").Bool() || sb.Get("conflict").IsUndefined() {
+		t.Fatalf("second tab's saveProject() on an old base = %s, want a conflict", stringify(sb))
+	}
+	other := sb.Get("conflict")
+	if other.Get("project").Get("r1").Float() != 0.61 || stringify(other.Get("revision")) != stringify(sa.Get("revision")) {
+		t.Errorf("conflict = %s, want the first tab's project and revision %s", stringify(other), stringify(sa.Get("revision")))
+	}
+	kept := sb.Get("kept")
+	if kept.Get("kind").String() != project.KindConflict || kept.Get("name").String() != "conflict-tabB.json" {
+		t.Errorf("kept = %s", stringify(kept))
+	}
+	// The stored project is the first tab's; the second tab's is in the kept copy, whole.
+	if r := await(t, call(b, "loadProject")); r.Get("project").Get("r1").Float() != 0.61 || r.Get("project").Get("r2").Float() != 0.15 || r.Get("kept").Length() != 1 {
+		t.Errorf("loadProject() after the conflict = %s", stringify(r))
+	}
+	c := await(t, call(b, "keptCopy", map[string]any{"name": kept.Get("name")}))
+	wantNoError(t, c)
+	if c.Get("project").Get("r2").Float() != 0.33 || c.Get("copy").Get("kind").String() != project.KindConflict {
+		t.Errorf("keptCopy(conflict) = %s", stringify(c))
+	}
+
+	// "Keep this tab's version": a save on the other revision replaces it.
+	keep := await(t, call(b, "saveProject", edit("p.r2 = 0.33", other.Get("revision"))))
+	wantNoError(t, keep)
+	if !keep.Get("saved").Bool() || keep.Get("revision").Get("writer").String() != "tabB" || keep.Get("revision").Get("n").Int() != 2 {
+		t.Fatalf("saveProject() on the other revision = %s", stringify(keep))
+	}
+	wantNoError(t, await(t, call(b, "dropKept", map[string]any{"name": kept.Get("name")})))
+	// The first tab's next save, on its own old revision, conflicts in turn.
+	sa2 := await(t, call(a, "saveProject", edit("p.r1 = 0.62", sa.Get("revision"))))
+	if sa2.Get("saved").Bool() || sa2.Get("conflict").Get("project").Get("r2").Float() != 0.33 {
+		t.Errorf("first tab's save after the second replaced it = %s, want a conflict", stringify(sa2))
+	}
+
+	for _, tt := range []struct{ name, base, field, text string }{
+		{"count fractional", `{n: 1.5, writer: "x"}`, "basedOn.n", "whole number"},
+		{"count negative", `{n: -1, writer: "x"}`, "basedOn.n", "whole number"},
+		{"count text", `{n: "1", writer: "x"}`, "basedOn.n", "must be a number"},
+		{"writer missing", `{n: 1}`, "basedOn.writer", "letters, digits"},
+		{"writer a path", `{n: 1, writer: "../x"}`, "basedOn.writer", "only letters"},
+		{"not an object", `7`, "basedOn", "an object"},
+	} {
+		t.Run(tt.name, func(t *testing.T) {
+			arg := jsEval(`((d) => ({project: d.project, basedOn: ` + tt.base + `}))`).Invoke(demo)
+			wantError(t, await(t, call(a, "saveProject", arg)), tt.field, tt.text)
+		})
+	}
+}
+
+func TestDraft(t *testing.T) {
+	api, _ := testAPI(t)
+	fields := map[string]any{"r1": "0,4", "r2": "-0.0x", "notes": "half a sentence"}
+	d := await(t, call(api, "saveDraft", map[string]any{"tab": "t1", "fields": fields}))
+	wantNoError(t, d)
+	// fixedNow above with milliseconds.
+	if !d.Get("saved").Bool() || d.Get("savedAt").String() != "2026-05-06T07:08:09.000Z" {
+		t.Errorf("saveDraft() = %s", stringify(d))
+	}
+	r := await(t, call(api, "loadProject", map[string]any{"tab": "t1"}))
+	wantNoError(t, r)
+	if got := r.Get("draft"); got.IsUndefined() || got.Get("fields").Get("r2").String() != "-0.0x" || got.Get("fields").Get("notes").String() != "half a sentence" {
+		t.Errorf("loadProject({tab}) = %s, want the draft as typed", stringify(r))
+	}
+	for _, arg := range []map[string]any{{}, {"tab": "t2"}} {
+		if r := await(t, call(api, "loadProject", arg)); !r.Get("draft").IsUndefined() {
+			t.Errorf("loadProject(%v) = %s, want no draft", arg, stringify(r))
+		}
+	}
+	// The page's own copy of its draft (written at once when the page is left) wins when it is
+	// later than the stored one, and is ignored when it does not read.
+	later := map[string]any{"savedAt": "2026-05-06T07:08:09.500Z", "basedOn": map[string]any{"n": 0, "writer": ""}, "fields": map[string]any{"r2": "-0.04"}}
+	earlier := map[string]any{"savedAt": "2026-05-06T07:08:08.500Z", "fields": map[string]any{"r2": "0.0"}}
+	for _, tt := range []struct {
+		name  string
+		draft any
+		want  string
+	}{
+		{"later copy", later, "-0.04"},
+		{"earlier copy", earlier, "-0.0x"},
+		{"copy without fields key", map[string]any{"savedAt": "2026-05-06T07:08:09.500Z"}, "-0.0x"},
+		{"copy with a bad time", map[string]any{"savedAt": "now", "fields": map[string]any{}}, "-0.0x"},
+		{"copy not an object", "typed", "-0.0x"},
+	} {
+		r := await(t, call(api, "loadProject", map[string]any{"tab": "t1", "draft": tt.draft}))
+		wantNoError(t, r)
+		if got := r.Get("draft").Get("fields").Get("r2").String(); got != tt.want {
+			t.Errorf("%s: loadProject({tab, draft}) = %s, want r2 %q", tt.name, stringify(r), tt.want)
+		}
+	}
+	// A later copy with no fields (the page dropped its draft) outranks the stored draft.
+	r = await(t, call(api, "loadProject", map[string]any{"tab": "t1", "draft": map[string]any{"savedAt": "2026-05-06T07:08:09.500Z", "fields": map[string]any{}}}))
+	if d := r.Get("draft"); d.IsUndefined() || stringify(d.Get("fields")) != "{}" {
+		t.Errorf("loadProject() with a later empty copy = %s, want a draft with no fields", stringify(r))
+	}
+	wantNoError(t, await(t, call(api, "dropDraft", map[string]any{"tab": "t1"})))
+	if r := await(t, call(api, "loadProject", map[string]any{"tab": "t1"})); !r.Get("draft").IsUndefined() {
+		t.Errorf("loadProject() after dropDraft() = %s", stringify(r))
+	}
+
+	for _, tt := range []struct{ name, arg, field, text string }{
+		{"tab missing", `{fields: {}}`, "tab", "missing"},
+		{"tab a path", `{tab: "a/b", fields: {}}`, "tab", "only letters"},
+		{"fields missing", `{tab: "t"}`, "fields", "missing"},
+		{"field not text", `{tab: "t", fields: {r1: 0.4}}`, "fields.r1", "must be text"},
+		{"field name with a space", `{tab: "t", fields: {"r 1": "x"}}`, "fields.r 1", "only letters"},
+		{"too many fields", `{tab: "t", fields: Object.fromEntries(Array.from({length: 201}, (_, i) => ["f" + i, ""]))}`, "fields", "at most 200"},
+		{"base fractional", `{tab: "t", fields: {}, basedOn: {n: 0.5, writer: "w"}}`, "basedOn.n", "whole number"},
+	} {
+		t.Run(tt.name, func(t *testing.T) {
+			wantError(t, await(t, call(api, "saveDraft", jsEval(tt.arg))), tt.field, tt.text)
+		})
+	}
+	wantError(t, await(t, call(api, "loadProject", map[string]any{"tab": "a b"})), "tab", "only letters")
+	wantError(t, await(t, call(api, "dropDraft", map[string]any{})), "tab", "missing")
+}
+
+// fullFS is an in-memory file system whose writes fail, while full is set, with the error a
+// browser gives when its storage quota is used up; while unseen is set, a new file opened for
+// writing takes the bytes written and keeps nothing (as hackpadfs does when a put throws).
+type fullFS struct {
+	*mem.FS
+	full, unseen bool
+}
+
+var errFull = errors.New("QuotaExceededError: the quota has been exceeded")
+
+func (f *fullFS) OpenFile(name string, flag int, perm hackpadfs.FileMode) (hackpadfs.File, error) {
+	if f.full && flag&(hackpadfs.FlagWriteOnly|hackpadfs.FlagCreate) != 0 {
+		return nil, &fs.PathError{Op: "open", Path: name, Err: errFull}
+	}
+	if f.unseen && flag&hackpadfs.FlagCreate != 0 {
+		return nowhere{}, nil
+	}
+	return f.FS.OpenFile(name, flag, perm)
+}
+
+// nowhere is a file that takes every write and keeps nothing.
+type nowhere struct{ hackpadfs.File }
+
+func (nowhere) Read([]byte) (int, error)    { return 0, io.EOF }
+func (nowhere) Write(p []byte) (int, error) { return len(p), nil }
+func (nowhere) Close() error                { return nil }
+
+func (f *fullFS) Rename(oldName, newName string) error {
+	if f.full {
+		return &fs.PathError{Op: "rename", Path: oldName, Err: errFull}
+	}
+	return f.FS.Rename(oldName, newName)
+}
+
+func TestStorageFull(t *testing.T) {
+	m, err := mem.NewFS()
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := &fullFS{FS: m}
+	st := newStorage()
+	st.open, st.now = func(context.Context) (hackpadfs.FS, error) { return f, nil }, func() time.Time { return fixedNow }
+	api := newAPI(st)
+	demo := demoArg(t, api)
+	first := await(t, call(api, "saveProject", demo))
+	wantNoError(t, first)
+
+	f.full = true
+	next := jsEval(`((d, base) => { const p = structuredClone(d.project); p.r1 = 0.5; return {project: p, basedOn: base}; })`).Invoke(demo, first.Get("revision"))
+	wantError(t, await(t, call(api, "saveProject", next)), "storage", fullMessage)
+	wantError(t, await(t, call(api, "saveDraft", map[string]any{"tab": "t", "fields": map[string]any{"r1": "0.5"}})), "storage", fullMessage)
+	// The last good project is still stored.
+	if r := await(t, call(api, "loadProject")); r.Get("project").Get("r1").Float() != 0.8 || !r.Get("message").IsUndefined() {
+		t.Errorf("loadProject() after a failed save = %s, want the first save (r1 0.8)", stringify(r))
+	}
+	// A write the file system reports done but that does not read back is named too.
+	f.full, f.unseen = false, true
+	wantError(t, await(t, call(api, "saveProject", next)), "storage", notStoredMessage)
+	if r := await(t, call(api, "loadProject")); r.Get("project").Get("r1").Float() != 0.8 {
+		t.Errorf("loadProject() after an unseen failed save = %s, want the first save (r1 0.8)", stringify(r))
+	}
+	// Room again: the same save (the page's retry on the next change) goes through.
+	f.unseen = false
+	f.full = false
+	if s := await(t, call(api, "saveProject", next)); !s.Get("saved").Bool() || s.Get("revision").Get("n").Int() != 2 {
+		t.Errorf("saveProject() once there is room = %s", stringify(s))
+	}
+	if r := await(t, call(api, "loadProject")); r.Get("project").Get("r1").Float() != 0.5 {
+		t.Errorf("loadProject() after the retry = %s", stringify(r))
+	}
 }
 
 func TestStorageUnavailable(t *testing.T) {
@@ -147,23 +395,44 @@ func TestStorageUnavailable(t *testing.T) {
 	if !r.Get("project").IsNull() || r.Get("storage").String() != "unavailable" || !strings.Contains(r.Get("message").String(), "unavailable") {
 		t.Errorf("loadProject() without IndexedDB = %s, want {project: null, storage: \"unavailable\", message}", stringify(r))
 	}
-	wantError(t, await(t, call(api, "saveProject", demoArg(t, api))), "storage", "browser storage unavailable")
+	wantError(t, await(t, call(api, "saveProject", demoArg(t, api))), "storage", "browser storage is unavailable")
+	wantError(t, await(t, call(api, "saveDraft", map[string]any{"tab": "t", "fields": map[string]any{}})), "storage", "browser storage is unavailable")
+	// Without storage the page's own copy of its draft still comes back.
+	r = await(t, call(api, "loadProject", map[string]any{"tab": "t", "draft": map[string]any{"savedAt": "2026-05-06T07:08:09.500Z", "fields": map[string]any{"r1": "0.4x"}}}))
+	if r.Get("draft").Get("fields").Get("r1").String() != "0.4x" {
+		t.Errorf("loadProject({tab, draft}) without storage = %s, want the draft back", stringify(r))
+	}
 	// Asked again, the answer is the same (the failure is remembered, not retried).
 	if r2 := await(t, call(api, "loadProject")); r2.Get("storage").String() != "unavailable" {
 		t.Errorf("second loadProject() = %s", stringify(r2))
 	}
+
+	// A page where reading indexedDB throws (a browser that denies storage): unavailable, and
+	// the module keeps answering.
+	js.Global().Get("Object").Call("defineProperty", js.Global(), "indexedDB", jsEval(`{configurable: true, get() { throw new DOMException("denied by the test", "SecurityError"); }}`))
+	defer js.Global().Call("eval", "delete globalThis.indexedDB")
+	api = newAPI(newStorage())
+	r = await(t, call(api, "loadProject"))
+	wantNoError(t, r)
+	if r.Get("storage").String() != "unavailable" || !strings.Contains(r.Get("message").String(), "denied by the test") {
+		t.Errorf("loadProject() with a throwing indexedDB = %s", stringify(r))
+	}
+	wantNoError(t, call(api, "demoProject"))
 }
 
 func TestStorageOpenFailure(t *testing.T) {
 	// An opener that fails (a blocked database, a timeout) gives "unavailable" too, and is
-	// tried again on the next call.
+	// tried again once retryOpen has passed.
 	m, err := mem.NewFS()
 	if err != nil {
 		t.Fatal(err)
 	}
-	fail := true
+	fail, opens := true, 0
+	now := fixedNow
 	st := newStorage()
+	st.now = func() time.Time { return now }
 	st.open = func(ctx context.Context) (hackpadfs.FS, error) {
+		opens++
 		if _, ok := ctx.Deadline(); !ok {
 			t.Error("storage opened without a deadline")
 		}
@@ -177,7 +446,13 @@ func TestStorageOpenFailure(t *testing.T) {
 		t.Errorf("loadProject() with a failing open = %s", stringify(r))
 	}
 	fail = false
-	if r := await(t, call(api, "loadProject")); r.Get("storage").String() != "indexeddb" {
-		t.Errorf("loadProject() once the open works = %s", stringify(r))
+	// Within retryOpen the failure stands without a new attempt.
+	now = now.Add(retryOpen / 2)
+	if r := await(t, call(api, "loadProject")); r.Get("storage").String() != "unavailable" || opens != 1 {
+		t.Errorf("loadProject() soon after a failed open = %s after %d opens, want unavailable after 1", stringify(r), opens)
+	}
+	now = now.Add(retryOpen)
+	if r := await(t, call(api, "loadProject")); r.Get("storage").String() != "indexeddb" || opens != 2 {
+		t.Errorf("loadProject() once the open works = %s after %d opens", stringify(r), opens)
 	}
 }

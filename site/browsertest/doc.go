@@ -12,7 +12,9 @@
 // terminal ratios and checks that it draws the terminal composition curve and azeotrope, pastes
 // triads made by the terminal model and reads the verdict that they show no penultimate effect,
 // simulates 2000 chains, enters two molar-mass classes to check Mn and Mw, and reloads to see the
-// triads, the classes and the model kept. The page must do all this without a
+// triads, the classes and the model kept. The storage tests break the browser storage on
+// purpose: no IndexedDB (three ways), a full storage, damaged stored files, two tabs saving the
+// same project, and a reload in the middle of typing. The page must do all this without a
 // console error, an uncaught exception or any request beyond its own file.
 //
 // Three more look at the page itself. The print test emulates print media on a viewport as wide
