@@ -1553,7 +1553,7 @@
 
   function scheduleFit(now) {
     clearTimeout(bench.fitTimer);
-    bench.fitTimer = setTimeout(runFit, now ? 0 : FIT_DELAY_MS);
+    bench.fitTimer = setTimeout(() => { bench.fitTimer = 0; runFit(); }, now ? 0 : FIT_DELAY_MS);
   }
 
   // runRows maps "row N" in a message about the fitted runs (N counting those runs from 1) to the
@@ -2331,7 +2331,7 @@
 
   function schedulePlan(now) {
     clearTimeout(planUI.timer);
-    planUI.timer = setTimeout(runPlan, now ? 0 : PLAN_DELAY_MS);
+    planUI.timer = setTimeout(() => { planUI.timer = 0; runPlan(); }, now ? 0 : PLAN_DELAY_MS);
   }
 
   function onPlanInput(ev) {
@@ -3473,7 +3473,15 @@
 
   // ---- Project file ---------------------------------------------------------------------------
 
+  // flushPending runs at once the fit and the plan that wait for the typing to pause, so that an
+  // export or a printed report made right after an edit holds that edit.
+  function flushPending() {
+    if (planUI.timer) { clearTimeout(planUI.timer); planUI.timer = 0; runPlan(); }
+    if (bench.fitTimer) { clearTimeout(bench.fitTimer); bench.fitTimer = 0; runFit(); }
+  }
+
   function exportProject() {
+    flushPending();
     if (!state.project) return;
     const r = call("exportProject", { project: state.project });
     if (isError(r)) return showGeneralError(`Not exported: ${r.error}`);
@@ -3538,8 +3546,8 @@
   }
 
   function wireReport() {
-    $("#print-report").addEventListener("click", () => { stampReport(); window.print(); });
-    window.addEventListener("beforeprint", stampReport);
+    $("#print-report").addEventListener("click", () => { flushPending(); stampReport(); window.print(); });
+    window.addEventListener("beforeprint", () => { flushPending(); stampReport(); });
     window.matchMedia("print").addEventListener("change", (e) => { if (e.matches) stampReport(); });
     window.copolyReady.then(stampReport, () => {});
   }

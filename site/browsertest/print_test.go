@@ -143,7 +143,7 @@ func waitAllDrawn(t *testing.T, ctx context.Context) {
 	waitUntil(t, ctx, "every section of the demo to be drawn", `
 		for (const sel of ["#fig-composition svg", "#fig-drift svg", "#fig-jcr svg", "#fig-fit-data svg", "#fig-plan svg", "#fit-table tr[data-recommended]", "#plan-recipe tbody tr"]) {
 			const el = document.querySelector(sel);
-			if (!el || !el.checkVisibility()) return "no visible " + sel;
+			if (!el || !el.checkVisibility()) return "no visible " + sel + " (plan status: " + JSON.stringify(document.getElementById("plan-status").textContent) + "; " + [...document.querySelectorAll("#plan .field-error:not([hidden])")].map((e) => e.id + ": " + e.textContent).join("; ") + ")";
 		}
 		return "";`, stepTimeout)
 }
