@@ -136,13 +136,30 @@ type Loaded struct {
 // previous files are left as they are. now names the copies it sets aside. An error of the file
 // system comes back with field "storage".
 func (s Store) Load(now time.Time) (Loaded, error) {
-	cur, err := s.readStored(CurrentPath)
-	if err != nil {
-		return Loaded{}, storageError("the saved project could not be read", err)
+	// One listing first: in a browser every file looked up is a few IndexedDB transactions, and
+	// most loads find only some of the files, or (a first visit) nothing at all.
+	names, err := dirNames(s.FS, Dir)
+	if errors.Is(err, fs.ErrNotExist) {
+		return Loaded{}, nil
 	}
-	prev, err := s.readStored(PreviousPath)
-	if err != nil && cur.project == nil {
-		return Loaded{}, storageError("the saved project could not be read", err)
+	var present map[string]bool // nil when the listing failed: look everything up
+	if err == nil {
+		present = make(map[string]bool, len(names))
+		for _, n := range names {
+			present[n] = true
+		}
+	}
+	has := func(p string) bool { return present == nil || present[path.Base(p)] }
+	var cur, prev stored
+	if has(CurrentPath) {
+		if cur, err = s.readStored(CurrentPath); err != nil {
+			return Loaded{}, storageError("the saved project could not be read", err)
+		}
+	}
+	if has(PreviousPath) {
+		if prev, err = s.readStored(PreviousPath); err != nil && cur.project == nil {
+			return Loaded{}, storageError("the saved project could not be read", err)
+		}
 	}
 	var out Loaded
 	for _, c := range []stored{cur, prev} {
@@ -151,7 +168,7 @@ func (s Store) Load(now time.Time) (Loaded, error) {
 			_, _ = s.keep(KindDamaged, c.data, now) // best effort: Save insists before replacing it
 		}
 	}
-	s.tidy(now)
+	s.tidy(now, has)
 	switch {
 	case cur.project != nil:
 		out.Project, out.Revision = cur.project, cur.rev
@@ -163,7 +180,9 @@ func (s Store) Load(now time.Time) (Loaded, error) {
 	case cur.damaged || prev.damaged:
 		out.Message = LostMessage
 	}
-	out.Kept, _ = s.Kept() // a listing that fails leaves the list empty; the project still loads
+	if has(KeptDir) || out.Damaged || has(legacyDamagedPath) {
+		out.Kept, _ = s.Kept() // a listing that fails leaves the list empty; the project still loads
+	}
 	return out, nil
 }
 
@@ -344,13 +363,20 @@ func revisionOf(data []byte) Revision {
 
 // tidy removes temporary files older than staleTmp, drafts older than DraftMaxAge, and moves a
 // damaged file kept by an earlier copoly into KeptDir. It is best effort: a failure leaves things as they are.
-func (s Store) tidy(now time.Time) {
-	if data, err := hackpadfs.ReadFile(s.FS, legacyDamagedPath); err == nil {
-		if _, err := s.keep(KindDamaged, data, now); err == nil {
-			_ = hackpadfs.Remove(s.FS, legacyDamagedPath)
+//
+// has reports whether a path directly inside Dir exists (Load's listing); tidy looks only there.
+func (s Store) tidy(now time.Time, has func(string) bool) {
+	if has(legacyDamagedPath) {
+		if data, err := hackpadfs.ReadFile(s.FS, legacyDamagedPath); err == nil {
+			if _, err := s.keep(KindDamaged, data, now); err == nil {
+				_ = hackpadfs.Remove(s.FS, legacyDamagedPath)
+			}
 		}
 	}
 	for _, dir := range []string{Dir, KeptDir, DraftDir} {
+		if dir != Dir && !has(dir) {
+			continue
+		}
 		names, err := dirNames(s.FS, dir)
 		if err != nil {
 			continue
