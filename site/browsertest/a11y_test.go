@@ -5,7 +5,6 @@ package browsertest
 import (
 	"context"
 	"encoding/json"
-	"net/url"
 	"strconv"
 	"strings"
 	"testing"
@@ -25,17 +24,7 @@ import (
 // does, that focus visits every visible control exactly once, in the order of the document and
 // so of the steps, each with a visible focus outline.
 func TestBrowserKeyboardAndNames(t *testing.T) {
-	html := pagePath(t)
-	chromium := findChromium(t)
-	pageURL := (&url.URL{Scheme: "file", Path: html}).String()
-
-	w := &watcher{pageURL: pageURL}
-	ctx, stop := startBrowser(t, chromium, w)
-	defer stop()
-	defer screenshot(t, ctx)
-
-	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
-	waitReady(t, ctx)
+	ctx, w, _ := openPage(t, "")
 	waitAllDrawn(t, ctx)
 	evalJS[bool](t, ctx, `document.getElementById("own-box").open = true`)
 	click(t, ctx, "triad-add")

@@ -184,6 +184,26 @@ func findChromium(t *testing.T) string {
 // startBrowser starts headless Chromium with a fresh profile directory, which lives as long as
 // the test so that IndexedDB survives reloads, and returns a tab context whose events go to w.
 // stop ends the browser and removes the profile.
+// openPage starts Chromium with a fresh profile, makes its tab run script (if any) in every new
+// document before the page's own scripts, opens the offline page from file:// and waits for
+// window.copolyReady; the browser stops (after the screenshot of COPOLY_SHOT) when the test
+// ends. It returns the tab, the watcher of its console and requests, and the page's URL.
+func openPage(t *testing.T, script string) (context.Context, *watcher, string) {
+	t.Helper()
+	pageURL := (&url.URL{Scheme: "file", Path: pagePath(t)}).String()
+	chromium := findChromium(t)
+	w := &watcher{pageURL: pageURL}
+	ctx, stop := startBrowser(t, chromium, w)
+	t.Cleanup(stop)
+	t.Cleanup(func() { screenshot(t, ctx) }) // runs first: cleanups run last-in first-out
+	if script != "" {
+		addScript(t, ctx, script)
+	}
+	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
+	waitReady(t, ctx)
+	return ctx, w, pageURL
+}
+
 func startBrowser(t *testing.T, chromium string, w *watcher) (ctx context.Context, stop func()) {
 	t.Helper()
 	profile, err := os.MkdirTemp("", "copoly-browsertest-")

@@ -6,7 +6,6 @@ import (
 	"context"
 	"fmt"
 	"math"
-	"net/url"
 	"regexp"
 	"strconv"
 	"strings"
@@ -71,17 +70,7 @@ func triadBlock(r1, r2 float64) string {
 // definitions; a bad triad is refused and not saved; a reload brings the triads, the classes
 // and the model back.
 func TestBrowserSequencesAndChains(t *testing.T) {
-	html := pagePath(t)
-	chromium := findChromium(t)
-	pageURL := (&url.URL{Scheme: "file", Path: html}).String()
-
-	w := &watcher{pageURL: pageURL}
-	ctx, stop := startBrowser(t, chromium, w)
-	defer stop()
-	defer screenshot(t, ctx)
-
-	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
-	waitReady(t, ctx)
+	ctx, w, _ := openPage(t, "")
 	waitUntil(t, ctx, "the triads panel to be drawn", `
 		return document.getElementById("triad-status").textContent.trim() ? "" : "#triad-status is empty";`, stepTimeout)
 	w.check(t, "loading the page")

@@ -7,7 +7,6 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
-	"net/url"
 	"strconv"
 	"strings"
 	"testing"
@@ -51,17 +50,7 @@ func feedForTarget(r1, r2, target float64) float64 {
 // safety box, types a bad amount to see it refused and never saved, reloads to see the panel's
 // inputs come back, and adds a monomer of its own to see it offered in the pickers.
 func TestBrowserPlanning(t *testing.T) {
-	html := pagePath(t)
-	chromium := findChromium(t)
-	pageURL := (&url.URL{Scheme: "file", Path: html}).String()
-
-	w := &watcher{pageURL: pageURL}
-	ctx, stop := startBrowser(t, chromium, w)
-	defer stop()
-	defer screenshot(t, ctx)
-
-	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
-	waitReady(t, ctx)
+	ctx, w, _ := openPage(t, "")
 	waitPlan(t, ctx, "the first plan", "Plan:")
 	w.check(t, "loading the page")
 

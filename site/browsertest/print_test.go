@@ -6,7 +6,6 @@ import (
 	"bytes"
 	"context"
 	"fmt"
-	"net/url"
 	"os"
 	"regexp"
 	"strings"
@@ -36,17 +35,7 @@ const (
 // that every plot fits the page's width and height; and that Chromium's PDF of it has a sensible
 // number of pages. COPOLY_PDF, if set, receives the PDF.
 func TestBrowserPrintReport(t *testing.T) {
-	html := pagePath(t)
-	chromium := findChromium(t)
-	pageURL := (&url.URL{Scheme: "file", Path: html}).String()
-
-	w := &watcher{pageURL: pageURL}
-	ctx, stop := startBrowser(t, chromium, w)
-	defer stop()
-	defer screenshot(t, ctx)
-
-	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
-	waitReady(t, ctx)
+	ctx, w, _ := openPage(t, "")
 	waitAllDrawn(t, ctx)
 	w.check(t, "loading the page")
 

@@ -94,17 +94,7 @@ func checkInert(t *testing.T, ctx context.Context, when string) {
 // element may be made from the text, and the text must come back literally: on screen, in the
 // saved CSV and SVG files and in the project file.
 func TestBrowserUserTextIsText(t *testing.T) {
-	html := pagePath(t)
-	chromium := findChromium(t)
-	pageURL := (&url.URL{Scheme: "file", Path: html}).String()
-
-	w := &watcher{pageURL: pageURL}
-	ctx, stop := startBrowser(t, chromium, w)
-	defer stop()
-	defer screenshot(t, ctx)
-
-	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
-	waitReady(t, ctx)
+	ctx, w, _ := openPage(t, "")
 	waitAllDrawn(t, ctx)
 	evalJS[bool](t, ctx, trapJS)
 	w.check(t, "loading the page")

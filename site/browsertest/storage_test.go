@@ -5,7 +5,6 @@ package browsertest
 import (
 	"context"
 	"fmt"
-	"net/url"
 	"strconv"
 	"strings"
 	"testing"
@@ -41,23 +40,6 @@ func addScript(t *testing.T, ctx context.Context, src string) {
 	if _, err := chromedp.Call(ctx, page.AddScriptToEvaluateOnNewDocument, page.AddScriptToEvaluateOnNewDocumentParams{Source: src}); err != nil {
 		t.Fatalf("adding a script to new documents: %v", err)
 	}
-}
-
-// openPage starts a browser with a fresh profile, optionally adds a script to every new
-// document of its tab, and opens the page.
-func openPage(t *testing.T, script string) (ctx context.Context, w *watcher, pageURL string, stop func()) {
-	t.Helper()
-	html := pagePath(t)
-	chromium := findChromium(t)
-	pageURL = (&url.URL{Scheme: "file", Path: html}).String()
-	w = &watcher{pageURL: pageURL}
-	ctx, stop = startBrowser(t, chromium, w)
-	if script != "" {
-		addScript(t, ctx, script)
-	}
-	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
-	waitReady(t, ctx)
-	return ctx, w, pageURL, stop
 }
 
 // waitStatus waits until #storage-status matches the regular expression re (case ignored).
@@ -163,8 +145,7 @@ func TestBrowserStorageUnavailable(t *testing.T) {
 	}
 	for _, v := range variants {
 		t.Run(v.name, func(t *testing.T) {
-			ctx, w, _, stop := openPage(t, v.script)
-			defer stop()
+			ctx, w, _ := openPage(t, v.script)
 			defer screenshot(t, ctx)
 			waitStatus(t, ctx, "storage is unavailable", `unavailable.*export`)
 			w.check(t, "loading the page")
@@ -206,8 +187,7 @@ const failWrites = `(() => {
 // that the page says the save failed and why, keeps the edit on screen, leaves the stored
 // project as it was, and stores the edit with the next change once there is room again.
 func TestBrowserStorageFull(t *testing.T) {
-	ctx, w, _, stop := openPage(t, failWrites)
-	defer stop()
+	ctx, w, _ := openPage(t, failWrites)
 	defer screenshot(t, ctx)
 
 	setInput(t, ctx, "r1", "0.40")
@@ -287,8 +267,7 @@ func keptCopies(t *testing.T, ctx context.Context) []string {
 // previous one too, and checks that the page falls back to the previous copy and then to the
 // demo, says so, and keeps the damaged bytes for download, also after later saves.
 func TestBrowserStorageDamaged(t *testing.T) {
-	ctx, w, _, stop := openPage(t, "")
-	defer stop()
+	ctx, w, _ := openPage(t, "")
 	defer screenshot(t, ctx)
 
 	// Two saves: the latest (r1 0.40, r2 0.04) and, before it, r1 0.40 with the demo's r2.
@@ -393,8 +372,7 @@ func sameStrings(a, b []string) bool {
 // TestBrowserStorageTwoTabs opens the page in two tabs of one browser. Both edit; the second
 // save finds the first tab's and must not replace it: the page says so and the user picks.
 func TestBrowserStorageTwoTabs(t *testing.T) {
-	ctxA, wA, pageURL, stop := openPage(t, "")
-	defer stop()
+	ctxA, wA, pageURL := openPage(t, "")
 	defer screenshot(t, ctxA)
 	wB := &watcher{pageURL: pageURL}
 	ctxB, cancelB := chromedp.NewContext(ctxA, chromedp.WithListener(wB.listen))
@@ -450,8 +428,7 @@ func TestBrowserStorageTwoTabs(t *testing.T) {
 // TestBrowserStorageDraft types valid and not-yet-valid text and reloads at once: the text must
 // come back as typed, with a notice and a way to discard it.
 func TestBrowserStorageDraft(t *testing.T) {
-	ctx, w, _, stop := openPage(t, "")
-	defer stop()
+	ctx, w, _ := openPage(t, "")
 	defer screenshot(t, ctx)
 	setInput(t, ctx, "r1", "0.40")
 	waitSaved(t, ctx)
