@@ -5,6 +5,7 @@ package browsertest
 import (
 	"context"
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -146,7 +147,6 @@ func TestBrowserStorageUnavailable(t *testing.T) {
 	for _, v := range variants {
 		t.Run(v.name, func(t *testing.T) {
 			ctx, w, _ := openPage(t, v.script)
-			defer screenshot(t, ctx)
 			waitStatus(t, ctx, "storage is unavailable", `unavailable.*export`)
 			w.check(t, "loading the page")
 
@@ -188,7 +188,6 @@ const failWrites = `(() => {
 // project as it was, and stores the edit with the next change once there is room again.
 func TestBrowserStorageFull(t *testing.T) {
 	ctx, w, _ := openPage(t, failWrites)
-	defer screenshot(t, ctx)
 
 	setInput(t, ctx, "r1", "0.40")
 	setInput(t, ctx, "r2", "0.04")
@@ -268,7 +267,6 @@ func keptCopies(t *testing.T, ctx context.Context) []string {
 // demo, says so, and keeps the damaged bytes for download, also after later saves.
 func TestBrowserStorageDamaged(t *testing.T) {
 	ctx, w, _ := openPage(t, "")
-	defer screenshot(t, ctx)
 
 	// Two saves: the latest (r1 0.40, r2 0.04) and, before it, r1 0.40 with the demo's r2.
 	setInput(t, ctx, "r1", "0.40")
@@ -350,30 +348,18 @@ func waitStoredRatios(t *testing.T, ctx context.Context, want string) {
 	storedProject(t, ctx, "the stored ratios to be "+want, fmt.Sprintf(`return p.r1 + "/" + p.r2 === %s ? "" : p.r1 + "/" + p.r2;`, jsString(want)))
 }
 
+// sameStrings reports whether a and b hold the same texts, each as many times, in any order.
 func sameStrings(a, b []string) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	seen := map[string]int{}
-	for _, s := range a {
-		seen[s]++
-	}
-	for _, s := range b {
-		seen[s]--
-	}
-	for _, n := range seen {
-		if n != 0 {
-			return false
-		}
-	}
-	return true
+	a, b = slices.Clone(a), slices.Clone(b)
+	slices.Sort(a)
+	slices.Sort(b)
+	return slices.Equal(a, b)
 }
 
 // TestBrowserStorageTwoTabs opens the page in two tabs of one browser. Both edit; the second
 // save finds the first tab's and must not replace it: the page says so and the user picks.
 func TestBrowserStorageTwoTabs(t *testing.T) {
 	ctxA, wA, pageURL := openPage(t, "")
-	defer screenshot(t, ctxA)
 	wB := &watcher{pageURL: pageURL}
 	ctxB, cancelB := chromedp.NewContext(ctxA, chromedp.WithListener(wB.listen))
 	defer cancelB()
@@ -429,7 +415,6 @@ func TestBrowserStorageTwoTabs(t *testing.T) {
 // come back as typed, with a notice and a way to discard it.
 func TestBrowserStorageDraft(t *testing.T) {
 	ctx, w, _ := openPage(t, "")
-	defer screenshot(t, ctx)
 	setInput(t, ctx, "r1", "0.40")
 	waitSaved(t, ctx)
 
