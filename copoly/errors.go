@@ -74,6 +74,14 @@ func checkFinite(field string, v float64) error {
 
 // CheckFraction returns an *InputError unless 0 ≤ v ≤ 1.
 func CheckFraction(field string, v float64) error {
+	if v >= 0 && v <= 1 { // false for NaN: the common case stays small enough to inline
+		return nil
+	}
+	return checkFractionError(field, v)
+}
+
+// checkFractionError is the error of CheckFraction for a v outside its range.
+func checkFractionError(field string, v float64) error {
 	if err := checkFinite(field, v); err != nil {
 		return err
 	}
@@ -85,6 +93,14 @@ func CheckFraction(field string, v float64) error {
 
 // CheckConversion returns an *InputError unless 0 ≤ v ≤ 1.
 func CheckConversion(field string, v float64) error {
+	if v >= 0 && v <= 1 { // false for NaN: the common case stays small enough to inline
+		return nil
+	}
+	return checkConversionError(field, v)
+}
+
+// checkConversionError is the error of CheckConversion for a v outside its range.
+func checkConversionError(field string, v float64) error {
 	if err := checkFinite(field, v); err != nil {
 		return err
 	}
@@ -97,6 +113,14 @@ func CheckConversion(field string, v float64) error {
 // CheckRatio returns an *InputError unless v is a finite reactivity ratio ≥ 0 and not absurdly
 // large (above [MaxRatio]).
 func CheckRatio(field string, v float64) error {
+	if v >= 0 && v <= MaxRatio { // false for NaN: the common case stays small enough to inline
+		return nil
+	}
+	return checkRatioError(field, v)
+}
+
+// checkRatioError is the error of CheckRatio for a v outside its range.
+func checkRatioError(field string, v float64) error {
 	if err := checkFinite(field, v); err != nil {
 		return err
 	}

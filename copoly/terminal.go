@@ -24,10 +24,18 @@ type Terminal struct {
 // Validate returns an [*InputError] naming "r1" or "r2" when a ratio is negative, not finite or
 // above [MaxRatio].
 func (m Terminal) Validate() error {
-	if err := CheckRatio("r1", m.R1); err != nil {
+	if m.R1 >= 0 && m.R2 >= 0 && max(m.R1, m.R2) <= MaxRatio { // false for NaN
+		return nil
+	}
+	return m.invalid()
+}
+
+// invalid is the error of Validate, naming the first bad ratio.
+func (m Terminal) invalid() error {
+	if err := checkRatioError("r1", m.R1); err != nil {
 		return err
 	}
-	return CheckRatio("r2", m.R2)
+	return checkRatioError("r2", m.R2)
 }
 
 // Instantaneous returns the mole fraction F1 of M1 units in the copolymer formed from a monomer
