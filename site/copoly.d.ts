@@ -215,7 +215,7 @@ export interface FitResult {
     "inverted-fineman-ross"?: LinearFit;
     "kelen-tudos"?: LinearFit;
     "extended-kelen-tudos"?: LinearFit;
-    "mayo-lewis-integrated"?: { r1: number; r2: number; curves: { r1: number[]; r2: number[] }[] };
+    "mayo-lewis-integrated"?: { r1: number; r2: number; curves?: { r1: number[]; r2: number[] }[] };  // curves: with fit's curves: true, one per run with a conversion
     "nonlinear"?: NonlinearFit;
     "evm"?: EVMFit;
   };
@@ -383,7 +383,7 @@ export interface Copoly {
   importProject(a: { json: string }): { project: Project } | CopolyError;
   benchRuns(a: { bench: BenchTable; molarMass1?: number; molarMass2?: number }): BenchResult | CopolyError;
   pasteBench(a: { bench: BenchTable; text: string }): { bench: BenchTable } | CopolyError;  // rows appended; header names map columns
-  fit(a: { runs: Run[]; level?: number }): FitResult | CopolyError;
+  fit(a: { runs: Run[]; level?: number; curves?: boolean }): FitResult | CopolyError;  // curves: add the Mayo–Lewis curves (most of the result; off by default)
   nextRuns(a: { r1: number; r2: number; runs?: Run[]; conversions?: number[] }): NextRunsResult | CopolyError;
   plan(a: {
     r1: number; r2: number; targetF1: number;

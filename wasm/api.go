@@ -644,15 +644,15 @@ func fit(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	return fitValue(e), nil
+	return fitValue(e, in.Curves != nil && *in.Curves), nil
 }
 
 // fitValue converts the estimates to the FitResult of the d.ts. A method that could not run is
 // absent (copoly gives its reason among the warnings). A method whose result holds a number
 // that is not finite, where the d.ts promises one, is left out with a warning of its own;
 // copoly's +Inf standard errors and NaN correlation of a singular fit are the one expected
-// case and become null instead.
-func fitValue(e *copoly.Estimates) js.Value {
+// case and become null instead. curves adds the Mayo–Lewis curves.
+func fitValue(e *copoly.Estimates, curves bool) js.Value {
 	warnings := make([]warningOut, len(e.Warnings))
 	for i, w := range e.Warnings {
 		warnings[i] = warningOut{Method: w.Method, Row: w.Row, Field: w.Field, Message: w.Message}
@@ -692,7 +692,11 @@ func fitValue(e *copoly.Estimates) js.Value {
 		}
 	}
 	if e.MayoLewis != nil {
-		add(copoly.MethodMayoLewis, mayoLewisDTO(e.MayoLewis))
+		if curves {
+			add(copoly.MethodMayoLewis, mayoLewisDTO(e.MayoLewis, true))
+		} else {
+			add(copoly.MethodMayoLewis, mayoLewisDTO(e.MayoLewis, false), "curves")
+		}
 	}
 	if n := e.Nonlinear; n != nil {
 		if n.Weighted {

@@ -400,13 +400,14 @@ func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 				{expr: `"x".repeat(2**20 + 1)`, text: "1048577"},
 			}}),
 		}}},
-		{name: "fit", first: "runs", bases: []sweepBase{{arg: `{runs: ` + fitRunsJSON + `, level: 0.95}`, fields: []sweepField{
+		{name: "fit", first: "runs", bases: []sweepBase{{arg: `{runs: ` + fitRunsJSON + `, level: 0.95, curves: true}`, fields: []sweepField{
 			{path: "runs", kind: kObjects, extra: []badValue{{expr: `new Array(1001).fill({f10: 0.5, F1: 0.5})`, text: "1001"}}},
 			{path: "runs[0].f10", kind: kNumber, extra: badFraction},
 			{path: "runs[0].F1", kind: kNumber, extra: badFraction},
 			{path: "runs[0].conversion", kind: kNumber, optional: true, extra: badFraction},
 			{path: "runs[0].sF", kind: kNumber, optional: true, extra: badFraction},
 			{path: "level", kind: kNumber, optional: true, extra: []badValue{{expr: `1.5`, text: "1.5"}, {expr: `-0.5`, text: "-0.5"}, {expr: `1`, text: "= 1"}}},
+			{path: "curves", kind: kBool, optional: true},
 		}}}},
 		{name: "nextRuns", first: "r1", bases: []sweepBase{{arg: `{r1: 0.8, r2: 0.15, runs: ` + fitRunsJSON + `, conversions: [0.1, 0.3]}`, fields: []sweepField{
 			{path: "r1", kind: kNumber, extra: badRatio},

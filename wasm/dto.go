@@ -544,8 +544,9 @@ type pasteBenchIn struct {
 }
 
 type fitIn struct {
-	Runs  []runDTO `js:"runs" limit:"runs"`
-	Level *float64 `js:"level"`
+	Runs   []runDTO `js:"runs" limit:"runs"`
+	Level  *float64 `js:"level"`
+	Curves *bool    `js:"curves"`
 }
 
 // linearOut is the LinearFit of the d.ts; alpha is removed for the methods without one.
@@ -572,11 +573,17 @@ type curveOut struct {
 type mayoLewisOut struct {
 	R1     float64    `js:"r1"`
 	R2     float64    `js:"r2"`
-	Curves []curveOut `js:"curves"`
+	Curves []curveOut `js:"curves"` // nil (removed) unless asked for
 }
 
-func mayoLewisDTO(m *copoly.Intersection) mayoLewisOut {
-	out := mayoLewisOut{R1: m.R1, R2: m.R2, Curves: make([]curveOut, len(m.Curves))}
+// mayoLewisDTO converts the intersection; its curves (one per run, up to 200 points each: most
+// of a fit's result) only when asked for, as the page does not draw them.
+func mayoLewisDTO(m *copoly.Intersection, curves bool) mayoLewisOut {
+	out := mayoLewisOut{R1: m.R1, R2: m.R2}
+	if !curves {
+		return out
+	}
+	out.Curves = make([]curveOut, len(m.Curves))
 	for i, c := range m.Curves {
 		out.Curves[i] = curveOut{R1: orEmpty(c[0]), R2: orEmpty(c[1])}
 	}

@@ -289,7 +289,7 @@ func TestFit(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	r := call(api, "fit", map[string]any{"runs": objs})
+	r := call(api, "fit", map[string]any{"runs": objs, "curves": true})
 	wantNoError(t, r)
 	methods := r.Get("methods")
 	for _, name := range []string{"fineman-ross", "inverted-fineman-ross", "kelen-tudos", "extended-kelen-tudos", "mayo-lewis-integrated", "nonlinear", "evm"} {
@@ -330,6 +330,9 @@ func TestFit(t *testing.T) {
 	ml := methods.Get("mayo-lewis-integrated")
 	if ml.Get("r1").Float() != e.MayoLewis.R1 || ml.Get("r2").Float() != e.MayoLewis.R2 || ml.Get("curves").Length() != len(e.MayoLewis.Curves) {
 		t.Errorf("mayo-lewis-integrated = r1 %v, r2 %v, %d curves, want %v, %v, %d", ml.Get("r1").Float(), ml.Get("r2").Float(), ml.Get("curves").Length(), e.MayoLewis.R1, e.MayoLewis.R2, len(e.MayoLewis.Curves))
+	}
+	if def := call(api, "fit", map[string]any{"runs": objs}).Get("methods").Get("mayo-lewis-integrated"); !def.Get("curves").IsUndefined() || def.Get("r1").Float() != e.MayoLewis.R1 {
+		t.Errorf("fit without curves: mayo-lewis-integrated = %.200s, want r1 %v and no curves", stringify(def), e.MayoLewis.R1)
 	}
 	c0 := ml.Get("curves").Index(0)
 	sameFloats(t, "curves[0].r1", floatsOf(t, c0.Get("r1")), e.MayoLewis.Curves[0][0])
@@ -492,7 +495,7 @@ func TestFitValueNotFinite(t *testing.T) {
 		TrendFeed:          copoly.Trend{Slope: nan, PValue: nan},
 		SwappedFinemanRoss: &copoly.Linear{R1: inf, R2: 0.1},
 	}
-	v := fitValue(e)
+	v := fitValue(e, true)
 	m := v.Get("methods")
 	if !m.Get("fineman-ross").IsUndefined() || m.Get("kelen-tudos").IsUndefined() {
 		t.Errorf("methods = %s, want fineman-ross (NaN in y) left out and kelen-tudos kept", stringify(m))
