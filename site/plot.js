@@ -324,6 +324,9 @@ const Plot = (() => {
     svg.append(el("rect", { x: 0, y: 0, width: W, height: H, fill: "#ffffff" }));
     title(svg, spec.title, m.l, W - m.l - m.r);
     const g = el("g", { "font-size": 12, fill: MUTED });
+    // Each run of one monomer is a rectangle; all the runs of one monomer are one path (two
+    // elements for the whole picture, where one per run made hundreds).
+    const runs = ["", ""];
     chains.forEach((chain, row) => {
       const y = m.t + row * (rowH + gap);
       g.append(el("text", { x: m.l - 8, y: y + rowH - 3, "text-anchor": "end" }, String(row + 1)));
@@ -331,11 +334,13 @@ const Plot = (() => {
       for (let i = 1; i <= chain.length; i++) {
         if (i === chain.length || chain[i] !== chain[start]) {
           const unit = chain[start] === "1" ? 0 : 1;
-          g.append(el("rect", { x: (m.l + start * cell).toFixed(2), y, width: ((i - start) * cell).toFixed(2), height: rowH,
-            fill: spec.colors[unit], stroke: "#ffffff", "stroke-width": 0.6 }));
+          runs[unit] += `M${(m.l + start * cell).toFixed(2)} ${y}h${((i - start) * cell).toFixed(2)}v${rowH}H${(m.l + start * cell).toFixed(2)}z`;
           start = i;
         }
       }
+    });
+    runs.forEach((d, unit) => {
+      if (d) g.append(el("path", { d, fill: spec.colors[unit], stroke: "#ffffff", "stroke-width": 0.6 }));
     });
     const axisY = m.t + ph + 6;
     const every = niceStep(n, 6);
