@@ -142,14 +142,14 @@ func (s Store) Load(now time.Time) (Loaded, error) {
 	if errors.Is(err, fs.ErrNotExist) {
 		return Loaded{}, nil
 	}
-	var present map[string]bool // nil when the listing failed: look everything up
+	top := listing{names: names}
 	if err == nil {
-		present = make(map[string]bool, len(names))
+		top.present = make(map[string]bool, len(names))
 		for _, n := range names {
-			present[n] = true
+			top.present[n] = true
 		}
 	}
-	has := func(p string) bool { return present == nil || present[path.Base(p)] }
+	has := top.has
 	var cur, prev stored
 	if has(CurrentPath) {
 		if cur, err = s.readStored(CurrentPath); err != nil {
@@ -168,7 +168,7 @@ func (s Store) Load(now time.Time) (Loaded, error) {
 			_, _ = s.keep(KindDamaged, c.data, now) // best effort: Save insists before replacing it
 		}
 	}
-	s.tidy(now, has)
+	s.tidy(now, top)
 	switch {
 	case cur.project != nil:
 		out.Project, out.Revision = cur.project, cur.rev
@@ -361,12 +361,24 @@ func revisionOf(data []byte) Revision {
 	return *f.Revision
 }
 
+// listing is the listing of Dir that Load takes first.
+type listing struct {
+	names   []string        // the entries directly inside Dir
+	present map[string]bool // the same as a set; nil when Dir could not be listed
+}
+
+// has reports whether path, directly inside Dir, or Dir itself was listed; every path counts as
+// present when the listing failed, so that it is looked up.
+func (l listing) has(p string) bool {
+	return l.present == nil || p == Dir || l.present[path.Base(p)]
+}
+
 // tidy removes temporary files older than staleTmp, drafts older than DraftMaxAge, and moves a
 // damaged file kept by an earlier copoly into KeptDir. It is best effort: a failure leaves things as they are.
 //
-// has reports whether a path directly inside Dir exists (Load's listing); tidy looks only there.
-func (s Store) tidy(now time.Time, has func(string) bool) {
-	if has(legacyDamagedPath) {
+// top is Load's listing of Dir; tidy looks only at what it names.
+func (s Store) tidy(now time.Time, top listing) {
+	if top.has(legacyDamagedPath) {
 		if data, err := hackpadfs.ReadFile(s.FS, legacyDamagedPath); err == nil {
 			if _, err := s.keep(KindDamaged, data, now); err == nil {
 				_ = hackpadfs.Remove(s.FS, legacyDamagedPath)
@@ -374,12 +386,15 @@ func (s Store) tidy(now time.Time, has func(string) bool) {
 		}
 	}
 	for _, dir := range []string{Dir, KeptDir, DraftDir} {
-		if dir != Dir && !has(dir) {
+		if !top.has(dir) {
 			continue
 		}
-		names, err := dirNames(s.FS, dir)
-		if err != nil {
-			continue
+		names := top.names
+		if dir != Dir || top.present == nil {
+			var err error
+			if names, err = dirNames(s.FS, dir); err != nil {
+				continue
+			}
 		}
 		for _, name := range names {
 			age := staleTmp

@@ -24,8 +24,8 @@ func (f *openCountFS) Open(name string) (hackpadfs.File, error) {
 }
 
 // TestLoadLooksOnlyAtWhatExists checks that Load of a store where nothing was ever saved opens
-// one directory and nothing else, and after a save reads the current file but not the previous
-// copy, the kept copies or the drafts, which do not exist.
+// one directory and nothing else, and after a save lists that directory once and reads the
+// current file but not the previous copy, the kept copies or the drafts, which do not exist.
 func TestLoadLooksOnlyAtWhatExists(t *testing.T) {
 	m, err := mem.NewFS()
 	if err != nil {
@@ -47,10 +47,16 @@ func TestLoadLooksOnlyAtWhatExists(t *testing.T) {
 	if err != nil || l.Project == nil || l.Project.Name != Demo().Name {
 		t.Fatalf("Load() after a save = %+v, %v", l, err)
 	}
+	dirs := 0
 	for _, name := range f.opened {
 		switch name {
+		case Dir:
+			dirs++
 		case PreviousPath, KeptDir, DraftDir, legacyDamagedPath:
 			t.Errorf("Load() after one save opened %s, which does not exist (opened %q)", name, f.opened)
 		}
+	}
+	if dirs != 1 {
+		t.Errorf("Load() after one save listed %s %d times, want once (opened %q)", Dir, dirs, f.opened)
 	}
 }
