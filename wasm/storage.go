@@ -119,6 +119,17 @@ func (s *storage) begin() (project.Store, error) {
 
 func (s *storage) end() { <-s.lock }
 
+// with runs job on the project store under the storage lock; storage that cannot open gives
+// the unavailable error.
+func (s *storage) with(job func(st project.Store) (any, error)) (any, error) {
+	st, err := s.begin()
+	if err != nil {
+		return nil, unavailable(err)
+	}
+	defer s.end()
+	return job(st)
+}
+
 // store returns the project store, opening the file system if needed; s.lock must be held.
 func (s *storage) store() (project.Store, error) {
 	switch {
@@ -218,95 +229,80 @@ func (s *storage) load(tab string, given *project.Draft) (any, error) {
 
 // save is the job of saveProject for a project and base already read and validated.
 func (s *storage) save(p project.Project, base project.Revision) (any, error) {
-	st, err := s.begin()
-	if err != nil {
-		return nil, unavailable(err)
-	}
-	defer s.end()
-	sv, err := st.Save(p, base, s.now())
-	if err != nil {
-		return nil, plain(err)
-	}
-	out := object.New()
-	out.Set("saved", sv.Conflict == nil)
-	out.Set("storage", "indexeddb")
-	out.Set("savedAt", sv.Project.SavedAt)
-	out.Set("revision", revisionValue(sv.Revision))
-	if c := sv.Conflict; c != nil {
-		other := object.New()
-		other.Set("project", projectValue(c.Stored))
-		other.Set("revision", revisionValue(c.Revision))
-		out.Set("conflict", other)
-		out.Set("kept", keptValue(c.Copy))
-	}
-	return out, nil
+	return s.with(func(st project.Store) (any, error) {
+		sv, err := st.Save(p, base, s.now())
+		if err != nil {
+			return nil, plain(err)
+		}
+		out := object.New()
+		out.Set("saved", sv.Conflict == nil)
+		out.Set("storage", "indexeddb")
+		out.Set("savedAt", sv.Project.SavedAt)
+		out.Set("revision", revisionValue(sv.Revision))
+		if c := sv.Conflict; c != nil {
+			other := object.New()
+			other.Set("project", projectValue(c.Stored))
+			other.Set("revision", revisionValue(c.Revision))
+			out.Set("conflict", other)
+			out.Set("kept", keptValue(c.Copy))
+		}
+		return out, nil
+	})
 }
 
 // saveDraft is the job of saveDraft.
 func (s *storage) saveDraft(tab string, fields map[string]string, base project.Revision) (any, error) {
-	st, err := s.begin()
-	if err != nil {
-		return nil, unavailable(err)
-	}
-	defer s.end()
-	d, err := st.SaveDraft(tab, fields, base, s.now())
-	if err != nil {
-		return nil, plain(err)
-	}
-	out := object.New()
-	out.Set("saved", true)
-	out.Set("savedAt", d.SavedAt)
-	return out, nil
+	return s.with(func(st project.Store) (any, error) {
+		d, err := st.SaveDraft(tab, fields, base, s.now())
+		if err != nil {
+			return nil, plain(err)
+		}
+		out := object.New()
+		out.Set("saved", true)
+		out.Set("savedAt", d.SavedAt)
+		return out, nil
+	})
 }
 
 // dropDraft is the job of dropDraft.
 func (s *storage) dropDraft(tab string) (any, error) {
-	st, err := s.begin()
-	if err != nil {
-		return nil, unavailable(err)
-	}
-	defer s.end()
-	if err := st.DropDraft(tab); err != nil {
-		return nil, err
-	}
-	return dropped(), nil
+	return s.with(func(st project.Store) (any, error) {
+		if err := st.DropDraft(tab); err != nil {
+			return nil, err
+		}
+		return dropped(), nil
+	})
 }
 
 // keptCopy is the job of keptCopy: the copy, its bytes, a file name to download it under, and
 // the project it holds when it reads as one.
 func (s *storage) keptCopy(name string) (any, error) {
-	st, err := s.begin()
-	if err != nil {
-		return nil, unavailable(err)
-	}
-	defer s.end()
-	k, data, err := st.ReadKept(name)
-	if err != nil {
-		return nil, err
-	}
-	out := object.New()
-	out.Set("copy", keptValue(k))
-	out.Set("filename", "copoly-"+k.Name)
-	bytes := js.Global().Get("Uint8Array").New(len(data))
-	js.CopyBytesToJS(bytes, data)
-	out.Set("bytes", bytes)
-	if p, err := project.Parse(data); err == nil {
-		out.Set("project", projectValue(p))
-	}
-	return out, nil
+	return s.with(func(st project.Store) (any, error) {
+		k, data, err := st.ReadKept(name)
+		if err != nil {
+			return nil, err
+		}
+		out := object.New()
+		out.Set("copy", keptValue(k))
+		out.Set("filename", "copoly-"+k.Name)
+		bytes := js.Global().Get("Uint8Array").New(len(data))
+		js.CopyBytesToJS(bytes, data)
+		out.Set("bytes", bytes)
+		if p, err := project.Parse(data); err == nil {
+			out.Set("project", projectValue(p))
+		}
+		return out, nil
+	})
 }
 
 // dropKept is the job of dropKept.
 func (s *storage) dropKept(name string) (any, error) {
-	st, err := s.begin()
-	if err != nil {
-		return nil, unavailable(err)
-	}
-	defer s.end()
-	if err := st.DropKept(name); err != nil {
-		return nil, err
-	}
-	return dropped(), nil
+	return s.with(func(st project.Store) (any, error) {
+		if err := st.DropKept(name); err != nil {
+			return nil, err
+		}
+		return dropped(), nil
+	})
 }
 
 func dropped() js.Value {
