@@ -117,13 +117,7 @@ func TestConflictCases(t *testing.T) {
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			s := Store{FS: newFS(t), Writer: pageA}
-			if tt.current != "" {
-				write(t, s.FS, CurrentPath, tt.current)
-			}
-			if tt.previous != "" {
-				write(t, s.FS, PreviousPath, tt.previous)
-			}
+			s := storeHolding(t, tt.current, tt.previous)
 			p := Demo()
 			p.Notes = "mine"
 			sv := save(t, s, p, tt.base, monday)

@@ -46,6 +46,20 @@ func write(t *testing.T, fsys hackpadfs.FS, name, data string) {
 	}
 }
 
+// storeHolding returns a store of page A whose current and previous files hold current and
+// previous as they stand; "" leaves a file out.
+func storeHolding(t *testing.T, current, previous string) Store {
+	t.Helper()
+	s := Store{FS: newFS(t), Writer: pageA}
+	if current != "" {
+		write(t, s.FS, CurrentPath, current)
+	}
+	if previous != "" {
+		write(t, s.FS, PreviousPath, previous)
+	}
+	return s
+}
+
 // read returns the file's text, or "" when it does not exist.
 func read(t *testing.T, fsys hackpadfs.FS, name string) string {
 	t.Helper()
@@ -303,13 +317,7 @@ func TestLoadDamaged(t *testing.T) {
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
-			s := Store{FS: newFS(t), Writer: pageA}
-			if tt.current != "" {
-				write(t, s.FS, CurrentPath, tt.current)
-			}
-			if tt.previous != "" {
-				write(t, s.FS, PreviousPath, tt.previous)
-			}
+			s := storeHolding(t, tt.current, tt.previous)
 			l := load(t, s)
 			if !reflect.DeepEqual(l.Project, tt.want) || l.Revision != tt.rev || l.Message != tt.message || l.Damaged != (len(tt.kept) > 0) {
 				t.Errorf("Load() = %+v at %v, %q, damaged %v; want %+v at %v, %q, damaged %v", l.Project, l.Revision, l.Message, l.Damaged, tt.want, tt.rev, tt.message, len(tt.kept) > 0)
