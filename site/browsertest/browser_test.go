@@ -11,7 +11,6 @@ import (
 	"math"
 	"net/url"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -23,6 +22,8 @@ import (
 	"github.com/chromedp/cdproto/network"
 	"github.com/chromedp/cdproto/runtime"
 	"github.com/chromedp/chromedp"
+
+	"copoly/site/internal/headless"
 )
 
 // Time limits. They are generous because a CI machine without a GPU may compile the module
@@ -168,10 +169,7 @@ func pagePath(t *testing.T) string {
 // (env CI set, or COPOLY_REQUIRE_BROWSER=1) and otherwise skips it loudly.
 func findChromium(t *testing.T) string {
 	t.Helper()
-	if fi, err := os.Stat("/usr/bin/chromium"); err == nil && !fi.IsDir() && fi.Mode()&0o111 != 0 {
-		return "/usr/bin/chromium"
-	}
-	if p, err := exec.LookPath("chromium"); err == nil {
+	if p := headless.Chromium(); p != "" {
 		return p
 	}
 	if os.Getenv("CI") != "" || os.Getenv("COPOLY_REQUIRE_BROWSER") == "1" {
@@ -212,22 +210,7 @@ func startBrowser(t *testing.T, chromium string, w *watcher) (ctx context.Contex
 	}
 	out := &tailBuffer{max: 8 << 10}
 	allocCtx, cancelAlloc := chromedp.NewExecAllocator(context.Background(),
-		chromedp.ExecPath(chromium),
-		chromedp.Headless,
-		chromedp.NoSandbox,
-		chromedp.DisableGPU,
-		chromedp.NoFirstRun,
-		chromedp.NoDefaultBrowserCheck,
-		chromedp.Flag("disable-background-networking", true),
-		chromedp.Flag("disable-component-update", true),
-		chromedp.Flag("disable-sync", true),
-		chromedp.Flag("disable-extensions", true),
-		chromedp.Flag("disable-default-apps", true),
-		chromedp.Flag("disable-dev-shm-usage", true),
-		chromedp.WindowSize(1280, 1000),
-		chromedp.UserDataDir(profile),
-		chromedp.CombinedOutput(out),
-	)
+		append(headless.Options(chromium, profile), chromedp.CombinedOutput(out))...)
 	tabCtx, cancelTab := chromedp.NewContext(allocCtx, chromedp.WithListener(w.listen))
 	ctx, cancelTimeout := context.WithTimeout(tabCtx, testTimeout)
 	stop = func() {

@@ -29,7 +29,6 @@ import (
 	"io"
 	"net/url"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"slices"
 	"time"
@@ -38,6 +37,8 @@ import (
 	"github.com/chromedp/cdproto/cdp"
 	"github.com/chromedp/cdproto/page"
 	"github.com/chromedp/chromedp"
+
+	"copoly/site/internal/headless"
 )
 
 // readyHook runs in every new document before the page's scripts. It records when the promise
@@ -108,7 +109,7 @@ func run(pagePath, helloPath string, n int, budget float64, chromium string, tim
 		return errors.New("-n must be at least 1")
 	}
 	if chromium == "" {
-		chromium = findChromium()
+		chromium = headless.Chromium()
 		if chromium == "" {
 			return errors.New("no Chromium: neither /usr/bin/chromium nor chromium on PATH (apt-get install -y chromium)")
 		}
@@ -127,21 +128,7 @@ func run(pagePath, helloPath string, n int, budget float64, chromium string, tim
 		return err
 	}
 	defer os.RemoveAll(profile)
-	allocCtx, cancelAlloc := chromedp.NewExecAllocator(context.Background(),
-		chromedp.ExecPath(chromium),
-		chromedp.Headless,
-		chromedp.NoSandbox,
-		chromedp.DisableGPU,
-		chromedp.NoFirstRun,
-		chromedp.NoDefaultBrowserCheck,
-		chromedp.Flag("disable-background-networking", true),
-		chromedp.Flag("disable-component-update", true),
-		chromedp.Flag("disable-sync", true),
-		chromedp.Flag("disable-extensions", true),
-		chromedp.Flag("disable-dev-shm-usage", true),
-		chromedp.WindowSize(1280, 1000),
-		chromedp.UserDataDir(profile),
-	)
+	allocCtx, cancelAlloc := chromedp.NewExecAllocator(context.Background(), headless.Options(chromium, profile)...)
 	defer cancelAlloc()
 	browserCtx, cancelBrowser := chromedp.NewContext(allocCtx)
 	defer cancelBrowser()
@@ -275,14 +262,4 @@ func markMedian(runs []sample, f func(sample) float64) string {
 		return "-"
 	}
 	return fmt.Sprintf("%.1f", median(xs))
-}
-
-func findChromium() string {
-	if fi, err := os.Stat("/usr/bin/chromium"); err == nil && !fi.IsDir() {
-		return "/usr/bin/chromium"
-	}
-	if p, err := exec.LookPath("chromium"); err == nil {
-		return p
-	}
-	return ""
 }
