@@ -121,6 +121,8 @@ from scipy.integrate import solve_ivp
 from scipy.optimize import brentq, least_squares, minimize
 from scipy.stats import chi2, f as fdist
 
+from fixturejson import dumps  # testdata/fixturejson.py
+
 HERE = os.path.dirname(os.path.abspath(__file__))
 JSON_PATH = os.path.join(HERE, "fit_scipy.json")
 COMMAND = "/usr/bin/python3 testdata/fit_scipy.py"
@@ -441,19 +443,6 @@ def make():
         "sets": sets,
     }
     return doc, log
-
-
-def dumps(v, indent=0):
-    """JSON with lists of numbers on one line; floats as repr (round-trip exact)."""
-    pad = " " * indent
-    if isinstance(v, dict):
-        items = ['%s "%s": %s' % (pad, k, dumps(x, indent + 1)) for k, x in v.items()]
-        return "{\n" + ",\n".join(items) + "\n" + pad + "}"
-    if isinstance(v, (list, tuple)):
-        if all(not isinstance(x, (dict, list, tuple)) for x in v):
-            return "[" + ", ".join(dumps(x) for x in v) + "]"
-        return "[\n" + ",\n".join(pad + " " + dumps(x, indent + 1) for x in v) + "\n" + pad + "]"
-    return json.dumps(v)
 
 
 def compare(old, new, where, data):
