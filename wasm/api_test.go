@@ -202,29 +202,7 @@ func TestSequence(t *testing.T) {
 	}
 	r := call(api, "sequence", map[string]any{"r1": 0.8, "r2": 0.15, "f1": 0.4, "maxLength": 5})
 	wantNoError(t, r)
-	checkStats := func(t *testing.T, v js.Value, s copoly.Sequence) {
-		t.Helper()
-		for _, c := range []struct {
-			path string
-			want float64
-		}{
-			{"F1", s.F1}, {"p11", s.P11}, {"p12", s.P12}, {"p21", s.P21}, {"p22", s.P22},
-			{"dyads.11", s.D11}, {"dyads.12", s.D12}, {"dyads.22", s.D22},
-			{"triads.111", s.T111}, {"triads.112", s.T112}, {"triads.212", s.T212},
-			{"triads.222", s.T222}, {"triads.221", s.T221}, {"triads.121", s.T121},
-			{"meanLength1", s.MeanLength1}, {"meanLength2", s.MeanLength2},
-			{"runNumber", s.RunNumber}, {"randomness", s.Randomness},
-		} {
-			got := v
-			for _, k := range splitPath(c.path) {
-				got = got.Get(k)
-			}
-			if got.Type() != js.TypeNumber || got.Float() != c.want {
-				t.Errorf("%s = %s, want %v", c.path, stringify(got), c.want)
-			}
-		}
-	}
-	checkStats(t, r, s)
+	sameSequence(t, r, s)
 	rl, err := m.RunLengths(0.4, 5)
 	if err != nil {
 		t.Fatal(err)
@@ -249,7 +227,7 @@ func TestSequence(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	checkStats(t, r.Get("batch"), b)
+	sameSequence(t, r.Get("batch"), b)
 	if got := r.Get("batch").Get("conversion").Float(); got != 0.8 {
 		t.Errorf("batch.conversion = %v, want 0.8", got)
 	}

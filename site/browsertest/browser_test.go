@@ -63,18 +63,8 @@ const (
 // stored. Console errors, uncaught exceptions, browser-log errors and any request other than
 // the page's own file, data: and blob: URLs fail the test.
 func TestBrowserOfflinePage(t *testing.T) {
-	html := pagePath(t)
-	chromium := findChromium(t)
-	pageURL := (&url.URL{Scheme: "file", Path: html}).String()
-
-	w := &watcher{pageURL: pageURL}
-	ctx, stop := startBrowser(t, chromium, w)
-	defer stop()
-	defer screenshot(t, ctx) // runs before stop, also after t.Fatal
-
 	// First visit: a fresh profile, so the page shows its invented demo project.
-	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
-	waitReady(t, ctx)
+	ctx, w, _ := openPage(t, "")
 	w.check(t, "loading the page")
 	waitUntil(t, ctx, "the demo badge is shown on the first visit", `
 		const b = document.getElementById("demo-badge");
@@ -653,17 +643,7 @@ func simulatedRuns() []benchRow {
 // ratios come back from IndexedDB, types r1 by hand to see the stored region dropped, and types
 // a bad cell to see it marked and kept as typed.
 func TestBrowserBenchData(t *testing.T) {
-	html := pagePath(t)
-	chromium := findChromium(t)
-	pageURL := (&url.URL{Scheme: "file", Path: html}).String()
-
-	w := &watcher{pageURL: pageURL}
-	ctx, stop := startBrowser(t, chromium, w)
-	defer stop()
-	defer screenshot(t, ctx)
-
-	run(t, ctx, "navigate to "+pageURL, chromedp.Navigate(pageURL))
-	waitReady(t, ctx)
+	ctx, w, _ := openPage(t, "")
 	// The demo's invented runs fill the grid once the estimation section is drawn.
 	waitUntil(t, ctx, "the demo's runs in the bench grid", `
 		const n = document.querySelectorAll("#bench-table tbody tr[data-row]").length;
