@@ -35,6 +35,20 @@ func call(api js.Value, method string, args ...any) js.Value {
 	return api.Call(method, args...)
 }
 
+// checkedExport checks that checkProject gives arg ({project}) back unchanged and returns the
+// file exportProject writes of it.
+func checkedExport(t *testing.T, api, arg js.Value) string {
+	t.Helper()
+	checked := call(api, "checkProject", arg)
+	wantNoError(t, checked)
+	if got, want := stringify(checked), stringify(arg); got != want {
+		t.Errorf("checkProject() = %s, want %s", got, want)
+	}
+	exp := call(api, "exportProject", arg)
+	wantNoError(t, exp)
+	return exp.Get("json").String()
+}
+
 // jsEval evaluates a JS expression; the tests use it to build values Go cannot (getters, sparse
 // arrays, BigInt, typed arrays).
 func jsEval(expr string) js.Value {

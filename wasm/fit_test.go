@@ -644,14 +644,8 @@ func TestProjectWithBench(t *testing.T) {
 		const plan = p.plan; delete p.plan; p.plan = plan;
 		return {project: p}; })`).Invoke(demo)
 
-	checked := call(api, "checkProject", arg)
-	wantNoError(t, checked)
-	if stringify(checked) != stringify(arg) {
-		t.Errorf("checkProject() = %s, want %s", stringify(checked), stringify(arg))
-	}
-	exp := call(api, "exportProject", arg)
-	wantNoError(t, exp)
-	imp := call(api, "importProject", map[string]any{"json": exp.Get("json").String()})
+	exported := checkedExport(t, api, arg)
+	imp := call(api, "importProject", map[string]any{"json": exported})
 	wantNoError(t, imp)
 	if stringify(imp) != stringify(arg) {
 		t.Errorf("importProject(exportProject(p)) = %s, want %s", stringify(imp), stringify(arg))

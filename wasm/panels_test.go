@@ -32,14 +32,8 @@ func TestProjectWithPanels(t *testing.T) {
 		p.triads = [{f10: 0.3, F1: 0.41, A111: 0.12, A112: 0.45, A212: 0.43}, {f10: 0.6, F1: -1, A222: 0}, {f10: 0.5}];
 		p.sizeBins = [{low: 5000, high: 15000, weightFraction: 0.5}, {low: 15000, high: 25000, numberFraction: 0.25}, {low: 0, high: 0}];
 		const plan = p.plan; delete p.plan; p.plan = plan;`)
-	checked := call(api, "checkProject", arg)
-	wantNoError(t, checked)
-	if got, want := stringify(checked), stringify(arg); got != want {
-		t.Errorf("checkProject() = %s, want %s", got, want)
-	}
-	exp := call(api, "exportProject", arg)
-	wantNoError(t, exp)
-	p, err := project.Parse([]byte(exp.Get("json").String()))
+	exported := checkedExport(t, api, arg)
+	p, err := project.Parse([]byte(exported))
 	if err != nil {
 		t.Fatalf("project.Parse(exported file) error %v", err)
 	}
@@ -53,7 +47,7 @@ func TestProjectWithPanels(t *testing.T) {
 	if want := []project.SizeBin{{Low: 5000, High: 15000, WeightFraction: 0.5}, {Low: 15000, High: 25000, NumberFraction: 0.25}, {}}; mustJSON(t, p.SizeBins) != mustJSON(t, want) {
 		t.Errorf("exported sizeBins = %s, want %s", mustJSON(t, p.SizeBins), mustJSON(t, want))
 	}
-	imp := call(api, "importProject", map[string]any{"json": exp.Get("json").String()})
+	imp := call(api, "importProject", map[string]any{"json": exported})
 	wantNoError(t, imp)
 	if got, want := stringify(imp), stringify(arg); got != want {
 		t.Errorf("importProject(exportProject(p)) = %s, want %s", got, want)

@@ -637,14 +637,8 @@ func TestProjectWithPlan(t *testing.T) {
 			halfLife: 170, timeTable: [[0, 0], [12.5, 0.05], [40, 0.3]], heat1: 69.9, heat2: 1000,
 			batchMass: 40, heatCapacity: 1.9, riseLimit: 20};
 		return {project: p}; })`).Invoke(demo)
-	checked := call(api, "checkProject", arg)
-	wantNoError(t, checked)
-	if stringify(checked) != stringify(arg) {
-		t.Errorf("checkProject() = %s, want %s", stringify(checked), stringify(arg))
-	}
-	exp := call(api, "exportProject", arg)
-	wantNoError(t, exp)
-	imp := call(api, "importProject", map[string]any{"json": exp.Get("json").String()})
+	exported := checkedExport(t, api, arg)
+	imp := call(api, "importProject", map[string]any{"json": exported})
 	wantNoError(t, imp)
 	if stringify(imp) != stringify(arg) {
 		t.Errorf("importProject(exportProject(p)) = %s, want %s", stringify(imp), stringify(arg))

@@ -26,14 +26,8 @@ func TestProjectWithUserMonomers(t *testing.T) {
 			heat: 60, q: 0.4, e: 0.2, hazards: ["irritant", "harmful to aquatic life"], note: "invented test entry"},
 		{name: "vinyl ether X", molarMass: 0, density: 0, densityTemp: 0, state: "gas", heat: 0, q: 0.03, e: -1.5,
 			hazards: [], note: ""}]`)
-	checked := call(api, "checkProject", arg)
-	wantNoError(t, checked)
-	if got, want := stringify(checked), stringify(arg); got != want {
-		t.Errorf("checkProject() = %s, want %s", got, want)
-	}
-	exp := call(api, "exportProject", arg)
-	wantNoError(t, exp)
-	p, err := project.Parse([]byte(exp.Get("json").String()))
+	exported := checkedExport(t, api, arg)
+	p, err := project.Parse([]byte(exported))
 	if err != nil {
 		t.Fatalf("project.Parse(exported file) error %v", err)
 	}
@@ -46,7 +40,7 @@ func TestProjectWithUserMonomers(t *testing.T) {
 	if g, w := mustJSON(t, p.UserMonomers), mustJSON(t, want); g != w {
 		t.Errorf("exported userMonomers = %s, want %s", g, w)
 	}
-	imp := call(api, "importProject", map[string]any{"json": exp.Get("json").String()})
+	imp := call(api, "importProject", map[string]any{"json": exported})
 	wantNoError(t, imp)
 	if got, want := stringify(imp), stringify(arg); got != want {
 		t.Errorf("importProject(exportProject(p)) = %s, want %s", got, want)
