@@ -1171,6 +1171,29 @@
 
   const cellId = (i, key) => `bench-r${i}-${key}`;
 
+  // emptyGridRow is the one row of an editable grid with no rows: text across its width.
+  function emptyGridRow(width, text) {
+    const tr = document.createElement("tr");
+    const td = document.createElement("td");
+    td.colSpan = width;
+    td.className = "empty-grid";
+    td.textContent = text;
+    tr.append(td);
+    return tr;
+  }
+
+  // gridRow starts row i of an editable grid with its number as the row header.
+  function gridRow(i) {
+    const tr = document.createElement("tr");
+    tr.dataset.row = String(i);
+    const num = document.createElement("th");
+    num.scope = "row";
+    num.className = "row-num";
+    num.textContent = String(i + 1);
+    tr.append(num);
+    return tr;
+  }
+
   // buildGrid draws the grid: a row number, the label, the typed cells, the converted values
   // and a delete button per row, and under each row a line for its message.
   function buildGrid(b, cols) {
@@ -1200,23 +1223,9 @@
     thead.append(head1, head2);
     const tbody = document.createElement("tbody");
     const width = cols.length + 6;
-    if (!b.rows.length) {
-      const tr = document.createElement("tr");
-      const td = document.createElement("td");
-      td.colSpan = width;
-      td.className = "empty-grid";
-      td.textContent = "No runs yet. Add a row, or paste rows from a spreadsheet below.";
-      tr.append(td);
-      tbody.append(tr);
-    }
+    if (!b.rows.length) tbody.append(emptyGridRow(width, "No runs yet. Add a row, or paste rows from a spreadsheet below."));
     b.rows.forEach((row, i) => {
-      const tr = document.createElement("tr");
-      tr.dataset.row = String(i);
-      const num = document.createElement("th");
-      num.scope = "row";
-      num.className = "row-num";
-      num.textContent = String(i + 1);
-      tr.append(num);
+      const tr = gridRow(i);
       const cellInput = (key, value, label) => {
         const td = document.createElement("td");
         const input = document.createElement("input");
@@ -2898,22 +2907,9 @@
     head.append(th("Row"), ...g.cols.map(([, h, u]) => th(h, u)), th(""));
     const body = document.createElement("tbody");
     const width = g.cols.length + 2;
-    if (!g.rows.length) {
-      const td = document.createElement("td");
-      td.colSpan = width;
-      td.className = "empty-grid";
-      td.textContent = "No rows yet. Add a row, or paste rows from a spreadsheet below.";
-      body.append(document.createElement("tr"));
-      body.firstChild.append(td);
-    }
+    if (!g.rows.length) body.append(emptyGridRow(width, "No rows yet. Add a row, or paste rows from a spreadsheet below."));
     g.rows.forEach((row, i) => {
-      const tr = document.createElement("tr");
-      tr.dataset.row = String(i);
-      const num = document.createElement("th");
-      num.scope = "row";
-      num.className = "row-num";
-      num.textContent = String(i + 1);
-      tr.append(num);
+      const tr = gridRow(i);
       for (const [key, h] of g.cols) {
         const td = document.createElement("td");
         const input = document.createElement("input");
