@@ -67,18 +67,7 @@ func TestValidatePanels(t *testing.T) {
 			p := panelsProject()
 			tt.edit(&p)
 			err := p.Validate()
-			if tt.field == "" {
-				if err != nil {
-					t.Errorf("Validate() = %v, want nil", err)
-				}
-				return
-			}
-			if got := copoly.Field(err); got != tt.field {
-				t.Errorf("copoly.Field(Validate()) = %q, want %q (error %v)", got, tt.field, err)
-			}
-			if !errors.Is(err, tt.err) {
-				t.Errorf("Validate() = %v, want an error wrapping %v", err, tt.err)
-			}
+			wantValidate(t, err, tt.field, tt.err)
 		})
 	}
 }

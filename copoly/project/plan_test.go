@@ -85,18 +85,7 @@ func TestCheckPlan(t *testing.T) {
 			p := Demo()
 			tt.edit(p.Plan)
 			err := p.Validate()
-			if tt.field == "" {
-				if err != nil {
-					t.Fatalf("Validate() = %v, want nil", err)
-				}
-				return
-			}
-			if got := copoly.Field(err); got != tt.field {
-				t.Errorf("copoly.Field(Validate()) = %q, want %q (error %v)", got, tt.field, err)
-			}
-			if !errors.Is(err, tt.err) {
-				t.Errorf("Validate() = %v, want an error wrapping %v", err, tt.err)
-			}
+			wantValidate(t, err, tt.field, tt.err)
 		})
 	}
 }

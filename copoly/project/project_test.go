@@ -154,24 +154,34 @@ func TestValidate(t *testing.T) {
 			p := Demo()
 			tt.edit(&p)
 			err := p.Validate()
+			wantValidate(t, err, tt.field, tt.err)
 			if tt.field == "" {
-				if err != nil {
-					t.Fatalf("Validate() = %v, want nil", err)
-				}
 				return
-			}
-			if err == nil {
-				t.Fatalf("Validate() = nil, want an error for field %q", tt.field)
-			}
-			if got := copoly.Field(err); got != tt.field {
-				t.Errorf("copoly.Field(Validate()) = %q, want %q (error %q)", got, tt.field, err)
-			}
-			if !errors.Is(err, tt.err) {
-				t.Errorf("Validate() = %v, want an error wrapping %v", err, tt.err)
 			}
 			if !strings.HasPrefix(err.Error(), tt.field) {
 				t.Errorf("Validate() message %q does not start with the field %q", err, tt.field)
 			}
 		})
+	}
+}
+
+// wantValidate checks err, what Validate returned for a case: nil when field is "", else an
+// error for field that wraps want.
+func wantValidate(t *testing.T, err error, field string, want error) {
+	t.Helper()
+	if field == "" {
+		if err != nil {
+			t.Fatalf("Validate() = %v, want nil", err)
+		}
+		return
+	}
+	if err == nil {
+		t.Fatalf("Validate() = nil, want an error for field %q", field)
+	}
+	if got := copoly.Field(err); got != field {
+		t.Errorf("copoly.Field(Validate()) = %q, want %q (error %q)", got, field, err)
+	}
+	if !errors.Is(err, want) {
+		t.Errorf("Validate() = %v, want an error wrapping %v", err, want)
 	}
 }

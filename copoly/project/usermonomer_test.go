@@ -88,21 +88,7 @@ func TestValidateUserMonomers(t *testing.T) {
 			p := Demo()
 			p.UserMonomers = tt.edit([]UserMonomer{ownMonomer()})
 			err := p.Validate()
-			if tt.field == "" {
-				if err != nil {
-					t.Fatalf("Validate() = %v, want nil", err)
-				}
-				return
-			}
-			if err == nil {
-				t.Fatalf("Validate() = nil, want an error for field %q", tt.field)
-			}
-			if got := copoly.Field(err); got != tt.field {
-				t.Errorf("copoly.Field(Validate()) = %q, want %q (error %q)", got, tt.field, err)
-			}
-			if !errors.Is(err, tt.err) {
-				t.Errorf("Validate() = %v, want an error wrapping %v", err, tt.err)
-			}
+			wantValidate(t, err, tt.field, tt.err)
 		})
 	}
 }
