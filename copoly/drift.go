@@ -5,6 +5,8 @@ import (
 	"math"
 
 	"gonum.org/v1/gonum/integrate/quad"
+
+	"copoly/copoly/internal/ode"
 )
 
 // Methods reported in [Drift.Method].
@@ -400,7 +402,7 @@ func (b *batch) odeFeed(dst, xs []float64) {
 		n--
 	}
 	ys := make([]float64, n)
-	dopri5(ys, g, 0, math.Log(s*(b.f10-b.end)), ts[:n], 1e-13, 1e-13)
+	ode.Dopri5(ys, g, 0, math.Log(s*(b.f10-b.end)), ts[:n], 1e-13, 1e-13)
 	for i := range n {
 		dst[i] = b.end + s*math.Exp(ys[i])
 	}

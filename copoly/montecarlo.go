@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+
+	"copoly/copoly/internal/xoshiro"
 )
 
 // ChainOptions sets a Monte Carlo simulation of chains (see [SimulateChains]).
@@ -69,7 +71,7 @@ type chainStep struct {
 	F1       float64
 	add1     [4]float64 // after 11, 12, 21, 22
 	add1Once [2]float64 // after a single unit 1 or 2 (chains of length 2 start from F1 then this)
-	// add1Below are add1 as thresholds for xoshiro.below32.
+	// add1Below are add1 as thresholds for xoshiro.Source.Below32.
 	add1Below [4]uint64
 }
 
@@ -78,7 +80,7 @@ func newChainStep(p Penultimate, f float64) chainStep {
 	p111, p211, p222, p122 := p.transitions(f)
 	c.add1 = [4]float64{p111, 1 - p122, p211, 1 - p222}
 	for i, p := range c.add1 {
-		c.add1Below[i] = threshold32(p)
+		c.add1Below[i] = xoshiro.Threshold32(p)
 	}
 	s, err := p.Sequence(f)
 	if err != nil {
@@ -180,8 +182,8 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 			steps[i] = newChainStep(pm, math.Min(1, math.Max(0, f)))
 		}
 	}
-	src := newXoshiro(opt.Seed)
-	rng := rand.New(src) // per-chain draws; per-unit ones use src.below32
+	src := xoshiro.New(opt.Seed)
+	rng := rand.New(src) // per-chain draws; per-unit ones use src.Below32
 	st := &ChainStats{Compositions: make([]float64, opt.Count), Lengths: make([]int, opt.Count),
 		StockmayerVariance: math.NaN(), ExpectedNonFunctional: math.NaN()}
 	logp := 0.0
@@ -236,7 +238,7 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 			case 1:
 				one = last2 == 0 || last2 == 2 // second unit of the pair
 			default:
-				one = src.below32(s.add1Below[last2])
+				one = src.Below32(s.add1Below[last2])
 				j := 1
 				if one {
 					j = 0

@@ -1,4 +1,4 @@
-package copoly
+package xoshiro
 
 import (
 	"math"
@@ -10,7 +10,7 @@ import (
 // follow by hand from the recurrence in Blackman and Vigna, ACM Trans. Math. Softw. 2021, 47, 36:
 // rotl(2·5, 7)·9 = 11520, and s[1] becomes 0 after one step).
 func TestXoshiroReference(t *testing.T) {
-	x := &xoshiro{s: [4]uint64{1, 2, 3, 4}}
+	x := &Source{s: [4]uint64{1, 2, 3, 4}}
 	want := []uint64{11520, 0, 1509978240, 1215971899390074240}
 	for i, w := range want {
 		if got := x.Uint64(); got != w {
@@ -24,11 +24,11 @@ func TestXoshiroReference(t *testing.T) {
 func TestBelow32Frequencies(t *testing.T) {
 	const n = 1_000_000
 	for _, p := range []float64{0, 1e-3, 0.25, 0.5, 0.9, 1} {
-		x := newXoshiro(42)
-		thr := threshold32(p)
+		x := New(42)
+		thr := Threshold32(p)
 		k := 0
 		for range n {
-			if x.below32(thr) {
+			if x.Below32(thr) {
 				k++
 			}
 		}
@@ -44,7 +44,7 @@ func TestBelow32Frequencies(t *testing.T) {
 			t.Errorf("p = %v: frequency %v, more than 5σ (σ = %.2g) away", p, freq, sd)
 		}
 	}
-	if got := threshold32(math.NaN()); got != 0 {
-		t.Errorf("threshold32(NaN) = %d, want 0", got)
+	if got := Threshold32(math.NaN()); got != 0 {
+		t.Errorf("Threshold32(NaN) = %d, want 0", got)
 	}
 }

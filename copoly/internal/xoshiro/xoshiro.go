@@ -1,23 +1,26 @@
-package copoly
+// Package xoshiro is the xoshiro256** pseudorandom generator that copoly's Monte Carlo chain
+// growth draws from.
+package xoshiro
 
 import "math/bits"
 
-// xoshiro is the xoshiro256** generator of D. Blackman and S. Vigna, "Scrambled linear
+// Source is the xoshiro256** generator of D. Blackman and S. Vigna, "Scrambled linear
 // pseudorandom number generators", ACM Trans. Math. Softw. 2021, 47 (4), 36, seeded through
 // SplitMix64 as its authors recommend. The Monte Carlo growth draws one number per monomer unit;
 // this generator needs only 64-bit shifts, rotations and one multiplication per number, where the
 // 128-bit multiplication of PCG costs several 32-bit ones in WebAssembly.
 //
 // It implements math/rand/v2's Source for the per-chain draws and gives 32-bit uniforms, two
-// from each 64-bit output, for the per-unit ones (see below32).
-type xoshiro struct {
+// from each 64-bit output, for the per-unit ones (see [Source.Below32]).
+type Source struct {
 	s     [4]uint64
 	spare uint64 // the unused high half of the last output, valid when haveSpare
 	have  bool
 }
 
-func newXoshiro(seed uint64) *xoshiro {
-	x := &xoshiro{}
+// New returns a generator seeded from seed through SplitMix64.
+func New(seed uint64) *Source {
+	x := &Source{}
 	for i := range x.s {
 		// SplitMix64 (Steele, Lea and Flood, OOPSLA 2014).
 		seed += 0x9e3779b97f4a7c15
@@ -30,7 +33,7 @@ func newXoshiro(seed uint64) *xoshiro {
 }
 
 // Uint64 returns the next 64-bit output.
-func (x *xoshiro) Uint64() uint64 {
+func (x *Source) Uint64() uint64 {
 	s := &x.s
 	r := bits.RotateLeft64(s[1]*5, 7) * 9
 	t := s[1] << 17
@@ -43,9 +46,9 @@ func (x *xoshiro) Uint64() uint64 {
 	return r
 }
 
-// below32 draws a uniform 32-bit integer u and reports u < threshold: an event of probability
-// threshold/2³² (see threshold32).
-func (x *xoshiro) below32(threshold uint64) bool {
+// Below32 draws a uniform 32-bit integer u and reports u < threshold: an event of probability
+// threshold/2³² (see [Threshold32]).
+func (x *Source) Below32(threshold uint64) bool {
 	if x.have {
 		x.have = false
 		return x.spare < threshold
@@ -55,9 +58,9 @@ func (x *xoshiro) below32(threshold uint64) bool {
 	return v&0xffffffff < threshold
 }
 
-// threshold32 is the threshold for below32 of an event of probability p in [0, 1]: the nearest
+// Threshold32 is the threshold for [Source.Below32] of an event of probability p in [0, 1]: the nearest
 // multiple of 2⁻³², so the probability is off by at most 2⁻³³.
-func threshold32(p float64) uint64 {
+func Threshold32(p float64) uint64 {
 	switch {
 	case !(p > 0):
 		return 0

@@ -1,8 +1,9 @@
-package copoly
+// Package ode integrates the ordinary differential equations of copoly's drift models.
+package ode
 
 import "math"
 
-// dopri5 integrates the scalar ODE dy/dt = g(y) from (t0, y0) to each time in ts (ascending,
+// Dopri5 integrates the scalar ODE dy/dt = g(y) from (t0, y0) to each time in ts (ascending,
 // all ≥ t0) with the adaptive explicit Runge–Kutta pair of Dormand and Prince, order 5 with an
 // embedded order-4 error estimate and local extrapolation. The ODE is autonomous, so the
 // nodes c_i of the tableau are not needed. The step size follows the standard
@@ -14,7 +15,7 @@ import "math"
 //     J. Comput. Appl. Math. 1980, 6, 19–26 (the coefficients below, Table 2).
 //   - E. Hairer, S. P. Nørsett, G. Wanner, Solving Ordinary Differential Equations I,
 //     2nd ed., Springer 1993, Sec. II.4 (step-size control).
-func dopri5(dst []float64, g func(float64) float64, t0, y0 float64, ts []float64, rtol, atol float64) {
+func Dopri5(dst []float64, g func(float64) float64, t0, y0 float64, ts []float64, rtol, atol float64) {
 	const (
 		a21                        = 1.0 / 5
 		a31, a32                   = 3.0 / 40, 9.0 / 40
