@@ -5,12 +5,13 @@ import (
 	"unicode"
 )
 
-// Standard atomic weights (g/mol) of the elements in common monomers: the IUPAC abridged
-// (conventional) values, IUPAC Commission on Isotopic Abundances and Atomic Weights,
-// "Standard atomic weights of the elements 2021", Pure Appl. Chem. 2022, 94, 573, Table 2
-// (from memory).
+// Standard atomic weights (g/mol) of the elements in common monomers: the IUPAC abridged values
+// (five significant figures), T. Prohaska et al., "Standard atomic weights of the elements 2021
+// (IUPAC Technical Report)", Pure Appl. Chem. 2022, 94, 573 (source SrcAtomicWeights, read from
+// a public transcription of the report's table). K is here for M(KOH) = 56.105 g/mol in hydroxyl
+// and acid values.
 var atomicWeight = map[string]float64{
-	"H":  1.008,
+	"H":  1.0080,
 	"C":  12.011,
 	"N":  14.007,
 	"O":  15.999,
@@ -20,6 +21,7 @@ var atomicWeight = map[string]float64{
 	"Br": 79.904,
 	"Si": 28.085,
 	"P":  30.974,
+	"K":  39.098,
 }
 
 // MolarMassOf returns the molar mass in g/mol of a simple formula such as "C8H8" or "C3H3N"
@@ -66,7 +68,9 @@ type Monomer struct {
 	Formula string
 	// MolarMass in g/mol, computed from Formula with the standard atomic weights.
 	MolarMass float64
-	Source    string
+	// Source says how the molar mass was obtained; SourceID names its entry in [Sources].
+	Source   string
+	SourceID string
 }
 
 // monomerFormulas is the built-in list: common monomers of acrylic, styrenic, vinyl and
@@ -98,8 +102,8 @@ func Monomers() []Monomer {
 		if err != nil {
 			panic("copoly: bad built-in formula " + e.formula)
 		}
-		out[i] = Monomer{Name: e.name, Formula: e.formula, MolarMass: mm,
-			Source: "molar mass from the formula " + e.formula + " and IUPAC standard atomic weights (2021)"}
+		out[i] = Monomer{Name: e.name, Formula: e.formula, MolarMass: mm, SourceID: SrcAtomicWeights,
+			Source: "molar mass from the formula " + e.formula + " and the " + cite(SrcAtomicWeights, "")}
 	}
 	return out
 }
