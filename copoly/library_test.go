@@ -62,16 +62,26 @@ func TestPairsAreValid(t *testing.T) {
 		if err := (Terminal{p.R1, p.R2}).Validate(); err != nil {
 			t.Errorf("%s/%s: %v", p.Monomer1, p.Monomer2, err)
 		}
-		if !names[p.Monomer1] || !names[p.Monomer2] || p.Source == "" {
-			t.Errorf("pair %+v: unknown monomer or no source", p)
+		if !names[p.Monomer1] || !names[p.Monomer2] || p.Monomer1 == p.Monomer2 {
+			t.Errorf("pair %+v: unknown monomer, or a monomer with itself", p)
 		}
 	}
 }
 
+// TestPairsSayTheirConditions: a pair states its conditions, or its source's note says once that
+// the source gives none.
 func TestPairsSayTheirConditions(t *testing.T) {
 	for _, p := range Pairs() {
-		if p.Temperature == "" {
-			t.Errorf("%s/%s: no temperature or conditions, not even that the source gives none", p.Monomer1, p.Monomer2)
+		s, ok := SourceOf(p.SourceID)
+		if !ok {
+			t.Errorf("%s/%s: unknown source %q", p.Monomer1, p.Monomer2, p.SourceID)
+			continue
+		}
+		if p.Temperature == "" && !strings.Contains(s.Note, "conditions") {
+			t.Errorf("%s/%s: no conditions, and the note of source %q does not say that it gives none", p.Monomer1, p.Monomer2, s.ID)
+		}
+		if strings.Contains(p.Source, "not given in the table") {
+			t.Errorf("%s/%s: the conditions note belongs to the source entry, not to every pair: %q", p.Monomer1, p.Monomer2, p.Source)
 		}
 	}
 }
