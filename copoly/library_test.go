@@ -120,3 +120,104 @@ func TestSourcesTable(t *testing.T) {
 func bookStyle(text string) bool {
 	return strings.Contains(strings.ToLower(text), "-style")
 }
+
+// TestEveryValueHasASource checks that every built-in value names a source that exists, that its
+// per-value text is marked unchecked exactly when its source is, and that no text cites a book
+// "-style".
+func TestEveryValueHasASource(t *testing.T) {
+	check := func(what, id, text string) {
+		t.Helper()
+		s, ok := SourceOf(id)
+		if !ok {
+			t.Errorf("%s: source id %q is not in Sources()", what, id)
+			return
+		}
+		if got, want := strings.Contains(text, UncheckedTag), !s.Checked; got != want {
+			t.Errorf("%s: text %q marked unchecked = %v, but source %q checked = %v", what, text, got, id, s.Checked)
+		}
+		if strings.Count(text, UncheckedMark) != 0 {
+			t.Errorf("%s: the full unchecked mark belongs to the source entry, not to the value: %q", what, text)
+		}
+		if bookStyle(text) {
+			t.Errorf("%s: %q cites a book \"-style\"", what, text)
+		}
+	}
+	for _, s := range Sources() {
+		if bookStyle(s.Short + s.Citation + s.Note) {
+			t.Errorf("source %q cites a book \"-style\"", s.ID)
+		}
+	}
+	for _, m := range Monomers() {
+		check(m.Name+" molar mass", m.SourceID, m.Source)
+		p, ok := PropertiesOf(m.Name)
+		if !ok {
+			t.Errorf("%s has no process data", m.Name)
+			continue
+		}
+		check(m.Name+" density", p.DensitySourceID, p.DensitySource)
+		check(m.Name+" heat", p.HeatSourceID, p.HeatSource)
+		check(m.Name+" hazards", p.HazardSourceID, p.HazardSource)
+		check(m.Name+" groups", p.GroupsSourceID, p.GroupsSource)
+		if p.Tg > 0 {
+			check(m.Name+" Tg", p.TgSourceID, p.TgSource)
+		}
+		if bookStyle(p.TgNote) {
+			t.Errorf("%s Tg note cites a book \"-style\"", m.Name)
+		}
+		if q, ok := QEOf(m.Name); ok {
+			check(m.Name+" Q–e", q.SourceID, q.Source)
+		}
+	}
+	for _, p := range Pairs() {
+		check(p.Monomer1+"/"+p.Monomer2, p.SourceID, p.Source)
+	}
+}
+
+// TestTgAndGroups checks the glass transitions and functional groups every built-in monomer
+// carries for the resin calculations.
+func TestTgAndGroups(t *testing.T) {
+	// Tg in K = °C + 273.15 with °C as printed in the sources read: Morita, Front. Chem. 2014, 2,
+	// 10, Table 2 (PMMA 105, PHEMA 80, PEA −24 °C); Koiry and Singha, Front. Chem. 2014,
+	// 2, 91, Introduction (PS ≈ 100, P2EHA −60 °C).
+	tg := map[string]float64{
+		"methyl methacrylate":         378.15,
+		"2-hydroxyethyl methacrylate": 353.15,
+		"ethyl acrylate":              249.15,
+		"styrene":                     373.15,
+		"2-ethylhexyl acrylate":       213.15,
+	}
+	// Groups per unit counted from the structural formulas; maleic anhydride as ASTM D3643-98,
+	// section 3.1.1, states for an alcoholic titration (half the anhydride's two carboxyls) and
+	// as ISO 2114 method B counts it after hydrolysis (both).
+	type groups struct{ oh, acid, total float64 }
+	want := map[string]groups{
+		"2-hydroxyethyl methacrylate": {1, 0, 0},
+		"acrylic acid":                {0, 1, 1},
+		"methacrylic acid":            {0, 1, 1},
+		"maleic anhydride":            {0, 1, 2},
+	}
+	for _, m := range Monomers() {
+		p, ok := PropertiesOf(m.Name)
+		if !ok {
+			t.Errorf("%s has no process data", m.Name)
+			continue
+		}
+		switch {
+		case p.Tg == 0 && p.TgNote == "":
+			t.Errorf("%s: no Tg and no note saying why", m.Name)
+		case p.Tg != 0 && (p.Tg < 150 || p.Tg > 550):
+			t.Errorf("%s: Tg = %v K, outside 150–550 K (a °C value in a K field?)", m.Name, p.Tg)
+		}
+		if w, ok := tg[m.Name]; ok && !scalar.EqualWithinAbsOrRel(p.Tg, w, 1e-9, 1e-12) {
+			t.Errorf("%s: Tg = %v K, want %v K", m.Name, p.Tg, w)
+		}
+		g := groups{p.Hydroxyl, p.Acid, p.AcidTotal}
+		if g != want[m.Name] { // the zero value for monomers without groups
+			t.Errorf("%s: groups (OH, acid, total acid) = %v, want %v", m.Name, g, want[m.Name])
+		}
+	}
+	// The tacticity of PMMA is stated where the value is chosen.
+	if p, _ := PropertiesOf("methyl methacrylate"); !strings.Contains(p.TgNote, "tacticity") {
+		t.Errorf("PMMA Tg note %q does not say which tacticity the value is for", p.TgNote)
+	}
+}
