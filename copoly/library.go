@@ -92,6 +92,9 @@ var monomerFormulas = []struct{ name, formula string }{
 	{"N-vinylpyrrolidone", "C6H9NO"},
 	{"2-hydroxyethyl methacrylate", "C6H10O3"},
 	{"acrylamide", "C3H5NO"},
+	{"n-butyl methacrylate", "C8H14O2"},
+	{"2-hydroxyethyl acrylate", "C5H8O3"},
+	{"2-hydroxypropyl methacrylate", "C7H12O3"},
 }
 
 // Monomers returns the built-in monomer list with molar masses computed from the formulas.
@@ -127,8 +130,9 @@ type RatioPair struct {
 // methacrylate, 2-hydroxyethyl methacrylate, 2-hydroxyethyl acrylate, acrylic acid, methacrylic
 // acid, styrene) the list has styrene/n-butyl acrylate (the handbook table, and a study at
 // 120 °C), styrene/methyl methacrylate, methyl methacrylate/n-butyl acrylate and styrene/acrylic
-// acid (the handbook table, transcription not checked). The other pairs of that set wait for a
-// published value that could be read.
+// acid (the handbook table, transcription not checked) and 2-hydroxyethyl methacrylate/n-butyl
+// methacrylate (bulk, 50 °C). The other pairs of that set wait for a published value that could
+// be read.
 func Pairs() []RatioPair {
 	h := func(m1, m2 string, r1, r2 float64, refs string) RatioPair {
 		return RatioPair{Monomer1: m1, Monomer2: m2, R1: r1, R2: r2,
@@ -157,6 +161,7 @@ func Pairs() []RatioPair {
 		p("acrylonitrile", "n-butyl acrylate", 1.52, 0.75, "not given in the abstract", SrcJordan1960, ""),
 		p("acrylamide", "vinyl acetate", 9.28, 0.09, "solution, benzoyl peroxide initiator (temperature not given in the abstract)",
 			SrcMukherjee1998, "Kelen–Tüdős and error-in-variables"),
+		p("2-hydroxyethyl methacrylate", "n-butyl methacrylate", 2.27, 0.66, "bulk, 50 °C", SrcIdowu2019, "section 3.1"),
 		p("acrylic acid", "ethyl acrylate", 0.91, 1.02, "dioxane, 50 °C", SrcAAEA, ""),
 	}
 }

@@ -14,16 +14,17 @@ func TestMonomerMolarMasses(t *testing.T) {
 	// methacrylic acid 86.09), and the others worked by hand from the formula with the IUPAC 2021
 	// abridged atomic weights (C 12.011, H 1.0080, N 14.007, O 15.999, Cl 35.45), to 0.01 g/mol.
 	want := map[string]float64{
-		"styrene":          104.15, // Merck Index monograph "Styrene"
-		"methyl acrylate":  86.09,  // Merck Index monograph "Methyl Acrylate"
-		"ethyl acrylate":   100.12, // Merck Index monograph "Ethyl Acrylate"
-		"n-butyl acrylate": 128.17, // Merck Index monograph "n-Butyl Acrylate"
-		"methacrylic acid": 86.09,  // Merck Index monograph "Methacrylic Acid"
-		"acrylonitrile":    53.06,  // by hand: 3·12.011 + 3·1.0080 + 14.007 = 53.064
-		"vinyl chloride":   62.50,  // by hand: 2·12.011 + 3·1.0080 + 35.45 = 62.496
-		"1,3-butadiene":    54.09,  // by hand: 4·12.011 + 6·1.0080 = 54.092
-		"maleic anhydride": 98.06,  // by hand: 4·12.011 + 2·1.0080 + 3·15.999 = 98.057
-		"acrylamide":       71.08,  // by hand: 3·12.011 + 5·1.0080 + 14.007 + 15.999 = 71.079
+		"styrene":              104.15, // Merck Index monograph "Styrene"
+		"methyl acrylate":      86.09,  // Merck Index monograph "Methyl Acrylate"
+		"ethyl acrylate":       100.12, // Merck Index monograph "Ethyl Acrylate"
+		"n-butyl acrylate":     128.17, // Merck Index monograph "n-Butyl Acrylate"
+		"methacrylic acid":     86.09,  // Merck Index monograph "Methacrylic Acid"
+		"acrylonitrile":        53.06,  // by hand: 3·12.011 + 3·1.0080 + 14.007 = 53.064
+		"vinyl chloride":       62.50,  // by hand: 2·12.011 + 3·1.0080 + 35.45 = 62.496
+		"1,3-butadiene":        54.09,  // by hand: 4·12.011 + 6·1.0080 = 54.092
+		"maleic anhydride":     98.06,  // by hand: 4·12.011 + 2·1.0080 + 3·15.999 = 98.057
+		"acrylamide":           71.08,  // by hand: 3·12.011 + 5·1.0080 + 14.007 + 15.999 = 71.079
+		"n-butyl methacrylate": 142.20, // by hand: 8·12.011 + 14·1.0080 + 2·15.999 = 142.198
 	}
 	seen := 0
 	for _, m := range Monomers() {
@@ -177,10 +178,11 @@ func TestEveryValueHasASource(t *testing.T) {
 // carries for the resin calculations.
 func TestTgAndGroups(t *testing.T) {
 	// Tg in K = °C + 273.15 with °C as printed in the sources read: Morita, Front. Chem. 2014, 2,
-	// 10, Table 2 (PMMA 105, PHEMA 80, PEA −24 °C); Koiry and Singha, Front. Chem. 2014,
+	// 10, Table 2 (PMMA 105, PBMA 20, PHEMA 80, PEA −24 °C); Koiry and Singha, Front. Chem. 2014,
 	// 2, 91, Introduction (PS ≈ 100, P2EHA −60 °C).
 	tg := map[string]float64{
 		"methyl methacrylate":         378.15,
+		"n-butyl methacrylate":        293.15,
 		"2-hydroxyethyl methacrylate": 353.15,
 		"ethyl acrylate":              249.15,
 		"styrene":                     373.15,
@@ -191,10 +193,12 @@ func TestTgAndGroups(t *testing.T) {
 	// as ISO 2114 method B counts it after hydrolysis (both).
 	type groups struct{ oh, acid, total float64 }
 	want := map[string]groups{
-		"2-hydroxyethyl methacrylate": {1, 0, 0},
-		"acrylic acid":                {0, 1, 1},
-		"methacrylic acid":            {0, 1, 1},
-		"maleic anhydride":            {0, 1, 2},
+		"2-hydroxyethyl methacrylate":  {1, 0, 0},
+		"2-hydroxyethyl acrylate":      {1, 0, 0},
+		"2-hydroxypropyl methacrylate": {1, 0, 0},
+		"acrylic acid":                 {0, 1, 1},
+		"methacrylic acid":             {0, 1, 1},
+		"maleic anhydride":             {0, 1, 2},
 	}
 	for _, m := range Monomers() {
 		p, ok := PropertiesOf(m.Name)

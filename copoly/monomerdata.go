@@ -214,6 +214,34 @@ var builtinData = map[string]monomerData{
 		165, SrcTgSupplierTable, "165 °C", "",
 		0, 0, 0, SrcGroupsFormula, noGroups,
 	},
+	"n-butyl methacrylate": {
+		StateLiquid, 0.894, 25, SrcDensityRecalled,
+		"a NOAA CAMEO Chemicals datasheet text, as quoted by a chemical database page, gives 7.5 lb/gal (≈0.90 g/mL)",
+		58, SrcHeatRecalled, "",
+		[]string{HazardFlammable, HazardSensitiser, HazardIrritant}, SrcICSC,
+		"ICSC 1018 (2009): flammable; EU classification Xi, R10-36/37/38-43 (irritating to eyes, respiratory system " +
+			"and skin; may cause sensitization by skin contact)",
+		20, SrcTgMorita, "20 °C", "",
+		0, 0, 0, SrcGroupsFormula, noGroups,
+	},
+	"2-hydroxyethyl acrylate": {
+		StateLiquid, 1.011, 25, SrcDensityRecalled, "",
+		78, SrcHeatRecalled, "taken equal to the other acrylates",
+		[]string{HazardToxic, HazardCorrosive, HazardSensitiser}, SrcHazardsRecalled,
+		"in part confirmed: the ECHA registration dossier (EC 212-454-9) states that it is corrosive to skin and " +
+			"eyes, and the Japanese government's GHS classification (FY2008) does not class it as a flammable liquid " +
+			"(flash point 101 °C)",
+		-15, SrcTgRecalled, "−15 °C", "",
+		1, 0, 0, SrcGroupsFormula, "one OH per unit",
+	},
+	"2-hydroxypropyl methacrylate": {
+		StateLiquid, 1.066, 25, SrcDensityRecalled,
+		"the technical monomer is a mixture of the 2-hydroxypropyl and 2-hydroxy-1-methylethyl esters",
+		50, SrcHeatRecalled, "taken equal to 2-hydroxyethyl methacrylate; McCurdy and Laidler found both abnormally low",
+		[]string{HazardSensitiser, HazardIrritant}, SrcHazardsRecalled, "",
+		76, SrcTgRecalled, "76 °C", "Handbooks give about 73–76 °C; like poly(HEMA) it is plasticized by water.",
+		1, 0, 0, SrcGroupsFormula, "one OH per unit (either isomer)",
+	},
 }
 
 // PropertiesOf returns the process data of a built-in monomer, and whether it has any.
