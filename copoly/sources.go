@@ -179,7 +179,7 @@ var sourceTable = []Source{
 		ID:    SrcTgRecalled,
 		Short: "homopolymer Tg recalled from handbook tables",
 		Citation: "Homopolymer glass transition temperatures recalled from handbook tables (Polymer Handbook, 4th ed., " +
-			"Wiley 1999, section VI), not re-read here.",
+			"Wiley 1999), not re-read here.",
 		Checked: false,
 		Note: UncheckedMark + ". Handbooks disagree by several kelvin, more for polar or hydrogen-bonding polymers; " +
 			"molar mass, tacticity, water and residual monomer all shift Tg. Fox estimates are rough: override a " +
