@@ -38,7 +38,8 @@
 //     ([Terminal.Stockmayer]); molar-mass averages and chain size ([BinAverages],
 //     [SliceAverages], [SizeOf]).
 //   - A built-in list of common monomers with their process data, and literature reactivity
-//     ratios, each value with its source: [Monomers], [PropertiesOf], [QEOf], [Pairs].
+//     ratios, each value with its source: [Monomers], [PropertiesOf], [QEOf], [Pairs], and the
+//     table of sources they cite, [Sources].
 //
 // # Errors
 //

@@ -9,8 +9,10 @@ import (
 // polarity, on the scale fixed by styrene (Q = 1.00, e = −0.80).
 type QE struct {
 	Q, E float64
-	// Source of the values.
-	Source string
+	// Source is the per-value source text; SourceID names its entry in [Sources] ("" for values
+	// derived by QEFromRatios).
+	Source   string
+	SourceID string
 }
 
 // RatiosFromQE returns the reactivity ratios the Alfrey–Price scheme predicts for a pair:
@@ -67,29 +69,31 @@ func QEFromRatios(m1 QE, r1, r2 float64, acceptor bool) (QE, error) {
 	return QE{Q: m1.Q / r1 * math.Exp(-m1.E*(m1.E-e2)), E: e2, Source: "derived from r1, r2 by the inverse Q–e relations"}, nil
 }
 
-// qeFromMemory is the source note of the built-in Q–e values: recalled from the Greenley
-// compilation (Polymer Handbook, 4th ed., Wiley 1999) as quoted in textbooks, not checked against
-// the printed table.
-const qeFromMemory = "from memory (Greenley's Q–e compilation, Polymer Handbook 4th ed., as quoted in textbooks); unverified, screening only"
-
-// builtinQE holds Q–e values of the built-in monomers (see qeFromMemory). Styrene is the
-// reference of the scale.
+// builtinQE holds Q–e values of the built-in monomers. Styrene is the reference of the scale
+// (SrcQEReference); the others are recalled values (SrcQERecalled). n-Butyl methacrylate,
+// 2-hydroxyethyl acrylate, 2-hydroxypropyl methacrylate and 2-ethylhexyl acrylate have none: no
+// value was recalled with enough confidence, and none was found in a source that could be read.
 var builtinQE = map[string]QE{
-	"styrene":                     {1.00, -0.80, "the reference of the Q–e scale (Q = 1, e = −0.8 by definition)"},
-	"methyl methacrylate":         {0.78, 0.40, qeFromMemory},
-	"methyl acrylate":             {0.45, 0.64, qeFromMemory},
-	"ethyl acrylate":              {0.41, 0.55, qeFromMemory},
-	"n-butyl acrylate":            {0.38, 0.85, qeFromMemory},
-	"acrylonitrile":               {0.48, 1.23, qeFromMemory},
-	"vinyl acetate":               {0.026, -0.88, qeFromMemory},
-	"vinyl chloride":              {0.056, 0.16, qeFromMemory},
-	"1,3-butadiene":               {1.70, -0.50, qeFromMemory},
-	"acrylic acid":                {0.83, 0.88, qeFromMemory},
-	"methacrylic acid":            {0.98, 0.62, qeFromMemory},
-	"maleic anhydride":            {0.86, 3.69, qeFromMemory},
-	"N-vinylpyrrolidone":          {0.088, -1.62, qeFromMemory},
-	"2-hydroxyethyl methacrylate": {0.9, 0.4, qeFromMemory + "; values scatter widely"},
-	"acrylamide":                  {0.23, 0.54, qeFromMemory + "; strongly solvent- and pH-dependent"},
+	"styrene":                     {1.00, -0.80, cite(SrcQEReference, "Q = 1, e = −0.8 by definition"), SrcQEReference},
+	"methyl methacrylate":         qeRecalled(0.78, 0.40, ""),
+	"methyl acrylate":             qeRecalled(0.45, 0.64, ""),
+	"ethyl acrylate":              qeRecalled(0.41, 0.55, ""),
+	"n-butyl acrylate":            qeRecalled(0.38, 0.85, ""),
+	"acrylonitrile":               qeRecalled(0.48, 1.23, ""),
+	"vinyl acetate":               qeRecalled(0.026, -0.88, "older tables give e ≈ −0.22"),
+	"vinyl chloride":              qeRecalled(0.056, 0.16, ""),
+	"1,3-butadiene":               qeRecalled(1.70, -0.50, ""),
+	"acrylic acid":                qeRecalled(0.83, 0.88, ""),
+	"methacrylic acid":            qeRecalled(0.98, 0.62, ""),
+	"maleic anhydride":            qeRecalled(0.86, 3.69, ""),
+	"N-vinylpyrrolidone":          qeRecalled(0.088, -1.62, ""),
+	"2-hydroxyethyl methacrylate": qeRecalled(0.9, 0.4, "values scatter widely"),
+	"acrylamide":                  qeRecalled(0.23, 0.54, "strongly solvent- and pH-dependent"),
+}
+
+// qeRecalled is a built-in Q–e pair recalled from the Greenley compilation (SrcQERecalled).
+func qeRecalled(q, e float64, detail string) QE {
+	return QE{Q: q, E: e, Source: cite(SrcQERecalled, detail), SourceID: SrcQERecalled}
 }
 
 // QEOf returns the built-in Q–e values of a monomer of the built-in list, and whether there are

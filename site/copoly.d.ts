@@ -140,8 +140,20 @@ export interface AveragesResult {
   size?: { unitMass: number; DPn: number; DPw: number; units1: number; units2: number };  // when F1 and both molar masses are given
 }
 
-export interface Monomer { name: string; molarMass: number; source: string }
-export interface RatioPair { monomer1: string; monomer2: string; r1: number; r2: number; temperature: string; source: string }
+export interface Monomer { name: string; molarMass: number; source: string; sourceId: string }
+export interface RatioPair {
+  monomer1: string; monomer2: string; r1: number; r2: number;
+  temperature: string;   // conditions as published; "" when the source gives none (its note says so, once)
+  source: string; sourceId: string;
+}
+export interface LibrarySource {     // one entry of library().sources; every …sourceId names one
+  id: string;
+  short: string;       // the label the per-value source texts use
+  citation: string;    // full citation: authors, title, journal or publisher, year, table or page
+  checked: boolean;    // false: its note carries "value not checked against a printed source — confirm before use" once,
+                       // and the per-value texts citing it end "(not checked — see the note on this source)"
+  note: string;        // what was read and its caveats, once for all the values citing it
+}
 
 // ---- Bench data and reactivity-ratio estimation ----
 
@@ -236,12 +248,17 @@ export interface NextRunsResult {
 // ---- Feed planning ----
 
 export interface MonomerData {       // one entry of library().monomers (fields beyond name/molarMass/source)
-  name: string; formula: string; molarMass: number; source: string;
+  name: string; formula: string; molarMass: number; source: string; sourceId: string;
   state: "liquid" | "gas" | "solid";
-  density: number; densityTemp: number; densitySource: string;   // g/mL at densityTemp °C
-  heat: number; heatSource: string;                               // −ΔHp, kJ/mol
-  q: number | null; e: number | null; qeSource: string;            // Alfrey–Price Q, e (screening only)
-  hazards: string[]; hazardSource: string;
+  density: number; densityTemp: number; densitySource: string; densitySourceId: string;   // g/mL at densityTemp °C
+  heat: number; heatSource: string; heatSourceId: string;                                 // −ΔHp, kJ/mol
+  q: number | null; e: number | null; qeSource: string; qeSourceId: string;               // Alfrey–Price Q, e (screening only; "" when none)
+  hazards: string[]; hazardSource: string; hazardSourceId: string;
+  tg: number | null; tgSource: string; tgSourceId: string;   // homopolymer Tg in K (null when none is given; tgNote says why)
+  tgNote: string;                                            // where sources disagree, which value was chosen (e.g. PMMA tacticity)
+  hydroxyl: number; acid: number; acidTotal: number;         // groups per monomer unit in the hydroxyl value, the partial acid
+                                                             // value (ISO 2114 method A: an anhydride counts 1) and the total acid value (method B: 2)
+  groupsSource: string; groupsSourceId: string;
 }
 
 export interface PlanRow {
@@ -376,7 +393,7 @@ export interface Copoly {
   averages(a: { bins?: { low: number; high: number; numberFraction?: number; weightFraction?: number }[];
     slices?: { mass: number; signal: number }[];            // one of bins or slices (an empty list counts as not given)
     F1?: number; molarMass1?: number; molarMass2?: number }): AveragesResult | CopolyError;
-  library(a?: {}): { monomers: Monomer[]; pairs: RatioPair[] };
+  library(a?: {}): { monomers: Monomer[]; pairs: RatioPair[]; sources: LibrarySource[] };  // monomers are MonomerData
   demoProject(a?: {}): { project: Project };
   checkProject(a: { project: Project }): { project: Project } | CopolyError;
   exportProject(a: { project: Project }): { json: string; filename: string } | CopolyError;

@@ -479,24 +479,35 @@ func sliceField(err error) error {
 	return err
 }
 
-// library: the built-in monomers and literature ratio pairs.
+// library: the built-in monomers and literature ratio pairs, and the table of sources they cite.
 func library(js.Value) (any, error) {
-	ms, ps := copoly.Monomers(), copoly.Pairs()
-	out := libraryOut{Monomers: make([]monomerOut, len(ms)), Pairs: make([]pairOut, len(ps))}
+	ms, ps, ss := copoly.Monomers(), copoly.Pairs(), copoly.Sources()
+	out := libraryOut{Monomers: make([]monomerOut, len(ms)), Pairs: make([]pairOut, len(ps)), Sources: make([]sourceOut, len(ss))}
 	for i, m := range ms {
-		o := monomerOut{Name: m.Name, Formula: m.Formula, MolarMass: m.MolarMass, Source: m.Source, Hazards: []string{}}
+		o := monomerOut{Name: m.Name, Formula: m.Formula, MolarMass: m.MolarMass, Source: m.Source, SourceID: m.SourceID, Hazards: []string{}}
 		if pr, ok := copoly.PropertiesOf(m.Name); ok {
-			o.State, o.Density, o.DensityTemp, o.DensitySource = pr.State, pr.Density, pr.DensityTemp, pr.DensitySource
-			o.Heat, o.HeatSource = pr.HeatOfPolymerization, pr.HeatSource
-			o.Hazards, o.HazardSource = orNoTexts(pr.Hazards), pr.HazardSource
+			o.State, o.Density, o.DensityTemp = pr.State, pr.Density, pr.DensityTemp
+			o.DensitySource, o.DensitySourceID = pr.DensitySource, pr.DensitySourceID
+			o.Heat, o.HeatSource, o.HeatSourceID = pr.HeatOfPolymerization, pr.HeatSource, pr.HeatSourceID
+			o.Hazards, o.HazardSource, o.HazardSourceID = orNoTexts(pr.Hazards), pr.HazardSource, pr.HazardSourceID
+			if pr.Tg > 0 {
+				tg := pr.Tg
+				o.Tg = &tg
+			}
+			o.TgSource, o.TgSourceID, o.TgNote = pr.TgSource, pr.TgSourceID, pr.TgNote
+			o.Hydroxyl, o.Acid, o.AcidTotal = pr.Hydroxyl, pr.Acid, pr.AcidTotal
+			o.GroupsSource, o.GroupsSourceID = pr.GroupsSource, pr.GroupsSourceID
 		}
 		if q, ok := copoly.QEOf(m.Name); ok {
-			o.Q, o.E, o.QESource = &q.Q, &q.E, q.Source
+			o.Q, o.E, o.QESource, o.QESourceID = &q.Q, &q.E, q.Source, q.SourceID
 		}
 		out.Monomers[i] = o
 	}
 	for i, p := range ps {
-		out.Pairs[i] = pairOut{Monomer1: p.Monomer1, Monomer2: p.Monomer2, R1: p.R1, R2: p.R2, Temperature: p.Temperature, Source: p.Source}
+		out.Pairs[i] = pairOut{Monomer1: p.Monomer1, Monomer2: p.Monomer2, R1: p.R1, R2: p.R2, Temperature: p.Temperature, Source: p.Source, SourceID: p.SourceID}
+	}
+	for i, s := range ss {
+		out.Sources[i] = sourceOut{ID: s.ID, Short: s.Short, Citation: s.Citation, Checked: s.Checked, Note: s.Note}
 	}
 	return out, nil
 }

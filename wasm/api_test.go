@@ -275,16 +275,35 @@ func TestLibrary(t *testing.T) {
 	api, _ := testAPI(t)
 	r := call(api, "library")
 	wantNoError(t, r)
-	ms, ps := copoly.Monomers(), copoly.Pairs()
-	if r.Get("monomers").Length() != len(ms) || r.Get("pairs").Length() != len(ps) {
-		t.Fatalf("library has %d monomers and %d pairs, want %d and %d", r.Get("monomers").Length(), r.Get("pairs").Length(), len(ms), len(ps))
+	ms, ps, ss := copoly.Monomers(), copoly.Pairs(), copoly.Sources()
+	if r.Get("monomers").Length() != len(ms) || r.Get("pairs").Length() != len(ps) || r.Get("sources").Length() != len(ss) {
+		t.Fatalf("library has %d monomers, %d pairs and %d sources, want %d, %d and %d", r.Get("monomers").Length(),
+			r.Get("pairs").Length(), r.Get("sources").Length(), len(ms), len(ps), len(ss))
 	}
 	m0, p0 := r.Get("monomers").Index(0), r.Get("pairs").Index(0)
-	if m0.Get("name").String() != ms[0].Name || m0.Get("molarMass").Float() != ms[0].MolarMass || m0.Get("source").String() != ms[0].Source {
+	if m0.Get("name").String() != ms[0].Name || m0.Get("molarMass").Float() != ms[0].MolarMass || m0.Get("source").String() != ms[0].Source ||
+		m0.Get("sourceId").String() != ms[0].SourceID {
 		t.Errorf("monomers[0] = %s, want %+v", stringify(m0), ms[0])
 	}
-	if p0.Get("monomer2").String() != ps[0].Monomer2 || p0.Get("r1").Float() != ps[0].R1 || p0.Get("r2").Float() != ps[0].R2 || p0.Get("source").String() != ps[0].Source {
+	if p0.Get("monomer2").String() != ps[0].Monomer2 || p0.Get("r1").Float() != ps[0].R1 || p0.Get("r2").Float() != ps[0].R2 || p0.Get("source").String() != ps[0].Source ||
+		p0.Get("sourceId").String() != ps[0].SourceID {
 		t.Errorf("pairs[0] = %s, want %+v", stringify(p0), ps[0])
+	}
+	// The sources come once, in copoly's order, each with the fields of the d.ts.
+	ids := map[string]bool{}
+	for i, s := range ss {
+		g := r.Get("sources").Index(i)
+		if g.Get("id").String() != s.ID || g.Get("short").String() != s.Short || g.Get("citation").String() != s.Citation ||
+			g.Get("checked").Bool() != s.Checked || g.Get("note").String() != s.Note {
+			t.Errorf("sources[%d] = %s, want %+v", i, stringify(g), s)
+		}
+		ids[s.ID] = true
+	}
+	// Every sourceId the page may look up is in the list.
+	for i := range ps {
+		if id := r.Get("pairs").Index(i).Get("sourceId").String(); !ids[id] {
+			t.Errorf("pairs[%d].sourceId = %q, not in sources", i, id)
+		}
 	}
 }
 

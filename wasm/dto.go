@@ -460,23 +460,38 @@ func molarMasses(mm1, mm2 *float64) (m1, m2 float64, given bool, err error) {
 }
 
 // monomerOut is the MonomerData of the d.ts: a built-in monomer with its process data
-// (copoly.PropertiesOf) and Q–e values (copoly.QEOf; q and e null when it has none).
+// (copoly.PropertiesOf) and Q–e values (copoly.QEOf; q and e null when it has none). Each
+// …SourceId names an entry of libraryOut.Sources; tg is null when copoly gives none.
 type monomerOut struct {
-	Name          string   `js:"name"`
-	Formula       string   `js:"formula"`
-	MolarMass     float64  `js:"molarMass"`
-	Source        string   `js:"source"`
-	State         string   `js:"state"`
-	Density       float64  `js:"density"`
-	DensityTemp   float64  `js:"densityTemp"`
-	DensitySource string   `js:"densitySource"`
-	Heat          float64  `js:"heat"`
-	HeatSource    string   `js:"heatSource"`
-	Q             *float64 `js:"q"`
-	E             *float64 `js:"e"`
-	QESource      string   `js:"qeSource"`
-	Hazards       []string `js:"hazards"`
-	HazardSource  string   `js:"hazardSource"`
+	Name            string   `js:"name"`
+	Formula         string   `js:"formula"`
+	MolarMass       float64  `js:"molarMass"`
+	Source          string   `js:"source"`
+	SourceID        string   `js:"sourceId"`
+	State           string   `js:"state"`
+	Density         float64  `js:"density"`
+	DensityTemp     float64  `js:"densityTemp"`
+	DensitySource   string   `js:"densitySource"`
+	DensitySourceID string   `js:"densitySourceId"`
+	Heat            float64  `js:"heat"`
+	HeatSource      string   `js:"heatSource"`
+	HeatSourceID    string   `js:"heatSourceId"`
+	Q               *float64 `js:"q"`
+	E               *float64 `js:"e"`
+	QESource        string   `js:"qeSource"`
+	QESourceID      string   `js:"qeSourceId"`
+	Hazards         []string `js:"hazards"`
+	HazardSource    string   `js:"hazardSource"`
+	HazardSourceID  string   `js:"hazardSourceId"`
+	Tg              *float64 `js:"tg"`
+	TgSource        string   `js:"tgSource"`
+	TgSourceID      string   `js:"tgSourceId"`
+	TgNote          string   `js:"tgNote"`
+	Hydroxyl        float64  `js:"hydroxyl"`
+	Acid            float64  `js:"acid"`
+	AcidTotal       float64  `js:"acidTotal"`
+	GroupsSource    string   `js:"groupsSource"`
+	GroupsSourceID  string   `js:"groupsSourceId"`
 }
 
 type pairOut struct {
@@ -486,11 +501,22 @@ type pairOut struct {
 	R2          float64 `js:"r2"`
 	Temperature string  `js:"temperature"`
 	Source      string  `js:"source"`
+	SourceID    string  `js:"sourceId"`
+}
+
+// sourceOut is the LibrarySource of the d.ts (copoly.Source).
+type sourceOut struct {
+	ID       string `js:"id"`
+	Short    string `js:"short"`
+	Citation string `js:"citation"`
+	Checked  bool   `js:"checked"`
+	Note     string `js:"note"`
 }
 
 type libraryOut struct {
 	Monomers []monomerOut `js:"monomers"`
 	Pairs    []pairOut    `js:"pairs"`
+	Sources  []sourceOut  `js:"sources"`
 }
 
 // runDTO is the Run of the d.ts, both ways: mole fractions and molar conversion (0 = low

@@ -583,9 +583,14 @@ func TestLibraryMonomerData(t *testing.T) {
 			key  string
 			want any
 		}{
+			{"sourceId", m.SourceID},
 			{"state", pr.State}, {"density", pr.Density}, {"densityTemp", pr.DensityTemp},
-			{"densitySource", pr.DensitySource}, {"heat", pr.HeatOfPolymerization}, {"heatSource", pr.HeatSource},
-			{"hazardSource", pr.HazardSource},
+			{"densitySource", pr.DensitySource}, {"densitySourceId", pr.DensitySourceID},
+			{"heat", pr.HeatOfPolymerization}, {"heatSource", pr.HeatSource}, {"heatSourceId", pr.HeatSourceID},
+			{"hazardSource", pr.HazardSource}, {"hazardSourceId", pr.HazardSourceID},
+			{"tgSource", pr.TgSource}, {"tgSourceId", pr.TgSourceID}, {"tgNote", pr.TgNote},
+			{"hydroxyl", pr.Hydroxyl}, {"acid", pr.Acid}, {"acidTotal", pr.AcidTotal},
+			{"groupsSource", pr.GroupsSource}, {"groupsSourceId", pr.GroupsSourceID},
 		} {
 			if got, want := stringify(g.Get(c.key)), stringify(toJS(c.want)); got != want {
 				t.Errorf("%s.%s = %s, want %s", m.Name, c.key, got, want)
@@ -597,9 +602,17 @@ func TestLibraryMonomerData(t *testing.T) {
 		if got, want := stringify(g.Get("hazards")), stringify(toJS(orNoTexts(pr.Hazards))); got != want {
 			t.Errorf("%s.hazards = %s, want %s", m.Name, got, want)
 		}
+		// tg is the homopolymer Tg in K, null when copoly gives none.
+		switch {
+		case pr.Tg > 0 && g.Get("tg").Float() != pr.Tg:
+			t.Errorf("%s.tg = %s, want %v", m.Name, stringify(g.Get("tg")), pr.Tg)
+		case pr.Tg == 0 && !g.Get("tg").IsNull():
+			t.Errorf("%s.tg = %s, want null (copoly gives none)", m.Name, stringify(g.Get("tg")))
+		}
 		q, hasQE := copoly.QEOf(m.Name)
 		switch {
-		case hasQE && (g.Get("q").Float() != q.Q || g.Get("e").Float() != q.E || g.Get("qeSource").String() != q.Source):
+		case hasQE && (g.Get("q").Float() != q.Q || g.Get("e").Float() != q.E || g.Get("qeSource").String() != q.Source ||
+			g.Get("qeSourceId").String() != q.SourceID):
 			t.Errorf("%s q, e = %s, %s, want %v, %v", m.Name, stringify(g.Get("q")), stringify(g.Get("e")), q.Q, q.E)
 		case !hasQE && (!g.Get("q").IsNull() || !g.Get("e").IsNull() || g.Get("qeSource").String() != ""):
 			t.Errorf("%s has no Q–e values in copoly; q, e = %s, %s, want null", m.Name, stringify(g.Get("q")), stringify(g.Get("e")))
