@@ -5,9 +5,11 @@ import (
 	"math"
 	"os"
 	"strconv"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
+	"gonum.org/v1/gonum/stat/distuv"
 )
 
 func triadRunsFrom(m Model, seq func(float64) Sequence, feeds []float64) []TriadRun {
@@ -104,4 +106,57 @@ func TestDiscriminatePublishedTriads(t *testing.T) {
 		t.Errorf("AN/AA: %+v", d)
 	}
 	t.Logf("AN/AA triads: terminal r = %.3g, %.3g; penultimate %v; %s", tp[0], tp[1], d.Penultimate.Params, d.Verdict)
+}
+
+// mixedEvidenceRuns are six measured values (F1 and A112 at three feeds) from the penultimate
+// model of TestDiscriminateRecoversPenultimate with a fixed scatter of ±0.01 (invented for the
+// test): enough to make the F-test significant, too few for AICc, whose small-sample penalty
+// 2K(K + 1)/(n − K − 1) is 40 for the four-parameter model at n = 6.
+func mixedEvidenceRuns() []TriadRun {
+	pm := Penultimate{0.3, 0.9, 0.04, 0.2}
+	var runs []TriadRun
+	for i, f := range []float64{0.2, 0.5, 0.8} {
+		s, _ := pm.Sequence(f)
+		e := 0.01 * float64(1-2*(i%2))
+		runs = append(runs, TriadRun{F10: f, F1: s.F1 + e, A112: s.T112 - e, A111: -1, A212: -1, A222: -1, A221: -1, A121: -1})
+	}
+	return runs
+}
+
+// TestDiscriminateStatistics checks the F-test's p-value and ΔAICc of a comparison against their
+// definitions, and that Supported needs both tests.
+func TestDiscriminateStatistics(t *testing.T) {
+	d, err := Discriminate(mixedEvidenceRuns())
+	if err != nil {
+		t.Fatal(err)
+	}
+	n, sT, sP := float64(d.Terminal.N), d.Terminal.SSR, d.Penultimate.SSR
+	if d.Terminal.N != 6 || d.Penultimate.N != 6 {
+		t.Fatalf("N = %d, %d, want the 6 values given", d.Terminal.N, d.Penultimate.N)
+	}
+	nu := n - 4
+	// Extra-sum-of-squares F with 2 and n − 4 degrees of freedom (Bates & Watts 1988), and its
+	// upper tail in closed form for two numerator degrees of freedom, (1 + 2F/ν)^(−ν/2), and
+	// by gonum's distuv.
+	if F := (sT - sP) / 2 / (sP / nu); !scalar.EqualWithinRel(d.F, F, 1e-12) {
+		t.Errorf("F = %v, want ((S_T − S_P)/2)/(S_P/(n − 4)) = %v", d.F, F)
+	}
+	if want := math.Pow(1+2*d.F/nu, -nu/2); !scalar.EqualWithinAbsOrRel(d.PValue, want, 1e-15, 1e-9) {
+		t.Errorf("PValue = %v, want (1 + 2F/ν)^(−ν/2) = %v at F = %v, ν = %v", d.PValue, want, d.F, nu)
+	}
+	if want := (distuv.F{D1: 2, D2: nu}).Survival(d.F); !scalar.EqualWithinAbsOrRel(d.PValue, want, 1e-15, 1e-9) {
+		t.Errorf("PValue = %v, distuv.F{2, %v}.Survival(%v) = %v", d.PValue, nu, d.F, want)
+	}
+	// AICc = n ln(S/n) + 2K + 2K(K + 1)/(n − K − 1) (Burnham & Anderson 2002), so
+	// ΔAICc = n ln(S_T/S_P) − 4 + 12/(n − 3) − 40/(n − 5) for K = 2 against K = 4.
+	if want := n*math.Log(sT/sP) - 4 + 12/(n-3) - 40/(n-5); !scalar.EqualWithinAbsOrRel(d.DeltaAIC, want, 1e-9, 1e-9) {
+		t.Errorf("DeltaAIC = %v, want %v", d.DeltaAIC, want)
+	}
+	// The case this data set was made for: significant by the F-test, not preferred by AICc.
+	if !(d.PValue < 0.05) || !(d.DeltaAIC <= 2) {
+		t.Fatalf("p = %v, ΔAICc = %v: the data no longer give a significant F-test with ΔAICc ≤ 2", d.PValue, d.DeltaAIC)
+	}
+	if d.Supported || !strings.Contains(d.Verdict, "mixed") {
+		t.Errorf("p = %.3g < 0.05 but ΔAICc = %.3g ≤ 2: Supported = %v, verdict %q; want false and mixed evidence", d.PValue, d.DeltaAIC, d.Supported, d.Verdict)
+	}
 }
