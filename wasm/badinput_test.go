@@ -845,7 +845,7 @@ func (s *sweep) sweepField(t *testing.T, m sweepMethod, base js.Value, f sweepFi
 func TestDecodeLimits(t *testing.T) {
 	types := map[string]reflect.Type{}
 	for _, v := range []any{modelIn{}, compositionIn{}, feedIn{}, driftIn{}, sequenceIn{}, chainsIn{}, discriminateIn{},
-		averagesIn{}, importIn{}, benchRunsIn{}, pasteBenchIn{}, fitIn{}, nextRunsIn{}, planIn{}, starvedFeedIn{}, qeIn{}, projectIn{}} {
+		averagesIn{}, importIn{}, benchRunsIn{}, pasteBenchIn{}, fitIn{}, nextRunsIn{}, planIn{}, starvedFeedIn{}, qeIn{}, projectIn{}, exampleIn{}} {
 		types[reflect.TypeOf(v).Name()] = reflect.TypeOf(v)
 	}
 	decoded := regexp.MustCompile(`var in (\w+)\n\s*if err := decode\(`)
