@@ -3,6 +3,9 @@ package copoly
 import (
 	"math"
 	"testing"
+
+	"gonum.org/v1/gonum/floats/scalar"
+	"gonum.org/v1/gonum/mat"
 )
 
 func TestDOptimalPair(t *testing.T) {
@@ -48,5 +51,59 @@ func TestNextRunsShrinksRegion(t *testing.T) {
 	}
 	if _, err := NextRuns(1, 1, nil, []float64{1}); Field(err) != "conversions[0]" {
 		t.Errorf("conversion 1: %v", err)
+	}
+}
+
+// TestNextRunsShrinkIsAreaRatio checks Shrink against the area of the linearised region, which
+// for a two-parameter ellipse {d : dᵀ M d ≤ c} is π c/√det M: the area shrinks by
+// √(det M_before/det M_after) (derived by hand). Two cases:
+//   - closed form: when the runs made are the two suggested by NextRuns itself (so repeating
+//     them is again the best pair), M_after = 2 M_before and det(2M) = 4 det M for a 2 × 2
+//     matrix, so Shrink = √(1/4) = 1/2 exactly;
+//   - runs at low conversion (X = 0), where the sensitivities are those of the Mayo–Lewis
+//     equation, F1 = N/D, N = r1 f1² + f1 f2, D = N + f1 f2 + r2 f2², differentiated by hand:
+//     ∂F1/∂r1 = f1²(D − N)/D², ∂F1/∂r2 = −N f2²/D²; the determinants by gonum's mat.Det.
+func TestNextRunsShrinkIsAreaRatio(t *testing.T) {
+	m := Terminal{0.52, 0.46} // styrene/methyl methacrylate, Polymer Handbook table (an input only)
+	first, err := NextRuns(m.R1, m.R2, nil, []float64{0.05})
+	if err != nil {
+		t.Fatal(err)
+	}
+	made := []Run{{F10: first.Next[0].F10, Conversion: 0.05}, {F10: first.Next[1].F10, Conversion: 0.05}}
+	again, err := NextRuns(m.R1, m.R2, made, []float64{0.05})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if again.Next != first.Next {
+		t.Fatalf("NextRuns after its own pair suggests %v, not the pair %v again", again.Next, first.Next)
+	}
+	if math.Abs(again.Shrink-0.5) > 1e-9 {
+		t.Errorf("Shrink after repeating the best pair = %v, want 1/2", again.Shrink)
+	}
+
+	info := func(feeds []float64) *mat.Dense {
+		var a11, a12, a22 float64
+		for _, f1 := range feeds {
+			f2 := 1 - f1
+			n := m.R1*f1*f1 + f1*f2
+			d := n + f1*f2 + m.R2*f2*f2
+			j1, j2 := f1*f1*(d-n)/(d*d), -n*f2*f2/(d*d)
+			a11, a12, a22 = a11+j1*j1, a12+j1*j2, a22+j2*j2
+		}
+		return mat.NewDense(2, 2, []float64{a11, a12, a12, a22})
+	}
+	before := []float64{0.45, 0.5, 0.55} // clustered runs: a poor design
+	var runs []Run
+	for _, f := range before {
+		runs = append(runs, Run{F10: f})
+	}
+	d, err := NextRuns(m.R1, m.R2, runs, []float64{0})
+	if err != nil {
+		t.Fatal(err)
+	}
+	after := append(before, d.Next[0].F10, d.Next[1].F10)
+	want := math.Sqrt(mat.Det(info(before)) / mat.Det(info(after)))
+	if !scalar.EqualWithinRel(d.Shrink, want, 1e-6) {
+		t.Errorf("Shrink = %v after adding %v to feeds %v, want √(det before/det after) = %v", d.Shrink, d.Next, before, want)
 	}
 }

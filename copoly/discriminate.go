@@ -3,8 +3,6 @@ package copoly
 import (
 	"fmt"
 	"math"
-
-	"gonum.org/v1/gonum/mathext"
 )
 
 // TriadRun is one low-conversion copolymer with its measured composition and monomer-centred
@@ -137,7 +135,7 @@ func Discriminate(runs []TriadRun) (*Discrimination, error) {
 	dof := float64(n - 4)
 	if dof > 0 && sP > 0 {
 		d.F = math.Max(0, (sT-sP)/2) / (sP / dof)
-		d.PValue = mathext.RegIncBeta(dof/2, 1, dof/(dof+2*d.F))
+		d.PValue = fSurvival(d.F, 2, dof)
 	} else {
 		d.PValue = math.NaN()
 	}

@@ -12,13 +12,29 @@ import (
 //
 // References:
 //   - M. Abramowitz, I. A. Stegun, Handbook of Mathematical Functions, 1964: 26.6.2 (F), 26.4.19
-//     (χ²), 26.7.1 with 26.5.27 (Student's t).
+//     (χ²), 26.7.1 with 26.5.27 (Student's t), 26.5.2 (I_x(a, b) = 1 − I_{1−x}(b, a)).
 
 // fQuantile returns the p-quantile of the F distribution with d1 and d2 degrees of freedom:
 // with q = I⁻¹_p(d1/2, d2/2), F = d2 q / (d1 (1 − q)).
 func fQuantile(p, d1, d2 float64) float64 {
 	q := mathext.InvRegIncBeta(d1/2, d2/2, p)
 	return d2 * q / (d1 * (1 - q))
+}
+
+// fSurvival returns the upper-tail probability of the F distribution with d1 and d2 degrees of
+// freedom, from A&S 26.6.2 and the symmetry 26.5.2:
+//
+//	P(F > x) = I_{d2/(d2 + d1 x)}(d2/2, d1/2)
+//
+// 1 for x ≤ 0; NaN for NaN.
+func fSurvival(x, d1, d2 float64) float64 {
+	if x <= 0 {
+		return 1
+	}
+	if math.IsInf(x, 1) {
+		return 0
+	}
+	return mathext.RegIncBeta(d2/2, d1/2, d2/(d2+d1*x))
 }
 
 // chi2Quantile returns the p-quantile of χ² with k degrees of freedom: 2 P⁻¹(k/2, p).

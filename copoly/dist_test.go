@@ -39,3 +39,39 @@ func TestDistributions(t *testing.T) {
 		t.Errorf("chi2Quantile(0.95, 2) = %v", got)
 	}
 }
+
+// TestFSurvival checks the F distribution's upper tail against gonum's distuv (an independent
+// implementation), scipy and the closed form for two numerator degrees of freedom.
+func TestFSurvival(t *testing.T) {
+	for _, d1 := range []float64{1, 2, 3, 5} {
+		for _, d2 := range []float64{1, 2, 4, 7, 30} {
+			for _, x := range []float64{0.01, 0.5, 1, 3.5, 19, 250} {
+				if got, want := fSurvival(x, d1, d2), (distuv.F{D1: d1, D2: d2}).Survival(x); !scalar.EqualWithinAbsOrRel(got, want, 1e-14, 1e-9) {
+					t.Errorf("fSurvival(%g, %g, %g) = %v, distuv %v", x, d1, d2, got, want)
+				}
+				// Two numerator degrees of freedom: P(F > x) = (1 + 2x/ν)^(−ν/2), the complement
+				// of the CDF in TestDistributions.
+				if d1 == 2 {
+					if got, want := fSurvival(x, 2, d2), math.Pow(1+2*x/d2, -d2/2); !scalar.EqualWithinAbsOrRel(got, want, 1e-14, 1e-9) {
+						t.Errorf("fSurvival(%g, 2, %g) = %v, closed form %v", x, d2, got, want)
+					}
+				}
+			}
+		}
+	}
+	// scipy.stats.f.sf(x, d1, d2), scipy 1.10.1 (Debian 12 python3-scipy).
+	for _, c := range []struct{ x, d1, d2, want float64 }{
+		{3.5, 2, 10, 0.07042962777237427},
+		{19, 2, 2, 0.05},
+		{0.75, 3, 7, 0.5560876708478534},
+		{2.2, 5, 40, 0.0732822498721639},
+	} {
+		if got := fSurvival(c.x, c.d1, c.d2); !scalar.EqualWithinRel(got, c.want, 1e-12) {
+			t.Errorf("fSurvival(%g, %g, %g) = %.16g, scipy %.16g", c.x, c.d1, c.d2, got, c.want)
+		}
+	}
+	if fSurvival(0, 2, 5) != 1 || fSurvival(-1, 2, 5) != 1 || fSurvival(math.Inf(1), 2, 5) != 0 || !math.IsNaN(fSurvival(math.NaN(), 2, 5)) {
+		t.Errorf("fSurvival at 0, −1, +Inf, NaN = %v, %v, %v, %v; want 1, 1, 0, NaN",
+			fSurvival(0, 2, 5), fSurvival(-1, 2, 5), fSurvival(math.Inf(1), 2, 5), fSurvival(math.NaN(), 2, 5))
+	}
+}

@@ -126,3 +126,56 @@ func TestRunLengths(t *testing.T) {
 		t.Errorf("maxLength 0: error %v", err)
 	}
 }
+
+// TestBatchSequenceIdealClosedForm checks the batch-averaged run number and randomness index
+// against a closed form derived by hand for an ideal pair, r1 r2 = 1 (here r1 = 2, r2 = 1/2).
+//
+// Derivation. With r2 = 1/r1 the Mayo–Lewis equation becomes dM1/dM2 = r1 M1/M2 (Mayo & Lewis
+// 1944), so M1/M10 = (M2/M20)^r1. Per mole charged, with v = M2/M20 and r1 = 2: M1 = a v²,
+// M2 = b v (a = f10, b = 1 − f10), X = 1 − a v² − b v, and dX = −(2a v + b) dv. The copolymer
+// formed at v has F1 = dM1/(dM1 + dM2) = 2a v/(2a v + b), and for an ideal pair P12 = F2 and
+// P21 = F1 (P12 = f2/(r1 f1 + f2) = F2 when r1 r2 = 1). Integrating over the batch from v = 1
+// down to v_e, with c = 2a:
+//
+//	I1  = ∫F1 dX  = a (1 − v_e²)
+//	I2  = ∫F1² dX = [c v²/2 − b v + (b²/c) ln(c v + b)] from v_e to 1
+//	I12 = ∫F1 F2 dX = I1 − I2
+//
+// The batch chain (BatchSequence's definitions) has P12 = ∫F1 P12 dX/∫F1 dX = I12/I1 and
+// P21 = I12/(X − I1), so the randomness index B = P12 + P21 = I12 (1/I1 + 1/(X − I1)), and the
+// run number, 100 times the averaged 12-dyad fraction D12 = 2 F1 P12 = 2 F1 F2, is
+// R = 200 I12/X (Harwood & Ritchey 1964). Each instant is Bernoullian (B = 1); the drift of the
+// composition makes the whole batch slightly blockier than that.
+func TestBatchSequenceIdealClosedForm(t *testing.T) {
+	const f10, ve = 0.5, 0.5
+	a, b := f10, 1-f10
+	c := 2 * a
+	x := 1 - a*ve*ve - b*ve // 0.625
+	prim := func(v float64) float64 { return c*v*v/2 - b*v + b*b/c*math.Log(c*v+b) }
+	i1 := a * (1 - ve*ve)
+	i12 := i1 - (prim(1) - prim(ve))
+	wantB := i12 * (1/i1 + 1/(x-i1))
+	wantR := 200 * i12 / x
+
+	s, err := Terminal{2, 0.5}.BatchSequence(f10, x)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// The midpoint rule over batchSteps slices is good to about 1e-8 here; 1e-6 leaves room
+	// (common practice, no source).
+	for _, c := range []struct {
+		name      string
+		got, want float64
+	}{
+		{"F1 = I1/X", s.F1, i1 / x},
+		{"Randomness", s.Randomness, wantB},
+		{"RunNumber", s.RunNumber, wantR},
+	} {
+		if !scalar.EqualWithinAbsOrRel(c.got, c.want, 1e-6, 1e-6) {
+			t.Errorf("Terminal{2, 0.5}.BatchSequence(%v, %v) %s = %.10g, closed form %.10g", f10, x, c.name, c.got, c.want)
+		}
+	}
+	if !(wantB < 1-5e-3) {
+		t.Fatalf("closed-form B = %v: the case no longer tells the batch average from an instant's B = 1", wantB)
+	}
+}

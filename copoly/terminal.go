@@ -104,55 +104,103 @@ func (m Terminal) Azeotrope() (f1 float64, ok bool) {
 	return math.NaN(), false
 }
 
-// Kinds of copolymerization returned in [Classification.Kind].
+// Kinds of copolymerization returned in [Classification.Kind] (bands of r1·r2, see
+// [Terminal.Classify]).
 const (
-	KindIdeal               = "ideal"
-	KindAlternating         = "alternating"
-	KindStronglyAlternating = "strongly-alternating"
-	KindBlock               = "block"
-	KindHomopolymerMixture  = "homopolymer-mixture"
+	KindIdeal               = "ideal"                // close to ideal (random)
+	KindAlternating         = "alternating"          // between ideal and alternating
+	KindStronglyAlternating = "strongly-alternating" // close to alternating
+	KindBlock               = "block"                // a tendency to blocks
+	KindHomopolymerMixture  = "homopolymer-mixture"  // nearly a mixture of homopolymers
 )
 
 // Classification describes a pair of reactivity ratios in words.
 type Classification struct {
 	// Kind is one of the Kind constants.
 	Kind string
-	// Product is r1·r2, the usual index of alternation: → 0 alternating, 1 ideal (random),
-	// > 1 blocky.
+	// Product is r1·r2, the usual index of the monomer sequence: 1 ideal (random), towards 0
+	// alternating, above 1 blocky.
 	Product float64
 	// Text states the kind with the numbers behind it.
 	Text string
 }
 
-// Thresholds on r1·r2 used by [Terminal.Classify]. The bands are common practice, no source:
-// within 20 % of 1 the chain is practically Bernoullian; below 0.1 alternation dominates.
+// Edges of the bands of r1·r2 used by [Terminal.Classify]. The sources name the limiting cases
+// and the direction (see Classify) but give no numbers between them; these edges are copoly's
+// choice (common practice, no source), stated through the mean run length of a 50:50
+// copolymer, 1 + √(r1·r2) units against 2 in a random chain and 1 in strict alternation.
 const (
-	idealLow           = 0.8
-	idealHigh          = 1.25
-	strongAlternation  = 0.1
+	// strongAlternation: runs of less than 1.32 units at 50:50.
+	strongAlternation = 0.1
+	// idealLow and idealHigh: runs within 10 % of the random chain's 2 units at 50:50
+	// (1.8 to 2.2 units).
+	idealLow  = 0.64
+	idealHigh = 1.44
+	// homopolymerProduct: runs of more than 11 units at 50:50.
 	homopolymerProduct = 100
 )
 
-// Classify describes the pair from r1, r2 and r1·r2: ideal (random), alternating tendency,
-// strong alternation, block tendency or, for a very large product, a mixture of homopolymers;
-// which monomer enters the chain faster; and the azeotrope when there is one.
+// Classify describes the pair from r1, r2 and r1·r2: how the monomers are arranged along the
+// chain, which monomer enters the chain faster, and the azeotrope when there is one.
+//
+// The arrangement follows the product r1·r2, in the bands and words of the sources: r1·r2 = 1
+// is ideal copolymerization, the monomers entering independently of the chain end (a random,
+// Bernoullian chain); r1·r2 between 0 and 1 lies between ideal and alternating copolymerization,
+// the tendency to alternate growing as r1·r2 falls towards 0 (strict alternation at
+// r1 = r2 = 0); r1·r2 above 1 (both ratios above 1 in the usual case) gives a tendency to form
+// blocks, and a very large product nearly a mixture of the two homopolymers. The product has
+// an exact meaning in the terminal model: with the mean run lengths n̄1 = 1 + r1 x and
+// n̄2 = 1 + r2/x of [Sequence] (x = f1/f2),
+//
+//	(n̄1 − 1)(n̄2 − 1) = r1·r2   at every feed,
+//
+// and a random chain of the same composition has (n̄1 − 1)(n̄2 − 1) = 1, so r1·r2 < 1 means
+// runs shorter than random and r1·r2 > 1 longer; at the feed giving a 50:50 copolymer both mean
+// runs are 1 + √(r1·r2). Classify bands the product as
+//
+//	r1·r2 < 0.1            close to alternating     [KindStronglyAlternating]
+//	0.1 ≤ r1·r2 < 0.64     between ideal and alternating, a tendency to alternate [KindAlternating]
+//	0.64 ≤ r1·r2 ≤ 1.44    close to ideal (random); exactly ideal at 1 [KindIdeal]
+//	1.44 < r1·r2 ≤ 100     a tendency to form blocks [KindBlock]
+//	r1·r2 > 100            nearly a mixture of homopolymers [KindHomopolymerMixture]
+//
+// with the edges explained at the constants above (copoly's choice).
+//
+// References:
+//   - IUPAC, Glossary of terms related to kinetics, thermodynamics, and mechanisms of
+//     polymerization, Pure Appl. Chem. 2008, 80, 2163, p. 2176 ("ideal binary
+//     copolymerization": r12 r21 = 1, incorporation independent of the chain end).
+//   - G. Odian, Principles of Polymerization, 4th ed., Wiley 2004, Sec. 6-2b (ideal,
+//     alternating and block copolymerization; most pairs lie between ideal and alternating,
+//     the tendency to alternate increasing as r1 r2 decreases towards 0) (from memory).
+//   - J. L. Koenig, Chemical Microstructure of Polymer Chains, Wiley 1980 (run lengths of the
+//     first-order Markov chain; the identity above is derived from them).
 func (m Terminal) Classify() Classification {
 	p := m.R1 * m.R2
 	c := Classification{Product: p}
 	var kind string
 	switch {
+	case m.R1 == 0 && m.R2 == 0:
+		c.Kind, kind = KindStronglyAlternating, "alternating copolymerization (r1 = r2 = 0): the units alternate strictly"
 	case p < strongAlternation:
-		c.Kind, kind = KindStronglyAlternating, "strong alternating tendency"
+		c.Kind, kind = KindStronglyAlternating, "close to alternating copolymerization: a strong tendency to alternate"
 	case p < idealLow:
-		c.Kind, kind = KindAlternating, "alternating tendency"
+		c.Kind, kind = KindAlternating, "between ideal and alternating copolymerization, with a tendency to alternate"
+	case math.Abs(p-1) <= 1e-12: // r1 = 1/r2 up to rounding
+		c.Kind, kind = KindIdeal, "ideal copolymerization: the monomers enter independently of the chain end, as in a random (Bernoullian) chain"
+	case p < 1:
+		c.Kind, kind = KindIdeal, "close to ideal (random) copolymerization, leaning slightly towards alternation"
 	case p <= idealHigh:
-		c.Kind, kind = KindIdeal, "close to ideal (random, Bernoullian) copolymerization"
+		c.Kind, kind = KindIdeal, "close to ideal (random) copolymerization, leaning slightly towards blocks"
 	case p <= homopolymerProduct:
-		c.Kind, kind = KindBlock, "block tendency"
+		c.Kind, kind = KindBlock, "a tendency to form blocks: runs longer than in a random chain"
 	default:
-		c.Kind, kind = KindHomopolymerMixture, "so blocky that the product is nearly a mixture of homopolymers"
+		c.Kind, kind = KindHomopolymerMixture, "so blocky that the product is nearly a mixture of the two homopolymers"
 	}
 	text := fmt.Sprintf("r1·r2 = %.3g: %s.", p, kind)
+	if p > 0 { // with a ratio of 0, a 50:50 copolymer is only approached as a limit
+		text += fmt.Sprintf(" At the feed giving a 50:50 copolymer the mean run of each monomer is %.3g units, against 2 in a random chain and 1 in strict alternation.", 1+math.Sqrt(p))
+	}
 	switch {
 	case m.R1 > 1 && m.R2 < 1:
 		text += fmt.Sprintf(" M1 enters the chain faster than M2 at every feed (r1 = %.3g > 1 > r2 = %.3g), so the copolymer is richer in M1 than the feed and the feed drifts towards M2 in a batch.", m.R1, m.R2)

@@ -2,7 +2,9 @@ package copoly
 
 import (
 	"errors"
+	"fmt"
 	"math"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -176,7 +178,8 @@ func TestFeedFor(t *testing.T) {
 }
 
 func TestClassify(t *testing.T) {
-	// Bands on r1·r2 are common practice, no source (see the constants in terminal.go).
+	// Bands on r1·r2 as documented on Terminal.Classify (their edges are copoly's choice;
+	// TestClassifyBands checks each edge).
 	for _, tc := range []struct {
 		m    Terminal
 		kind string
@@ -186,13 +189,60 @@ func TestClassify(t *testing.T) {
 		{Terminal{0.52, 0.46}, KindAlternating},         // St/MMA, product 0.24
 		{Terminal{1, 1}, KindIdeal},
 		{Terminal{2, 0.5}, KindIdeal},
-		{Terminal{0.58, 1.35}, KindAlternating}, // St/Bd (Polymer Handbook table), product 0.783 < 0.8
+		{Terminal{0.58, 1.35}, KindIdeal}, // St/Bd (Polymer Handbook table), product 0.783: close to ideal (random)
 		{Terminal{2, 1.5}, KindBlock},
 		{Terminal{200, 2}, KindHomopolymerMixture},
 	} {
 		c := tc.m.Classify()
 		if c.Kind != tc.kind || c.Product != tc.m.R1*tc.m.R2 || c.Text == "" {
 			t.Errorf("%v.Classify() = %+v, want kind %s", tc.m, c, tc.kind)
+		}
+	}
+}
+
+// TestClassifyBands checks each edge of the bands of r1·r2 on both sides, and the words of
+// each band: those of the sources cited on Terminal.Classify ("ideal", "between ideal and
+// alternating", "alternating", "blocks"). The mean run at 50:50 is checked against the
+// identity (n̄1 − 1)(n̄2 − 1) = r1·r2 of the terminal model, with n̄1 = 1 + r1 x and
+// n̄2 = 1 + r2/x (derived by hand in Classify's comment): both runs are 1 + √(r1·r2).
+func TestClassifyBands(t *testing.T) {
+	for _, tc := range []struct {
+		m     Terminal
+		kind  string
+		words string
+	}{
+		{Terminal{0, 0}, KindStronglyAlternating, "alternate strictly"},
+		{Terminal{0, 3}, KindStronglyAlternating, "close to alternating"},
+		{Terminal{0.0999, 1}, KindStronglyAlternating, "strong tendency to alternate"},
+		{Terminal{0.1, 1}, KindAlternating, "between ideal and alternating"}, // edge 0.1
+		{Terminal{0.52, 0.46}, KindAlternating, "tendency to alternate"},     // St/MMA, Polymer Handbook table, 0.239
+		{Terminal{0.6399, 1}, KindAlternating, "between ideal and alternating"},
+		{Terminal{0.64, 1}, KindIdeal, "close to ideal (random)"}, // edge 0.64
+		{Terminal{0.7, 1}, KindIdeal, "leaning slightly towards alternation"},
+		{Terminal{2, 0.5}, KindIdeal, "ideal copolymerization: the monomers enter independently"}, // r1 r2 = 1 (IUPAC 2008)
+		{Terminal{0.3, 1 / 0.3}, KindIdeal, "ideal copolymerization: the monomers enter independently"},
+		{Terminal{1.2, 1}, KindIdeal, "leaning slightly towards blocks"},
+		{Terminal{1.44, 1}, KindIdeal, "close to ideal (random)"}, // edge 1.44
+		{Terminal{1.4401, 1}, KindBlock, "tendency to form blocks"},
+		{Terminal{2, 1.5}, KindBlock, "tendency to form blocks"},
+		{Terminal{100, 1}, KindBlock, "tendency to form blocks"}, // edge 100
+		{Terminal{100.01, 1}, KindHomopolymerMixture, "mixture of the two homopolymers"},
+	} {
+		c := tc.m.Classify()
+		if c.Kind != tc.kind || c.Product != tc.m.R1*tc.m.R2 || !strings.Contains(c.Text, tc.words) {
+			t.Errorf("%v.Classify() = %+v, want kind %s with %q", tc.m, c, tc.kind, tc.words)
+		}
+		if tc.m.R1 > 0 && tc.m.R2 > 0 {
+			// The feed x = √(r2/r1) gives equal mean runs, so a 50:50 copolymer.
+			s, _ := tc.m.Sequence(1 / (1 + math.Sqrt(tc.m.R1/tc.m.R2)))
+			run := fmt.Sprintf("mean run of each monomer is %.3g units", s.MeanLength1)
+			if !scalar.EqualWithinAbs(s.F1, 0.5, 1e-12) || !scalar.EqualWithinRel(s.MeanLength1, 1+math.Sqrt(c.Product), 1e-12) || !strings.Contains(c.Text, run) {
+				t.Errorf("%v: F1 = %v, mean runs %v, %v, want 1 + √(r1 r2) = %v; text %q lacks %q", tc.m, s.F1, s.MeanLength1, s.MeanLength2, 1+math.Sqrt(c.Product), c.Text, run)
+			}
+		}
+		// The old wording called any product below 0.8 an "alternating tendency".
+		if c.Kind == KindIdeal && strings.Contains(c.Text, "tendency to alternate") {
+			t.Errorf("%v.Classify().Text = %q: a pair close to ideal described as alternating", tc.m, c.Text)
 		}
 	}
 }

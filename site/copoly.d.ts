@@ -287,6 +287,11 @@ export interface PlanResult {
   notes: string[];
 }
 
+// The published example projects of exampleProject: 3-methylstyrene/methacrylic acid at 70 °C in
+// acetone or in isopropanol (Georgiev, Dakova, Simpson, J. Macromol. Sci., Pure Appl. Chem. 1995,
+// A32, 497: Table 1 runs, Table 2 Kelen–Tüdős ratios).
+export type ExampleName = "georgiev1995-acetone" | "georgiev1995-isopropanol";
+
 export interface Project {
   format: "copoly-project";     // our own schema name
   version: 1;
@@ -301,6 +306,7 @@ export interface Project {
   tolerance: number;            // composition tolerance for the conversion limit
   notes: string;
   invented?: boolean;           // true for the built-in demo scenario
+  citation?: string;            // full citation of the published data the project holds (published examples)
   savedAt?: string;             // RFC 3339, set on save
   bench?: BenchTable;           // the bench-data grid, as typed
   level?: number;               // confidence level of the joint region (default 0.95)
@@ -395,6 +401,7 @@ export interface Copoly {
     F1?: number; molarMass1?: number; molarMass2?: number }): AveragesResult | CopolyError;
   library(a?: {}): { monomers: Monomer[]; pairs: RatioPair[]; sources: LibrarySource[] };  // monomers are MonomerData
   demoProject(a?: {}): { project: Project };
+  exampleProject(a: { name: ExampleName }): { project: Project } | CopolyError;  // a published example: measured runs with their citation, never invented
   checkProject(a: { project: Project }): { project: Project } | CopolyError;
   exportProject(a: { project: Project }): { json: string; filename: string } | CopolyError;
   importProject(a: { json: string }): { project: Project } | CopolyError;

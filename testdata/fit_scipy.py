@@ -51,6 +51,20 @@ sim-*: SIMULATED for this cross-check, not measurements. For true ratios (r1, r2
     (styrene / methyl methacrylate-like) and 1.88 / 0.43 (r1 > 1 > r2).
 sim-*-weighted: the same simulated runs, each with a standard uncertainty sF = 0.01 of F1
     (the noise's own standard deviation).
+georgiev1995-acetone, georgiev1995-isopropanol: 3-methylstyrene (1) / methacrylic acid (2) at
+    70 degC in acetone and in isopropanol, Table 1 of G. S. Georgiev, I. G. Dakova,
+    S. J. Simpson, J. Macromol. Sci., Pure Appl. Chem. 1995, A32(3), 497, read from
+    testdata/georgiev1995_table1.csv. The paper gives the conversion by weight, w (percent); the
+    integrated model needs the overall molar conversion, from the mass balance on the polymer
+    with the measured copolymer composition:
+
+        X = w (f10 M1 + (1 - f10) M2) / (F1 M1 + (1 - F1) M2)
+
+    with M1 = C9H10 and M2 = C4H6O2 from the IUPAC conventional atomic weights C 12.011,
+    H 1.008, O 15.999. These sets also record, under "published", the paper's Kelen-Tudos pair
+    (Table 2), the objective S at that pair, and the confidence level of the joint region whose
+    boundary passes through it, level = F_cdf((S/S_min - 1)(n - 2)/2; 2, n - 2)
+    (scipy.stats.f.cdf): the published pair lies inside the 95 % region when level < 0.95.
 
 Estimates
 ---------
@@ -108,6 +122,7 @@ catches any real change.
 """
 
 import argparse
+import csv
 import json
 import math
 import os
@@ -141,6 +156,14 @@ STARTS = [(0.1, 0.1), (0.5, 0.5), (2.0, 0.3), (0.3, 2.0), (3.0, 3.0), (0.05, 5.0
 # given in the same row of that table.
 AN_AA = [(0.95, 0.94), (0.90, 0.88), (0.85, 0.82), (0.80, 0.76), (0.75, 0.62), (0.70, 0.57),
          (0.60, 0.40), (0.40, 0.19), (0.30, 0.17)]
+
+# 3-methylstyrene (1) / methacrylic acid (2): Georgiev, Dakova, Simpson 1995, Table 1 (runs)
+# and Table 2 (Kelen-Tudos estimates), in testdata/georgiev1995_table1.csv.
+GEORGIEV_CSV = os.path.join(HERE, "georgiev1995_table1.csv")
+GEORGIEV_PUBLISHED = {"acetone": (0.42, 0.51), "isopropanol": (0.33, 0.18)}
+ATOMIC_WEIGHT = {"C": 12.011, "H": 1.008, "O": 15.999}  # IUPAC conventional atomic weights
+M_3MS = 9 * ATOMIC_WEIGHT["C"] + 10 * ATOMIC_WEIGHT["H"]                            # C9H10
+M_MAA = 4 * ATOMIC_WEIGHT["C"] + 6 * ATOMIC_WEIGHT["H"] + 2 * ATOMIC_WEIGHT["O"]    # C4H6O2
 
 SIM_FEEDS = [0.1, 0.3, 0.5, 0.7, 0.9]
 SIM_CONVERSIONS = [0.05, 0.15, 0.25, 0.35]
@@ -225,7 +248,7 @@ def cumulative(r1, r2, f10, x):
 # Data
 
 def datasets():
-    """The five data sets: name, source text, weighted flag, runs as [f10, X, F1, sF]."""
+    """The seven data sets: name, source text, weighted flag, runs as [f10, X, F1, sF]."""
     sets = [{
         "name": "an-aa-bulk",
         "source": "acrylonitrile (1) / acrylic acid (2), bulk, low conversion; Brar & Dutta, "
@@ -250,7 +273,38 @@ def datasets():
         sets.append({"name": name + "-weighted", "source": src + "; each run given sF = 0.01",
                      "weighted": True, "runs": [[a, b, c, SIM_SD] for a, b, c, _ in runs],
                      "true_r1": r1, "true_r2": r2})
+    for solvent in ("acetone", "isopropanol"):
+        runs = []
+        for f10, F1, w in georgiev_runs(solvent):
+            x = w * (f10 * M_3MS + (1 - f10) * M_MAA) / (F1 * M_3MS + (1 - F1) * M_MAA)
+            runs.append([f10, x, F1, 0.0])
+        r1, r2 = GEORGIEV_PUBLISHED[solvent]
+        sets.append({
+            "name": "georgiev1995-" + solvent,
+            "source": "3-methylstyrene (1) / methacrylic acid (2), 70 degC, in %s: G. S. Georgiev, "
+                      "I. G. Dakova, S. J. Simpson, J. Macromol. Sci., Pure Appl. Chem. 1995, A32(3), "
+                      "497, Table 1 (testdata/georgiev1995_table1.csv); X is the molar conversion "
+                      "from the printed weight conversion and F1 (M1 = C9H10, M2 = C4H6O2)" % solvent,
+            "weighted": False, "runs": runs,
+            "published": {"r1": r1, "r2": r2, "table": "Table 2, Kelen-Tudos"},
+        })
     return sets
+
+
+def georgiev_runs(solvent):
+    """(f10, F1, w) of one solvent from testdata/georgiev1995_table1.csv, w as a fraction."""
+    out = []
+    with open(GEORGIEV_CSV, newline="") as fh:
+        rows = csv.reader(line for line in fh if not line.startswith("#"))
+        header = next(rows)
+        if header != ["solvent", "f1", "F1", "conversion_wt_pct"]:
+            sys.exit("%s: unexpected header %r" % (GEORGIEV_CSV, header))
+        for row in rows:
+            if row[0] == solvent:
+                out.append((float(row[1]), float(row[2]), float(row[3]) / 100))
+    if len(out) != 7:
+        sys.exit("%s: %d runs in %s, want 7" % (GEORGIEV_CSV, len(out), solvent))
+    return out
 
 
 # ---------------------------------------------------------------------------------------------
@@ -423,6 +477,15 @@ def make():
         nl, checks = nonlinear(Problem(ds["runs"], ds["weighted"]))
         fr, kt = fineman_ross_kelen_tudos(ds["runs"])
         dt = time.perf_counter() - t0
+        if "published" in ds:
+            # The objective at the published pair, and the level of the joint region whose
+            # boundary passes through it (inverting S_crit = S_min (1 + 2/(n - 2) F(2, n - 2))).
+            p = Problem(ds["runs"], ds["weighted"])
+            pub = dict(ds["published"])
+            pub["s"] = p.S(pub["r1"], pub["r2"])
+            n = len(ds["runs"])
+            pub["level"] = float(fdist.cdf((pub["s"] / nl["s_min"] - 1) * (n - 2) / 2, 2, n - 2))
+            ds = dict(ds, published=pub)
         ds = dict(ds, nonlinear=nl, fineman_ross=fr, kelen_tudos=kt)
         sets.append(ds)
         log.append("%-26s r1 = %.10g r2 = %.10g S = %.10g  (%d starts at the minimum; SLSQP box "

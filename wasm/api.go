@@ -52,6 +52,7 @@ func newAPI(st *storage) js.Value {
 		{"averages", argRequired, averages},
 		{"library", argOptional, library},
 		{"demoProject", argOptional, demoProject},
+		{"exampleProject", argRequired, exampleProject},
 		{"checkProject", argRequired, checkProject},
 		{"exportProject", argRequired, exportProject},
 		{"importProject", argRequired, importProject},
@@ -515,6 +516,19 @@ func library(js.Value) (any, error) {
 // demoProject: the invented demo scenario.
 func demoProject(js.Value) (any, error) {
 	return projectResult(project.Demo()), nil
+}
+
+// exampleProject: a published example project by name (project.Example).
+func exampleProject(arg js.Value) (any, error) {
+	var in exampleIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	p, err := project.Example(in.Name)
+	if err != nil {
+		return nil, err
+	}
+	return projectResult(p), nil
 }
 
 // checkProject: the project as validated, or the first invalid field.

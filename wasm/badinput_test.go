@@ -208,6 +208,7 @@ func projectFields(prefix string) []sweepField {
 		f("tolerance", kNumber, false, badValue{expr: `0`, text: "= 0"}, badValue{expr: `0.6`, text: "0.6"}, badValue{expr: `-0.1`, text: "-0.1"}),
 		f("notes", kText, true, badValue{expr: `"x".repeat(100001)`, text: "100001"}),
 		f("invented", kBool, true),
+		f("citation", kText, true, badValue{expr: `"x".repeat(1001)`, text: "1001"}),
 		f("savedAt", kText, true, badValue{expr: `"yesterday"`, text: `"yesterday"`}, badValue{expr: `"2026-01-02T03:04:05." + "1".repeat(50) + "Z"`, text: "71 characters"}),
 		f("bench", kObject, true),
 		f("bench.rows", kObjects, false, badValue{expr: `Array.from({length: 1001}, () => ({cells: {}}))`, text: "1001"}),
@@ -279,7 +280,7 @@ func otherModels(rest string) []sweepBase {
 	}
 }
 
-// sweepMethods are the 21 methods of site/copoly.d.ts with valid arguments and their fields.
+// sweepMethods are the 26 methods of site/copoly.d.ts with valid arguments and their fields.
 // The fit and triad arguments are made by fitRuns and triadSet (fit_test.go,
 // discriminate_test.go); "project" is the demo project with every optional part filled in.
 func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
@@ -360,6 +361,9 @@ func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 		}},
 		{name: "library", optional: true},
 		{name: "demoProject", optional: true},
+		{name: "exampleProject", first: "name", bases: []sweepBase{{arg: `{name: "georgiev1995-isopropanol"}`, fields: []sweepField{
+			{path: "name", kind: kText, extra: []badValue{{expr: `"georgiev1995"`, text: `"georgiev1995"`}}},
+		}}}},
 		{name: "checkProject", first: "project", bases: []sweepBase{{arg: projectArg, fields: projectFields("project.")}}},
 		{name: "exportProject", first: "project", bases: []sweepBase{{arg: projectArg, fields: projectFields("project.")}}},
 		{name: "importProject", first: "json", bases: []sweepBase{{arg: `{json: JSON.stringify(project)}`, fields: []sweepField{
@@ -640,7 +644,7 @@ func TestBadInputSweep(t *testing.T) {
 			got = append(got, k)
 		}
 	}
-	if len(names) != 25 || !reflect.DeepEqual(got, names) {
+	if len(names) != 26 || !reflect.DeepEqual(got, names) {
 		t.Fatalf("the sweep covers %d methods %v; the copoly object has %v", len(names), names, got)
 	}
 
@@ -841,7 +845,7 @@ func (s *sweep) sweepField(t *testing.T, m sweepMethod, base js.Value, f sweepFi
 func TestDecodeLimits(t *testing.T) {
 	types := map[string]reflect.Type{}
 	for _, v := range []any{modelIn{}, compositionIn{}, feedIn{}, driftIn{}, sequenceIn{}, chainsIn{}, discriminateIn{},
-		averagesIn{}, importIn{}, benchRunsIn{}, pasteBenchIn{}, fitIn{}, nextRunsIn{}, planIn{}, starvedFeedIn{}, qeIn{}, projectIn{}} {
+		averagesIn{}, importIn{}, benchRunsIn{}, pasteBenchIn{}, fitIn{}, nextRunsIn{}, planIn{}, starvedFeedIn{}, qeIn{}, projectIn{}, exampleIn{}} {
 		types[reflect.TypeOf(v).Name()] = reflect.TypeOf(v)
 	}
 	decoded := regexp.MustCompile(`var in (\w+)\n\s*if err := decode\(`)

@@ -1033,6 +1033,7 @@ type projectDTO struct {
 	Tolerance   float64           `js:"tolerance"`
 	Notes       string            `js:"notes" copoly:"optional" limit:"notes"`
 	Invented    bool              `js:"invented" copoly:"optional"`
+	Citation    string            `js:"citation" copoly:"optional" limit:"source"`
 	SavedAt     string            `js:"savedAt" copoly:"optional" limit:"stamp"`
 	Bench       *benchDTO         `js:"bench"`
 	Level       float64           `js:"level" copoly:"optional"`
@@ -1283,6 +1284,11 @@ func benchValue(b project.Bench) js.Value {
 }
 
 // projectIn is the argument of checkProject, exportProject and saveProject.
+// exampleIn names a published example project (project.ExampleNames).
+type exampleIn struct {
+	Name string `js:"name" limit:"name"`
+}
+
 type projectIn struct {
 	Project projectDTO `js:"project"`
 }
@@ -1309,6 +1315,7 @@ func (d projectDTO) project() (project.Project, error) {
 		Tolerance:    d.Tolerance,
 		Notes:        d.Notes,
 		Invented:     d.Invented,
+		Citation:     d.Citation,
 		SavedAt:      d.SavedAt,
 		Level:        d.Level,
 		Triads:       triadRows(d.Triads),
@@ -1342,7 +1349,7 @@ func (d projectDTO) project() (project.Project, error) {
 }
 
 // projectValue returns p as a JS object; like the file format it leaves out invented when false,
-// savedAt when empty, bench, model and plan when nil, level when 0, and jcr, triads, sizeBins
+// citation and savedAt when empty, bench, model and plan when nil, level when 0, and jcr, triads, sizeBins
 // and userMonomers when empty.
 func projectValue(p project.Project) js.Value {
 	var jcr [][]float64
@@ -1363,12 +1370,16 @@ func projectValue(p project.Project) js.Value {
 		Tolerance:   p.Tolerance,
 		Notes:       p.Notes,
 		Invented:    p.Invented,
+		Citation:    p.Citation,
 		SavedAt:     p.SavedAt,
 		Level:       p.Level,
 		JCR:         jcr,
 	}).JSValue()
 	if !p.Invented {
 		v.Delete("invented")
+	}
+	if p.Citation == "" {
+		v.Delete("citation")
 	}
 	if p.SavedAt == "" {
 		v.Delete("savedAt")

@@ -23,6 +23,7 @@
 //	copoly.averages({bins? | slices?, F1?, molarMass1?, molarMass2?})
 //	copoly.library()
 //	copoly.demoProject()
+//	copoly.exampleProject({name})
 //	copoly.checkProject({project})
 //	copoly.exportProject({project})  → {json, filename}
 //	copoly.importProject({json})

@@ -21,6 +21,7 @@
 //	  "f10": 0.5, "conversion": 0.95, "tolerance": 0.02,
 //	  "notes": "…",
 //	  "invented": true,
+//	  "citation": "…",
 //	  "savedAt": "2026-01-02T03:04:05Z",
 //	  "bench": {
 //	    "feedKind": "fraction", "conversionKind": "molar", "compositionKind": "fraction",
@@ -39,9 +40,11 @@
 //
 // "format" must be "copoly-project". "version" is [Version]; a file with a larger version was
 // made by a newer copoly and is refused with an error that says so, rather than read wrongly.
-// "invented", "savedAt", "bench", "level", "jcr", "model", "triads", "sizeBins", "plan" and
-// "userMonomers" are optional and left out when empty, so a file without them (written before
-// they existed) still reads. "bench" is the bench-data grid as typed ([Bench]); "level" the
+// "invented", "citation", "savedAt", "bench", "level", "jcr", "model", "triads", "sizeBins",
+// "plan" and "userMonomers" are optional and left out when empty, so a file without them
+// (written before they existed) still reads. "citation" is the full citation of the published
+// data a project holds (the published examples, [Example]); "bench" is the bench-data grid as
+// typed ([Bench]); "level" the
 // confidence level of the joint region of a fit (0 or absent means 0.95); "jcr" the joint
 // confidence region of the ratios in use when they came from a fit, as (r1, r2) points; "model"
 // the copolymerization model of the sequences panel ([Model]), each ratio left out when not
@@ -84,7 +87,7 @@ const Version = 1
 // to read back quickly; they are a design choice of copoly.
 const (
 	MaxNameLength   = 200     // characters in the project name and in each monomer name
-	MaxSourceLength = 1000    // characters in RatioSource
+	MaxSourceLength = 1000    // characters in RatioSource and in Citation
 	MaxNotesBytes   = 100_000 // bytes (UTF-8) in Notes
 	// MaxSavedAtLength bounds SavedAt: RFC 3339 with nanoseconds and an offset takes 35
 	// characters, but time.Parse takes any number of digits of a second.
@@ -138,6 +141,11 @@ type Project struct {
 	Notes     string  `json:"notes"`
 	// Invented is true for the built-in demo scenario, whose lab and runs do not exist.
 	Invented bool `json:"invented,omitempty"`
+	// Citation is the full bibliographic citation of the published data the project holds (a
+	// published example, see Example), so that the page, the exported file and the printed
+	// report say where they come from; "" for other projects. At most MaxSourceLength
+	// characters.
+	Citation string `json:"citation,omitempty"`
 	// SavedAt is the time of the last save in RFC 3339 form, set by Store.Save; "" if never saved.
 	SavedAt string `json:"savedAt,omitempty"`
 	// Bench is the bench-data grid as typed, or nil when there is none.
@@ -197,6 +205,9 @@ func (p Project) Validate() error {
 		return err
 	}
 	if err := checkText("project.ratioSource", p.RatioSource, MaxSourceLength); err != nil {
+		return err
+	}
+	if err := checkText("project.citation", p.Citation, MaxSourceLength); err != nil {
 		return err
 	}
 	if err := copoly.CheckFraction("project.f10", p.F10); err != nil {
