@@ -85,7 +85,31 @@ test-firefox: site
 	fi && \
 	COPOLY_HTML=$(abspath $(DIST)/copoly.html) COPOLY_FIREFOX=$(FIREFOX) node --test firefox.test.mjs
 
-test: vet test-native test-noasm test-wasm test-fixtures test-browser test-firefox
+test: setup vet test-native test-noasm test-wasm test-fixtures test-browser test-firefox
+
+## setup: the system packages the tests need (Chromium, Firefox ESR, scipy). Run as root with
+## apt-get available (CI, a fresh container), it installs what is missing; otherwise it prints
+## the one command that would, and the tests that need a missing package skip loudly (or fail,
+## under CI=true or COPOLY_REQUIRE_BROWSER=1 / COPOLY_REQUIRE_FIREFOX=1).
+SETUP_PACKAGES := chromium firefox-esr python3-scipy ca-certificates
+.PHONY: setup
+setup:
+	@need=""; \
+	[ -x /usr/bin/chromium ] || need="$$need chromium"; \
+	[ -x /usr/bin/firefox-esr ] || need="$$need firefox-esr"; \
+	/usr/bin/python3 -c 'import scipy' 2>/dev/null || need="$$need python3-scipy"; \
+	[ -f /etc/ssl/certs/ca-certificates.crt ] || need="$$need ca-certificates"; \
+	if [ -z "$$need" ]; then echo "setup: chromium, firefox-esr and python3-scipy are present"; exit 0; fi; \
+	if [ "$$(id -u)" = 0 ] && command -v apt-get >/dev/null 2>&1; then \
+		echo "setup: installing$$need"; \
+		export DEBIAN_FRONTEND=noninteractive; \
+		apt-get update -qq && apt-get install -y -qq --no-install-recommends $$need || exit 1; \
+	else \
+		echo "****************************************************************************"; \
+		echo "*** setup: missing$$need; install with: sudo apt-get install -y$$need"; \
+		echo "*** (the tests that need them are skipped with a notice until then)"; \
+		echo "****************************************************************************"; \
+	fi
 
 ## fuzz: run every fuzz target of the parsers for FUZZTIME each (default 30s). Not part of make
 ## test, whose go test runs the seed corpora (f.Add and testdata/fuzz/) as ordinary tests.
