@@ -37,3 +37,36 @@ func ExampleModel_Composition() {
 	// F = [0.4430 0.2890 0.2679]
 	// f = 0.9: the mole fractions must sum to 1 (within 1e-09); they sum to 0.9
 }
+
+// A batch of methyl methacrylate (M1), vinyl acetate (M2) and acrylonitrile (M3) (pairs from
+// copoly.Pairs: MMA/VAc 26/0.03, MMA/AN 1.322/0.138, AN/VAc 4.05/0.04): vinyl acetate hardly
+// enters the chain until the other two are used up. The same numbers are in
+// testdata/multi_scipy.json (case mma-vac-an), computed by scipy.
+func ExampleModel_Drift() {
+	m, err := multi.New([][]float64{
+		{1, 26, 1.322},
+		{0.03, 1, 0.04},
+		{0.138, 4.05, 1},
+	}, nil)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	d, err := m.Drift([]float64{0.2, 0.5, 0.3}, []float64{0.3, 0.6, 0.9})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for k, x := range d.Conversion {
+		fmt.Printf("X = %.1f: f = %.4f, F = %.4f, F̄ = %.4f\n", x, d.Feed[k], d.Inst[k], d.Cum[k])
+	}
+	for _, e := range d.Exhausted {
+		fmt.Printf("M%d used up at X = %.4f\n", e.Monomer+1, e.Conversion)
+	}
+	// Output:
+	// X = 0.3: f = [0.0710 0.6800 0.2490], F = [0.3938 0.1313 0.4749], F̄ = [0.5010 0.0800 0.4190]
+	// X = 0.6: f = [0.0001 0.9500 0.0498], F = [0.0028 0.5905 0.4067], F̄ = [0.3332 0.2000 0.4668]
+	// X = 0.9: f = [0.0000 1.0000 0.0000], F = [0.0000 1.0000 0.0000], F̄ = [0.2222 0.4444 0.3333]
+	// M1 used up at X = 0.6756
+	// M3 used up at X = 0.7688
+}
