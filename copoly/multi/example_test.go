@@ -1,8 +1,10 @@
 package multi_test
 
 import (
+	"errors"
 	"fmt"
 
+	"copoly/copoly"
 	"copoly/copoly/multi"
 )
 
@@ -69,4 +71,26 @@ func ExampleModel_Drift() {
 	// X = 0.9: f = [0.0000 1.0000 0.0000], F = [0.0000 1.0000 0.0000], F̄ = [0.2222 0.4444 0.3333]
 	// M1 used up at X = 0.6756
 	// M3 used up at X = 0.7688
+}
+
+// The feed that makes a terpolymer of 40 % styrene, 30 % methyl methacrylate and 30 %
+// acrylonitrile (mole fractions) at low conversion, and a target no feed can make: a monomer
+// that does not add to its own radical (M3 here, every cross ratio of its row 0, with cross
+// ratios k31 : k32 = 1 : 2) can make at most half of the chain.
+func ExampleModel_FeedFor() {
+	m, _ := multi.New(stanMatrix, nil)
+	f, err := m.FeedFor([]float64{0.4, 0.3, 0.3})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	F, _ := m.Composition(nil, f)
+	fmt.Printf("feed f = %.4f gives F = %.4f\n", f, F)
+
+	alt, _ := multi.New([][]float64{{1, 0.5, 0.3}, {2, 1, 0.4}, {0, 0, 1}}, [][]float64{nil, nil, {1, 2, 0}})
+	_, err = alt.FeedFor([]float64{0.2, 0.2, 0.6})
+	fmt.Println(copoly.Field(err), errors.Is(err, copoly.ErrUnreachable))
+	// Output:
+	// feed f = [0.2565 0.3392 0.4043] gives F = [0.4000 0.3000 0.3000]
+	// targetF[2] true
 }

@@ -199,7 +199,7 @@ func (m *Model) setCross(cross [][]float64) error {
 			continue
 		}
 		if len(row) == 0 {
-			return &copoly.InputError{Field: fmt.Sprintf("r[%d]", i), Value: 0, Reason: m.crossNeeded(i), Err: copoly.ErrOutOfRange}
+			return &copoly.FieldError{Field: fmt.Sprintf("r[%d]", i), Reason: m.crossNeeded(i), Err: copoly.ErrOutOfRange}
 		}
 		if len(row) != n {
 			return &copoly.InputError{Field: fmt.Sprintf("cross[%d]", i), Value: float64(len(row)), Reason: fmt.Sprintf("give %d values, one per monomer (0 where r[%d][j] is not zero)", n, i), Err: copoly.ErrOutOfRange}
@@ -249,8 +249,8 @@ func (m *Model) crossNeeded(i int) string {
 	if m.noHomo[i] {
 		what = fmt.Sprintf("every cross ratio of row r[%d] is 0: %s does not add to its own radical (like maleic anhydride)", i, monomerName(i))
 	}
-	return fmt.Sprintf("%s, and with %d monomers its radical's choice among %s needs the ratios of its cross-propagation constants %s, which the binary pairs do not give: give them as cross[%d] (k%d·/k%d· on any scale, 0 for the other cells), or make the ratios small but positive",
-		what, m.n, setNames(z), strings.Join(ks, " : "), i, i+1, i+1)
+	return fmt.Sprintf("%s, and with %d monomers its radical's choice among %s needs the ratios of its cross-propagation constants %s, which the binary pairs do not give: give cross[%d] (values proportional to %s on any common scale, 0 in the other cells), or make the ratios small but positive",
+		what, m.n, setNames(z), strings.Join(ks, " : "), i, strings.Join(ks, ", "))
 }
 
 // targets returns the monomers a radical i can add when the monomers of s are present.
@@ -339,8 +339,8 @@ func (m *Model) setClasses() error {
 			i := bits.TrailingZeros8(cs[1])
 			j := bits.TrailingZeros8(m.zero[i] & cs[1])
 			return &copoly.InputError{Field: cellName(i, j), Value: 0,
-				Reason: fmt.Sprintf("with %s present together, the zero ratios (%s) make %s add only within their own group, so the ratios do not determine how much of each group enters the copolymer; give these ratios small positive values",
-					setNames(s), strings.Join(cells, ", "), strings.Join(groups, "; ")),
+				Reason: fmt.Sprintf("with %s present together, the zero ratios (%s) split the monomers into groups that add only within themselves (%s), so the ratios do not determine how much of each group enters the copolymer; give these ratios small positive values",
+					setNames(s), strings.Join(cells, ", "), strings.Join(groups, " | ")),
 				Err: copoly.ErrOutOfRange}
 		}
 	}
