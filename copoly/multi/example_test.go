@@ -94,3 +94,32 @@ func ExampleModel_FeedFor() {
 	// feed f = [0.2565 0.3392 0.4043] gives F = [0.4000 0.3000 0.3000]
 	// targetF[2] true
 }
+
+// Chains of the styrene / methyl methacrylate / acrylonitrile terpolymer grown along a batch to
+// 95 % conversion, with most-probable lengths of number-average 20 units, counting the
+// acrylonitrile units (M3) per chain. The simulated fractions of chains with none and with one
+// such unit converge to the model's (the Expected fields) as the count grows.
+func ExampleModel_SimulateChains() {
+	m, _ := multi.New(stanMatrix, nil)
+	st, err := m.SimulateChains(multi.ChainOptions{
+		F0: []float64{0.45, 0.45, 0.10}, Conversion: 0.95, DPn: 20,
+		Count: 20000, Seed: 1, Functional: []int{2},
+	})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("%d chains, %d units\n", st.Count, st.Units)
+	fmt.Printf("without M3: %.3f of the chains (model %.3f), %.3f by weight (model %.3f)\n",
+		st.NoneNumber, st.ExpectedNoneNumber, st.NoneWeight, st.ExpectedNoneWeight)
+	fmt.Printf("with one M3: %.3f (model %.3f)\n", st.OneNumber, st.ExpectedOneNumber)
+
+	// Limits are checked before any work.
+	_, err = m.SimulateChains(multi.ChainOptions{F0: []float64{0.45, 0.45, 0.10}, DPn: 1000, Count: 50000})
+	fmt.Println(err)
+	// Output:
+	// 20000 chains, 399438 units
+	// without M3: 0.298 of the chains (model 0.298), 0.100 by weight (model 0.099)
+	// with one M3: 0.253 (model 0.250)
+	// count = 50000: count × dpn must stay below 20000000 units
+}
