@@ -3,6 +3,7 @@ package resin
 import (
 	"errors"
 	"math"
+	"math/rand/v2"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -224,5 +225,59 @@ func TestTgDistribution(t *testing.T) {
 	stops, _ := multi.New([][]float64{{1, 2}, {0, 1}}, nil)
 	if _, err := TgDistribution(stops, []float64{0.5, 0.5}, 0.9, []float64{100, 98}, []float64{378, 400}, 10); copoly.Field(err) != "conversion" || !errors.Is(err, copoly.ErrOutOfRange) {
 		t.Errorf("past the stop: %v, want an error naming conversion", err)
+	}
+}
+
+// TestResinValidationProperty feeds 5000 seeded random inputs, edges and non-numbers included,
+// to every function: none may panic, every error names a field, every result is finite and
+// positive.
+func TestResinValidationProperty(t *testing.T) {
+	special := []float64{0, 1, 0.5, -1, math.NaN(), math.Inf(1), math.Inf(-1), 1e-300, 1e6, 1e-9, MaxTg, MaxTg + 1, 300}
+	rng := rand.New(rand.NewPCG(41, 42))
+	vec := func(n int, norm bool) []float64 {
+		v := make([]float64, n)
+		var s float64
+		for i := range v {
+			if rng.IntN(4) == 0 {
+				v[i] = special[rng.IntN(len(special))]
+			} else {
+				v[i] = 500 * rng.Float64()
+			}
+			s += v[i]
+		}
+		if norm && rng.IntN(3) != 0 {
+			for i := range v {
+				v[i] /= s
+			}
+		}
+		return v
+	}
+	for range 5000 {
+		n := rng.IntN(5)
+		w, tg, g, mm := vec(n, true), vec(n+rng.IntN(2), false), vec(n, false), vec(n, false)
+		type result struct {
+			v   float64
+			err error
+		}
+		var results []result
+		v, err := Fox(w, tg)
+		results = append(results, result{v, err})
+		v, err = HydroxylValue(w, g, mm)
+		results = append(results, result{v, err})
+		v, err = EquivalentWeight(w, g, mm)
+		results = append(results, result{v, err})
+		v, err = FoxMoles(w, mm, tg)
+		results = append(results, result{v, err})
+		for _, r := range results {
+			if r.err != nil {
+				if copoly.Field(r.err) == "" {
+					t.Fatalf("w = %v, tg = %v, groups = %v, molarMass = %v: %v names no field", w, tg, g, mm, r.err)
+				}
+				continue
+			}
+			if !(r.v >= 0) || math.IsInf(r.v, 0) {
+				t.Fatalf("w = %v, tg = %v, groups = %v, molarMass = %v: result %v", w, tg, g, mm, r.v)
+			}
+		}
 	}
 }
