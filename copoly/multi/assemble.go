@@ -33,7 +33,7 @@ const MaxPairs = 100
 type Pair struct {
 	Monomer1, Monomer2 string
 	R1, R2             float64
-	// Kind is OriginUser or OriginFit.
+	// Kind is OriginUser or OriginFit; empty means OriginUser.
 	Kind string
 	// Source says where the values come from (a reference, a fit's data set); optional.
 	Source string
@@ -141,6 +141,9 @@ func Assemble(monomers []string, pairs []Pair) (*Matrix, error) {
 			return nil, err
 		}
 		r := 0
+		if p.Kind == "" {
+			p.Kind = OriginUser
+		}
 		switch p.Kind {
 		case OriginUser:
 			r = 1

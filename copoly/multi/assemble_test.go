@@ -119,6 +119,10 @@ func TestAssembleErrors(t *testing.T) {
 		{"bad ratio", two, []Pair{{Monomer1: "styrene", Monomer2: "methyl methacrylate", R1: -1, R2: 1, Kind: OriginUser}}, "pairs[0].r1", copoly.ErrOutOfRange},
 		{"NaN ratio", two, []Pair{{Monomer1: "styrene", Monomer2: "methyl methacrylate", R1: 1, R2: math.NaN(), Kind: OriginUser}}, "pairs[0].r2", copoly.ErrNotFinite},
 		{"bad kind", two, []Pair{{Monomer1: "styrene", Monomer2: "methyl methacrylate", R1: 1, R2: 1, Kind: "literature"}}, "pairs[0].kind", copoly.ErrOutOfRange},
+		{"given twice, kind left empty", two, []Pair{
+			{Monomer1: "styrene", Monomer2: "methyl methacrylate", R1: 1, R2: 1},
+			{Monomer1: "methyl methacrylate", Monomer2: "styrene", R1: 1, R2: 1, Kind: OriginUser},
+		}, "pairs[1]", copoly.ErrOutOfRange},
 		{"given twice", two, []Pair{
 			{Monomer1: "styrene", Monomer2: "methyl methacrylate", R1: 1, R2: 1, Kind: OriginUser},
 			{Monomer1: "methyl methacrylate", Monomer2: "styrene", R1: 1, R2: 1, Kind: OriginUser},

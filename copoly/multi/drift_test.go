@@ -11,12 +11,12 @@ import (
 	"copoly/copoly"
 )
 
-var driftConversions = []float64{0, 1e-9, 1e-4, 0.05, 0.1, 0.3, 0.5, 0.7, 0.9, 0.95, 0.99, 0.999}
+var driftConversions = []float64{0, 1e-9, 1e-4, 0.05, 0.1, 0.3, 0.5, 0.7, 0.9, 0.95, 0.99, 0.999, 1}
 
 // TestDriftBinary checks N = 2 against copoly.Terminal.Drift (the Meyer–Lowry closed form where
 // it applies, the Skeist equation elsewhere: I. Skeist, J. Am. Chem. Soc. 1946, 68, 1781;
-// V. E. Meyer, G. G. Lowry, J. Polym. Sci. A 1965, 3, 2843) to 1e-9, and the conversions at
-// which a monomer is reported used up to 1e-7.
+// V. E. Meyer, G. G. Lowry, J. Polym. Sci. A 1965, 3, 2843) to 1e-9, X = 1 (the limit) included,
+// and the conversions at which a monomer is reported used up to 1e-7.
 func TestDriftBinary(t *testing.T) {
 	cases := []struct {
 		name   string
@@ -307,6 +307,24 @@ func TestDriftNoHomopolymer(t *testing.T) {
 		mean := sum * h / 3 / d.Stop
 		if got := d.Cum[pts-1][i]; math.Abs(got-mean) > 1e-8 {
 			t.Errorf("F̄[%d] at the stop = %.10g by the balance, %.10g as the mean of F", i, got, mean)
+		}
+	}
+}
+
+// TestDriftLimit checks X = 1 for three monomers of which vinyl acetate is by far the least
+// reactive (methyl methacrylate / vinyl acetate / acrylonitrile, copoly.Pairs: MMA/VAc 26/0.03,
+// MMA/AN 1.322/0.138, AN/VAc 4.05/0.04): the last unreacted monomer is vinyl acetate, so the
+// limit of f and of F is (0, 1, 0), and F̄ is the starting feed.
+func TestDriftLimit(t *testing.T) {
+	m := mustNew(t, [][]float64{{1, 26, 1.322}, {0.03, 1, 0.04}, {0.138, 4.05, 1}}, nil)
+	f0 := []float64{0.2, 0.5, 0.3}
+	d, err := m.Drift(f0, []float64{0.99, 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, want := range []float64{0, 1, 0} {
+		if math.Abs(d.Feed[1][i]-want) > 1e-12 || math.Abs(d.Inst[1][i]-want) > 1e-12 || d.Cum[1][i] != f0[i] {
+			t.Fatalf("X = 1: f = %v, F = %v, F̄ = %v; want f = F = (0, 1, 0), F̄ = f0", d.Feed[1], d.Inst[1], d.Cum[1])
 		}
 	}
 }
