@@ -52,6 +52,7 @@ test-fixtures:
 		$(PY) testdata/fit_scipy.py --check || exit 1; \
 		$(PY) testdata/plan_scipy.py --check || exit 1; \
 		$(PY) testdata/averages_numpy.py --check || exit 1; \
+		$(PY) testdata/multi_scipy.py --check || exit 1; \
 		$(PY) testdata/skeist_scipy.py --check; \
 	elif [ -n "$$CI" ]; then echo "FAIL: $(PY) with scipy is required in CI (apt-get install -y python3-scipy)"; exit 1; \
 	else echo "*** SKIPPED fixture re-check: $(PY) has no scipy. Install with: apt-get install -y python3-scipy ***"; fi
@@ -117,7 +118,7 @@ setup:
 ## Go 1.26's fuzzing coordinator can end a run with "context deadline exceeded" at the very end
 ## of -fuzztime without any failing input (golang/go#75804); that alone is reported, not failed.
 FUZZTIME ?= 30s
-FUZZ_PACKAGES := ./copoly/ ./copoly/project/
+FUZZ_PACKAGES := ./copoly/ ./copoly/project/ ./copoly/multi/
 .PHONY: fuzz
 fuzz:
 	@set -e; for pkg in $(FUZZ_PACKAGES); do \

@@ -189,6 +189,9 @@ var budgets = []budget{
 	{"semi-batch plan of 200 steps with a 500-sample band: under 100 ms in js/wasm", []string{"Plan/semibatch-200-steps", "Plan/band-500-samples"}, 100, 0},
 	{"10^6 monomer additions of Monte Carlo growth: under 100 ms in js/wasm", []string{"Chains/1e6-units"}, 100, 0},
 	{"full recompute after an edit (20 runs: fits, JCR, drift, plan + band, 10^4 chains): under 100 ms in js/wasm", []string{"Recompute/edit-20-runs"}, 100, 0},
+	{"multiComposition, 10^4 feeds of 6 monomers: under 20 ms in js/wasm", []string{"MultiComposition/10000-feeds-6-monomers"}, 20, 0},
+	{"multiDrift, 4 monomers to X = 0.99 with 200 points: under 10 ms in js/wasm", []string{"MultiDrift/4-monomers-200-points"}, 10, 0},
+	{"multiChains, 10^6 units of 4 monomers: under 100 ms in js/wasm", []string{"MultiChains/1e6-units"}, 100, 0},
 }
 
 func writeBudgets(w io.Writer, native, wasm *run) {
