@@ -3,9 +3,7 @@
 // No plotting library: a chart is a few dozen SVG elements with presentation attributes (fill,
 // stroke, font-*) and no style attributes, so it obeys the page's Content-Security-Policy, prints
 // crisply and saves as a standalone SVG that looks the same outside the page.
-"use strict";
-
-const Plot = (() => {
+export const Plot = (() => {
   const NS = "http://www.w3.org/2000/svg";
   const FONT = "system-ui, -apple-system, 'Segoe UI', Roboto, 'Helvetica Neue', Arial, sans-serif";
   const INK = "#1f2933";

@@ -9,7 +9,7 @@
 //     tab loaded, so that a save never silently replaces another tab's; the form as typed is saved
 //     as a draft after every keystroke and restored after a reload;
 //   - the module exiting (go.run resolving) is a crash: #fatal-banner says so.
-"use strict";
+import { Plot } from "./plot.js";
 
 (() => {
   // window.copolyReady resolves once the module runs and the first results are drawn.
