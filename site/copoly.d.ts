@@ -376,7 +376,7 @@ export interface Copoly {
   averages(a: { bins?: { low: number; high: number; numberFraction?: number; weightFraction?: number }[];
     slices?: { mass: number; signal: number }[];            // one of bins or slices (an empty list counts as not given)
     F1?: number; molarMass1?: number; molarMass2?: number }): AveragesResult | CopolyError;
-  library(a?: {}): { monomers: Monomer[]; pairs: RatioPair[] };
+  library(a?: {}): { monomers: MonomerData[]; pairs: RatioPair[] };
   demoProject(a?: {}): { project: Project };
   checkProject(a: { project: Project }): { project: Project } | CopolyError;
   exportProject(a: { project: Project }): { json: string; filename: string } | CopolyError;
