@@ -85,7 +85,19 @@ test-firefox: site
 	fi && \
 	COPOLY_HTML=$(abspath $(DIST)/copoly.html) COPOLY_FIREFOX=$(FIREFOX) node --test firefox.test.mjs
 
-test: vet test-native test-noasm test-wasm test-fixtures test-browser test-firefox
+## check-js: type-check the page's ES modules (site/src, each // @ts-check with JSDoc types)
+## against the API's types in site/copoly.d.ts with the TypeScript checker (typescript, installed
+## into site/jscheck/node_modules by npm ci from its lock file when missing or older than it)
+JSCHECK := site/jscheck
+.PHONY: check-js
+check-js:
+	@cd $(JSCHECK) && \
+	if [ ! -f node_modules/.package-lock.json ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then \
+		npm ci --no-audit --no-fund || exit 1; \
+	fi && \
+	node_modules/.bin/tsc -p tsconfig.json && echo "check-js: site/src type-checks against site/copoly.d.ts ($$(node_modules/.bin/tsc --version))"
+
+test: vet test-native test-noasm test-wasm test-fixtures check-js test-browser test-firefox
 
 ## fuzz: run every fuzz target of the parsers for FUZZTIME each (default 30s). Not part of make
 ## test, whose go test runs the seed corpora (f.Add and testdata/fuzz/) as ordinary tests.
