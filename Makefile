@@ -86,13 +86,24 @@ test-firefox: site
 	fi && \
 	COPOLY_HTML=$(abspath $(DIST)/copoly.html) COPOLY_FIREFOX=$(FIREFOX) node --test firefox.test.mjs
 
-test: setup vet test-native test-noasm test-wasm test-fixtures test-browser test-firefox
+## check-js: type-check the page's ES modules (site/src, each // @ts-check with JSDoc types)
+## against the API's types in site/copoly.d.ts with the TypeScript checker (typescript, installed
+## into site/jscheck/node_modules by npm ci from its lock file when missing or older than it)
+JSCHECK := site/jscheck
+.PHONY: check-js
+check-js:
+	@cd $(JSCHECK) && \
+	if [ ! -f node_modules/.package-lock.json ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then \
+		npm ci --no-audit --no-fund || exit 1; \
+	fi && \
+	node_modules/.bin/tsc -p tsconfig.json && echo "check-js: site/src type-checks against site/copoly.d.ts ($$(node_modules/.bin/tsc --version))"
+
+test: setup vet test-native test-noasm test-wasm test-fixtures check-js test-browser test-firefox
 
 ## setup: the system packages the tests need (Chromium, Firefox ESR, scipy). Run as root with
 ## apt-get available (CI, a fresh container), it installs what is missing; otherwise it prints
 ## the one command that would, and the tests that need a missing package skip loudly (or fail,
 ## under CI=true or COPOLY_REQUIRE_BROWSER=1 / COPOLY_REQUIRE_FIREFOX=1).
-SETUP_PACKAGES := chromium firefox-esr python3-scipy ca-certificates
 .PHONY: setup
 setup:
 	@need=""; \

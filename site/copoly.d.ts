@@ -399,7 +399,7 @@ export interface Copoly {
   averages(a: { bins?: { low: number; high: number; numberFraction?: number; weightFraction?: number }[];
     slices?: { mass: number; signal: number }[];            // one of bins or slices (an empty list counts as not given)
     F1?: number; molarMass1?: number; molarMass2?: number }): AveragesResult | CopolyError;
-  library(a?: {}): { monomers: Monomer[]; pairs: RatioPair[]; sources: LibrarySource[] };  // monomers are MonomerData
+  library(a?: {}): { monomers: MonomerData[]; pairs: RatioPair[]; sources: LibrarySource[] };
   demoProject(a?: {}): { project: Project };
   exampleProject(a: { name: ExampleName }): { project: Project } | CopolyError;  // a published example: measured runs with their citation, never invented
   checkProject(a: { project: Project }): { project: Project } | CopolyError;

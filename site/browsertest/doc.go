@@ -14,8 +14,10 @@
 // simulates 2000 chains, enters two molar-mass classes to check Mn and Mw, and reloads to see the
 // triads, the classes and the model kept. The storage tests break the browser storage on
 // purpose: no IndexedDB (three ways), a full storage, damaged stored files, two tabs saving the
-// same project, and a reload in the middle of typing. The page must do all this without a
-// console error, an uncaught exception or any request beyond its own file.
+// same project, and a reload in the middle of typing. One more delays an answer of the module,
+// as a module running in a Web Worker may answer late, and checks that the page shows and saves
+// the newer edit, never the late answer. The page must do all this without a console error, an
+// uncaught exception or any request beyond its own file.
 //
 // Three more look at the page itself. The print test emulates print media on a viewport as wide
 // as A4's printable width and checks that the report holds every required section (with the date,

@@ -8,7 +8,9 @@
 // The page template is site/index.html. Every `<link rel="stylesheet" href="NAME">` becomes an
 // inline <style> and every `<script src="NAME"></script>` an inline <script>, both read from the
 // -src directory, except wasm_exec.js, which is read from -wasmexec because it must come from the
-// toolchain that built the module. The module itself is compressed with gzip (best compression),
+// toolchain that built the module. A `<script type="module" src="PATH"></script>` names the entry
+// of the page's ES modules (site/src/main.js): esbuild bundles it and everything it imports into
+// one classic script, an immediately invoked function (bundle.go), inlined in its place. The module itself is compressed with gzip (best compression),
 // encoded as text with our 7-bit encoding (text7.go; 8/7 of the bytes, against 4/3 for base64)
 // and placed in a non-executable data block
 //
@@ -51,8 +53,10 @@ const wasmExecName = "wasm_exec.js"
 var (
 	// styleLink matches the only accepted form of a stylesheet reference in the template.
 	styleLink = regexp.MustCompile(`<link rel="stylesheet" href="([A-Za-z0-9_.-]+\.css)">`)
-	// scriptRef matches the only accepted form of a script reference in the template.
+	// scriptRef matches the only accepted form of a classic script reference in the template.
 	scriptRef = regexp.MustCompile(`<script src="([A-Za-z0-9_.-]+\.js)"></script>`)
+	// moduleRef matches the only accepted form of an ES module entry in the template.
+	moduleRef = regexp.MustCompile(`<script type="module" src="((?:[A-Za-z0-9_-]+/)*[A-Za-z0-9_.-]+\.js)"></script>`)
 	// closeScript and closeStyle find text that would end an inline element early.
 	closeScript = regexp.MustCompile(`(?i)</script|<!--`)
 	closeStyle  = regexp.MustCompile(`(?i)</style`)
@@ -97,9 +101,10 @@ func run(src, wasmPath, execPath, out string) error {
 }
 
 // Build returns the offline page: the template index.html from site with its stylesheets and
-// scripts inlined (indentation and comment lines removed, see trimCode), wasmExec inlined in
-// place of wasm_exec.js, module embedded as gzip+text7, and
-// a Content-Security-Policy that allows exactly the inlined code by hash.
+// classic scripts inlined (indentation and comment lines removed, see trimCode), its ES modules
+// bundled into one script (see bundle), wasmExec inlined in place of wasm_exec.js, module
+// embedded as gzip+text7, and a Content-Security-Policy that allows exactly the inlined code by
+// hash.
 func Build(site fs.FS, wasmExec, module []byte) ([]byte, error) {
 	tmpl, err := fs.ReadFile(site, "index.html")
 	if err != nil {
@@ -155,6 +160,19 @@ func Build(site fs.FS, wasmExec, module []byte) ([]byte, error) {
 		scriptHashes = append(scriptHashes, hash(js))
 		return "<script>" + string(js) + "</script>"
 	})
+	html = moduleRef.ReplaceAllStringFunc(html, func(tag string) string {
+		entry := moduleRef.FindStringSubmatch(tag)[1]
+		js, _, err := bundle(site, entry)
+		if err != nil {
+			inlineErr = errors.Join(inlineErr, err)
+			return ""
+		}
+		if closeScript.Match(js) {
+			inlineErr = errors.Join(inlineErr, fmt.Errorf("the bundle of %s contains </script or <!-- , which would end or confuse an inline script", entry))
+		}
+		scriptHashes = append(scriptHashes, hash(js))
+		return "<script>" + string(js) + "</script>"
+	})
 	if inlineErr != nil {
 		return nil, inlineErr
 	}
@@ -168,8 +186,8 @@ func Build(site fs.FS, wasmExec, module []byte) ([]byte, error) {
 }
 
 // checkTemplate rejects a template that would load anything from outside the page or hold code
-// the CSP would block: all code must sit in the linked .css and .js files, which the build inlines
-// and hashes.
+// the CSP would block: all code must sit in the linked .css and .js files and the ES modules,
+// which the build inlines (or bundles) and hashes.
 func checkTemplate(html string) error {
 	csp := strings.Index(html, cspMarker)
 	for _, tag := range []string{"<link", "<script", "<style"} {
@@ -179,6 +197,7 @@ func checkTemplate(html string) error {
 	}
 	rest := styleLink.ReplaceAllString(html, "")
 	rest = scriptRef.ReplaceAllString(rest, "")
+	rest = moduleRef.ReplaceAllString(rest, "")
 	lower := strings.ToLower(rest)
 	for _, tag := range []string{"<link", "<script", "<style", "<iframe", "<object", "<embed", "<base"} {
 		if strings.Contains(lower, tag) {

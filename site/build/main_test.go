@@ -5,7 +5,9 @@ import (
 	"compress/gzip"
 	"crypto/sha256"
 	"encoding/base64"
+	"fmt"
 	"io"
+	"io/fs"
 	"math/rand/v2"
 	"os"
 	"regexp"
@@ -113,8 +115,8 @@ func TestBuildSite(t *testing.T) {
 		for _, m := range styleRe.FindAllStringSubmatch(page, -1) {
 			styles = append(styles, sha(m[1]))
 		}
-		if len(scripts) != 3 {
-			t.Errorf("%d inline scripts, want 3 (wasm_exec.js, plot.js, app.js)", len(scripts))
+		if len(scripts) != 2 {
+			t.Errorf("%d inline scripts, want 2 (wasm_exec.js and the bundle of src/main.js)", len(scripts))
 		}
 		wantScript := append(slices.Clone(scripts), "'wasm-unsafe-eval'")
 		if !slices.Equal(p["script-src"], wantScript) {
@@ -157,6 +159,38 @@ func TestBuildSite(t *testing.T) {
 		}
 	})
 
+	t.Run("bundle", func(t *testing.T) {
+		scripts := scriptRe.FindAllStringSubmatch(page, -1)
+		if len(scripts) != 2 {
+			t.Fatalf("%d inline scripts, want 2", len(scripts))
+		}
+		js := scripts[1][1]
+		if !strings.HasPrefix(js, `"use strict";`) {
+			t.Errorf("the bundle starts with %q, want the strict-mode directive", js[:min(len(js), 40)])
+		}
+		for _, p := range bundleProblems(js) {
+			t.Error("the bundle: " + p)
+		}
+		// Every module under src/ is in the bundle: a module nothing imports is a mistake.
+		_, modules, err := bundle(os.DirFS(".."), "src/main.js")
+		if err != nil {
+			t.Fatal(err)
+		}
+		var want []string
+		err = fs.WalkDir(os.DirFS(".."), "src", func(p string, d fs.DirEntry, err error) error {
+			if err == nil && !d.IsDir() && strings.HasSuffix(p, ".js") {
+				want = append(want, p)
+			}
+			return err
+		})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !slices.Equal(modules, want) {
+			t.Errorf("the bundle holds %q, want every module of site/src: %q", modules, want)
+		}
+	})
+
 	t.Run("stable ids", func(t *testing.T) {
 		// The ids the browser test and lab scripts rely on (the page's public surface).
 		for _, id := range []string{"r1", "r2", "f10", "conversion", "tolerance", "name1", "name2", "mass1", "mass2",
@@ -167,6 +201,55 @@ func TestBuildSite(t *testing.T) {
 			}
 		}
 	})
+}
+
+var (
+	// importStmt and exportStmt find ES module syntax left in a classic script: an import
+	// statement or call, import.meta, or an export (not a name such as importProject).
+	// Either starts a statement (at the start of a line, or after ; { } or a space) or, for
+	// import( and import.meta, an expression.
+	importStmt = regexp.MustCompile(`(?m)((^|[;{}\s])import(\s*[{*"']|\s+[\w$]+\s*(,|from\b))|(^|[^\w$.-])import\s*(\(|\.\s*meta\b))`)
+	exportStmt = regexp.MustCompile(`(?m)(^|[;{}\s])export\s*(\{|\*|default\b|const\b|let\b|var\b|function\b|class\b|async\b)`)
+	// evalCall finds code made from text, which the CSP refuses.
+	evalCall = regexp.MustCompile(`(^|[^\w$.])(eval\s*\(|new\s+Function\s*\()`)
+)
+
+// bundleProblems lists what would stop js from running as the page's inline classic script, or
+// fetch something: module syntax, a source map reference, code made from text.
+func bundleProblems(js string) []string {
+	var out []string
+	for _, c := range []struct {
+		re   *regexp.Regexp
+		what string
+	}{{importStmt, "an import"}, {exportStmt, "an export"}, {evalCall, "code made from text"}} {
+		if m := c.re.FindString(js); m != "" {
+			out = append(out, fmt.Sprintf("%s: %q", c.what, m))
+		}
+	}
+	if strings.Contains(js, "sourceMappingURL") || strings.Contains(js, "sourceURL") {
+		out = append(out, "a source map or source URL comment")
+	}
+	return out
+}
+
+// TestBundleProblems checks that bundleProblems finds what it looks for and passes names that
+// only contain the words.
+func TestBundleProblems(t *testing.T) {
+	for _, js := range []string{
+		`import { a } from "./a.js";`, `import a from "./a.js";`, `import * as a from "./a.js";`, `import "./a.js";`,
+		`x = import("./a.js");`, `x = import.meta.url;`, `export const a = 1;`, `export { a };`, `export default a;`,
+		`export function f() {}`, `eval("1")`, `x = new Function("return 1")`, "x = 1;\n//# sourceMappingURL=x.js.map",
+	} {
+		if len(bundleProblems(js)) == 0 {
+			t.Errorf("bundleProblems(%q) found nothing", js)
+		}
+	}
+	for _, js := range []string{`c.importProject({json});`, `c.exportProject({project});`, `const exported = 1;`, `x.eval = 1;`,
+		`"import and export"`, `$("#bench-import")`, `"#import-file"`, `"Import project"`} {
+		if p := bundleProblems(js); len(p) != 0 {
+			t.Errorf("bundleProblems(%q) = %q, want nothing", js, p)
+		}
+	}
 }
 
 // TestBuildOnlyModuleDiffers checks that two pages built around different modules are the same
@@ -193,14 +276,24 @@ func TestBuildOnlyModuleDiffers(t *testing.T) {
 func TestBuildRejects(t *testing.T) {
 	const good = `<!doctype html><html><head><!-- copoly:csp --><link rel="stylesheet" href="s.css"></head>` +
 		`<body><!-- copoly:module --><script src="wasm_exec.js"></script><script src="a.js"></script></body></html>`
+	module := fakeModule(100, 4)
 	files := func(html, js string) fstest.MapFS {
 		return fstest.MapFS{
-			"index.html": {Data: []byte(html)},
-			"s.css":      {Data: []byte("body{margin:0}")},
-			"a.js":       {Data: []byte(js)},
+			"index.html":  {Data: []byte(html)},
+			"s.css":       {Data: []byte("body{margin:0}")},
+			"a.js":        {Data: []byte(js)},
+			"src/main.js": {Data: []byte(`import { b } from "./b.js"; b();`)},
+			"src/b.js":    {Data: []byte(`export function b() { document.title = "b"; }`)},
 		}
 	}
-	module := fakeModule(100, 4)
+	withModule := strings.Replace(good, "</body>", `<script type="module" src="src/main.js"></script></body>`, 1)
+	page, err := Build(files(withModule, "let a = 1;"), []byte(fakeWasmExec), module)
+	if err != nil {
+		t.Fatalf("Build(template with a module) error: %v", err)
+	}
+	if scripts := scriptRe.FindAllStringSubmatch(string(page), -1); len(scripts) != 3 || !strings.Contains(scripts[2][1], `document.title="b"`) {
+		t.Errorf("the module entry is not bundled with its import: %q", scripts)
+	}
 	if _, err := Build(files(good, "let a = 1;"), []byte(fakeWasmExec), module); err != nil {
 		t.Fatalf("Build(good template) error: %v", err)
 	}
@@ -224,10 +317,30 @@ func TestBuildRejects(t *testing.T) {
 		{"script closes early", good, `let s = "</script><p>";`, module},
 		{"comment opener in script", good, `let s = "<!--";`, module},
 		{"not a wasm module", good, "", []byte("hello, not wasm")},
+		{"missing module entry", strings.Replace(withModule, "src/main.js", "src/none.js", 1), "", module},
+		{"module entry outside the site", strings.Replace(withModule, "src/main.js", "../main.js", 1), "", module},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			if _, err := Build(files(tc.html, tc.js), []byte(fakeWasmExec), tc.module); err == nil {
+				t.Errorf("Build succeeded, want an error")
+			}
+		})
+	}
+	// Modules that import what the page must not bundle, or do not parse.
+	for name, src := range map[string]string{
+		"a package":             `import { x } from "some-package"; x();`,
+		"a URL":                 `import { x } from "https://example.org/x.js"; x();`,
+		"a file outside":        `import { x } from "../../x.js"; x();`,
+		"a missing file":        `import { x } from "./none.js"; x();`,
+		"a file that is not js": `import x from "./s.css"; x();`,
+		"a syntax error":        `import { b } from "./b.js"; b(;`,
+		"a closing script tag":  `import { b } from "./b.js"; b(); /` + `</script>/;`,
+	} {
+		t.Run("module importing "+name, func(t *testing.T) {
+			fsys := files(withModule, "")
+			fsys["src/main.js"] = &fstest.MapFile{Data: []byte(src)}
+			if _, err := Build(fsys, []byte(fakeWasmExec), module); err == nil {
 				t.Errorf("Build succeeded, want an error")
 			}
 		})

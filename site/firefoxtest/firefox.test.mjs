@@ -114,8 +114,8 @@ test("Firefox: the offline page computes, saves, and finds its project after a b
       await waitText(page, "out-product", wantProduct);
       await checkSequenceTable(page, styreneR1, acrylR2, "styrene/acrylonitrile");
 
-      // The page reports a finished save in #storage-status ("Saved hh:mm:ss", app.js
-      // showStorageStatus, after copoly.saveProject resolved); the module reads the same
+      // The page reports a finished save in #storage-status ("Saved hh:mm:ss", site/src/storage.js
+      // showStatus, after copoly.saveProject resolved); the module reads the same
       // project back from IndexedDB.
       await waitFor(page, "#storage-status to say the project is saved", () => {
         const s = document.getElementById("storage-status");

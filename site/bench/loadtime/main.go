@@ -66,7 +66,7 @@ const (
 		return typeof window.__benchReadyAt === "number" ? window.__benchReadyAt : null;
 	})()`
 	helloReadyExpr = `typeof window.copolyHelloReadyAt === "number" ? window.copolyHelloReadyAt : null`
-	// marksExpr reads the page's own start-up marks (site/app.js); absent marks are -1.
+	// marksExpr reads the page's own start-up marks (site/src/loader.js, storage.js); absent marks are -1.
 	marksExpr = `["copoly:start", "copoly:decoded", "copoly:instantiated", "copoly:running", "copoly:loaded"].map(n => {
 		const m = performance.getEntriesByName(n, "mark")[0];
 		return m ? m.startTime : -1;
@@ -178,7 +178,7 @@ func run(pagePath, helloPath string, n int, budget float64, chromium string, tim
 	fmt.Fprintf(w, "\nratio of medians copoly/hello: %.2f; budget %.2fx: %s\n", ratio, budget, verdict)
 	fmt.Fprintln(w, "hello is the same page around a bare Go module; its ready signal is the start of its main.")
 	fmt.Fprintln(w, "copoly's is window.copolyReady: module running, project loaded, first results drawn.")
-	fmt.Fprintln(w, "Marks (site/app.js): start = decoding begins, decoded = module unzipped, instantiated, running = window.copoly registered, loaded = project read from storage.")
+	fmt.Fprintln(w, "Marks (site/src/loader.js, storage.js): start = decoding begins, decoded = module unzipped, instantiated, running = window.copoly registered, loaded = project read from storage.")
 	return nil
 }
 
