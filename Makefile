@@ -93,7 +93,7 @@ test: vet test-native test-noasm test-wasm test-fixtures test-browser test-firef
 ## Go 1.26's fuzzing coordinator can end a run with "context deadline exceeded" at the very end
 ## of -fuzztime without any failing input (golang/go#75804); that alone is reported, not failed.
 FUZZTIME ?= 30s
-FUZZ_PACKAGES := ./copoly/ ./copoly/project/
+FUZZ_PACKAGES := ./copoly/bench/ ./copoly/project/
 .PHONY: fuzz
 fuzz:
 	@set -e; for pkg in $(FUZZ_PACKAGES); do \

@@ -16,11 +16,11 @@ func (m Terminal) ConversionLimit(f10, tolerance float64) (float64, error) {
 
 // ConversionLimitOf is [Terminal.ConversionLimit] for any model (see [DriftOf]).
 func ConversionLimitOf(model Model, f10, tolerance float64) (float64, error) {
-	b, err := newModelBatch(model, f10)
+	b, err := NewBatch(model, f10)
 	if err != nil {
 		return 0, err
 	}
-	if err := checkFinite("tolerance", tolerance); err != nil {
+	if err := CheckFinite("tolerance", tolerance); err != nil {
 		return 0, err
 	}
 	if tolerance <= 0 || tolerance > 0.5 {
@@ -89,7 +89,7 @@ func (m Terminal) CompositionDistribution(f10, conversion float64, bins int, mol
 
 // CompositionDistributionOf is [Terminal.CompositionDistribution] for any model (see [DriftOf]).
 func CompositionDistributionOf(model Model, f10, conversion float64, bins int, molarMass1, molarMass2 float64) (Histogram, error) {
-	b, err := newModelBatch(model, f10)
+	b, err := NewBatch(model, f10)
 	if err != nil {
 		return Histogram{}, err
 	}
@@ -133,6 +133,11 @@ func CompositionDistributionOf(model Model, f10, conversion float64, bins int, m
 	}
 	return binned(comp, w, bins, basis), nil
 }
+
+// HistogramOf returns the histogram of the values v with weights w over bins equal bins spanning
+// their range (see binned); basis names what the weights count, as in [Histogram]. v and w must
+// have the same length, at least one value and a positive total weight; bins must be at least 1.
+func HistogramOf(v, w []float64, bins int, basis string) Histogram { return binned(v, w, bins, basis) }
 
 // binned returns the histogram of the values v with weights w over bins equal bins spanning
 // their range, widened to at least 0.01 around them (and kept inside [0, 1]) when they are
@@ -192,7 +197,7 @@ func (m Terminal) MolarConversion(massConversion, f10, molarMass1, molarMass2 fl
 
 // MolarConversionOf is [Terminal.MolarConversion] for any model (see [DriftOf]).
 func MolarConversionOf(model Model, massConversion, f10, molarMass1, molarMass2 float64) (float64, error) {
-	b, err := newModelBatch(model, f10)
+	b, err := NewBatch(model, f10)
 	if err != nil {
 		return 0, err
 	}
@@ -218,7 +223,7 @@ func MolarConversionsOf(model Model, massConversions []float64, f10, molarMass1,
 	if n := len(massConversions); n > MaxMassConversions {
 		return nil, &InputError{Field: "massConversion", Value: float64(n), Reason: fmt.Sprintf("at most %d mass conversions per call", MaxMassConversions), Err: ErrTooMany}
 	}
-	b, err := newModelBatch(model, f10)
+	b, err := NewBatch(model, f10)
 	if err != nil {
 		return nil, err
 	}
@@ -238,7 +243,7 @@ func MolarConversionsOf(model Model, massConversions []float64, f10, molarMass1,
 }
 
 // molarConversion is MolarConversionOf on the batch b, with errors naming field.
-func (b *batch) molarConversion(field string, massConversion, molarMass1, molarMass2 float64) (float64, error) {
+func (b *Batch) molarConversion(field string, massConversion, molarMass1, molarMass2 float64) (float64, error) {
 	if err := CheckConversion(field, massConversion); err != nil {
 		return 0, err
 	}

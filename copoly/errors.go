@@ -64,8 +64,11 @@ func Field(err error) string {
 	return ""
 }
 
-// checkFinite returns an *InputError when v is NaN or infinite.
-func checkFinite(field string, v float64) error {
+// checkFinite is [CheckFinite], under the name the files written before it was exported use.
+func checkFinite(field string, v float64) error { return CheckFinite(field, v) }
+
+// CheckFinite returns an *InputError when v is NaN or infinite.
+func CheckFinite(field string, v float64) error {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return &InputError{Field: field, Value: v, Reason: "must be a finite number", Err: ErrNotFinite}
 	}
@@ -82,7 +85,7 @@ func CheckFraction(field string, v float64) error {
 
 // checkFractionError is the error of CheckFraction for a v outside its range.
 func checkFractionError(field string, v float64) error {
-	if err := checkFinite(field, v); err != nil {
+	if err := CheckFinite(field, v); err != nil {
 		return err
 	}
 	if v < 0 || v > 1 {
@@ -101,7 +104,7 @@ func CheckConversion(field string, v float64) error {
 
 // checkConversionError is the error of CheckConversion for a v outside its range.
 func checkConversionError(field string, v float64) error {
-	if err := checkFinite(field, v); err != nil {
+	if err := CheckFinite(field, v); err != nil {
 		return err
 	}
 	if v < 0 || v > 1 {
@@ -121,7 +124,7 @@ func CheckRatio(field string, v float64) error {
 
 // checkRatioError is the error of CheckRatio for a v outside its range.
 func checkRatioError(field string, v float64) error {
-	if err := checkFinite(field, v); err != nil {
+	if err := CheckFinite(field, v); err != nil {
 		return err
 	}
 	if v < 0 {
@@ -135,7 +138,7 @@ func checkRatioError(field string, v float64) error {
 
 // CheckMolarMass returns an *InputError unless v is a positive molar mass in g/mol below 10⁶.
 func CheckMolarMass(field string, v float64) error {
-	if err := checkFinite(field, v); err != nil {
+	if err := CheckFinite(field, v); err != nil {
 		return err
 	}
 	if v <= 0 || v >= 1e6 {

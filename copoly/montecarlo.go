@@ -117,7 +117,7 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 	if err := CheckConversion("conversion", opt.Conversion); err != nil {
 		return nil, err
 	}
-	if err := checkFinite("dpn", opt.DPn); err != nil {
+	if err := CheckFinite("dpn", opt.DPn); err != nil {
 		return nil, err
 	}
 	if opt.DPn != 0 && (opt.DPn < 1 || opt.DPn > 1e5) {
@@ -168,7 +168,7 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 		for i := range xs {
 			xs[i] = opt.Conversion * (float64(i) + 0.5) / grid
 		}
-		b, err := newModelBatch(opt.Model, opt.F10)
+		b, err := NewBatch(opt.Model, opt.F10)
 		if err != nil {
 			return nil, err
 		}

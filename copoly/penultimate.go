@@ -5,15 +5,6 @@ import (
 	"math"
 )
 
-// Model is a copolymerization model: it gives the instantaneous copolymer composition of a
-// feed. [Terminal], [Penultimate] and [Implicit] implement it.
-type Model interface {
-	// Validate reports invalid parameters as an [*InputError] naming them.
-	Validate() error
-	// Instantaneous returns F1 at feed f1 (0 ≤ f1 ≤ 1).
-	Instantaneous(f1 float64) float64
-}
-
 // Penultimate is the explicit penultimate model: the rate at which a chain adds a monomer depends
 // on the last two units at its radical end. With kijk the rate coefficient of a chain ending in
 // i j adding k, its monomer reactivity ratios are
@@ -219,7 +210,7 @@ func (m Implicit) MeanPropagation(f1, k111, k222 float64) (float64, error) {
 		field string
 		v     float64
 	}{{"k111", k111}, {"k222", k222}} {
-		if err := checkFinite(c.field, c.v); err != nil {
+		if err := CheckFinite(c.field, c.v); err != nil {
 			return 0, err
 		}
 		if c.v <= 0 {

@@ -3,6 +3,12 @@
 package main
 
 import (
+	"copoly/copoly/fit"
+	"copoly/copoly/molarmass"
+	"copoly/copoly/plan"
+)
+
+import (
 	"fmt"
 	"strings"
 	"syscall/js"
@@ -57,9 +63,9 @@ func newAPI(st *storage) js.Value {
 		{"importProject", argRequired, importProject},
 		{"benchRuns", argRequired, benchRuns},
 		{"pasteBench", argRequired, pasteBench},
-		{"fit", argRequired, fit},
+		{"fit", argRequired, fitMethod},
 		{"nextRuns", argRequired, nextRuns},
-		{"plan", argRequired, plan},
+		{"plan", argRequired, planMethod},
 		{"starvedFeed", argRequired, starvedFeed},
 		{"qe", argRequired, qe},
 	} {
@@ -357,7 +363,7 @@ func chains(arg js.Value) (any, error) {
 }
 
 // discriminate: the terminal and the penultimate model fitted to measured compositions and
-// triads and compared (copoly.Discriminate), with each model's values at the runs' feeds.
+// triads and compared (fit.Discriminate), with each model's values at the runs' feeds.
 func discriminate(arg js.Value) (any, error) {
 	var in discriminateIn
 	if err := decode(arg, &in, ""); err != nil {
@@ -367,11 +373,11 @@ func discriminate(arg js.Value) (any, error) {
 	if err := project.CheckTriads("runs", rows); err != nil {
 		return nil, err
 	}
-	runs := make([]copoly.TriadRun, len(rows))
+	runs := make([]fit.TriadRun, len(rows))
 	for i, r := range rows {
 		runs[i] = r.Run()
 	}
-	d, err := copoly.Discriminate(runs)
+	d, err := fit.Discriminate(runs)
 	if err != nil {
 		return nil, err
 	}
@@ -409,9 +415,9 @@ func discriminate(arg js.Value) (any, error) {
 	return out, nil
 }
 
-// averages: the molar-mass averages of a binned distribution (copoly.BinAverages) or of
-// chromatogram slices (copoly.SliceAverages), and the degrees of polymerization
-// (copoly.SizeOf) when F1 and both molar masses are given. An empty list counts as not given.
+// averages: the molar-mass averages of a binned distribution (molarmass.BinAverages) or of
+// chromatogram slices (molarmass.SliceAverages), and the degrees of polymerization
+// (molarmass.SizeOf) when F1 and both molar masses are given. An empty list counts as not given.
 func averages(arg js.Value) (any, error) {
 	var in averagesIn
 	if err := decode(arg, &in, ""); err != nil {
@@ -421,16 +427,16 @@ func averages(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	var a copoly.Averages
+	var a molarmass.Averages
 	switch {
 	case len(in.Bins) > 0 && len(in.Slices) > 0:
 		return nil, &copoly.FieldError{Field: "slices", Reason: "give bins or slices, not both", Err: copoly.ErrOutOfRange}
 	case len(in.Bins) > 0:
-		bins := make([]copoly.Bin, len(in.Bins))
+		bins := make([]molarmass.Bin, len(in.Bins))
 		for i, b := range sizeBins(in.Bins) {
 			bins[i] = b.Bin()
 		}
-		if a, err = copoly.BinAverages(bins); err != nil {
+		if a, err = molarmass.BinAverages(bins); err != nil {
 			return nil, err
 		}
 	case len(in.Slices) > 0:
@@ -438,7 +444,7 @@ func averages(arg js.Value) (any, error) {
 		for i, s := range in.Slices {
 			mass[i], signal[i] = s.Mass, s.Signal
 		}
-		if a, err = copoly.SliceAverages(mass, signal); err != nil {
+		if a, err = molarmass.SliceAverages(mass, signal); err != nil {
 			return nil, sliceField(err)
 		}
 	default:
@@ -446,7 +452,7 @@ func averages(arg js.Value) (any, error) {
 	}
 	out := averagesOut{Mn: a.Mn, Mw: a.Mw, Mz: a.Mz, Dispersity: a.Dispersity}
 	if in.F1 != nil && masses {
-		c, err := copoly.SizeOf(a, *in.F1, mm1, mm2)
+		c, err := molarmass.SizeOf(a, *in.F1, mm1, mm2)
 		if err != nil {
 			return nil, err
 		}
@@ -462,7 +468,7 @@ func averages(arg js.Value) (any, error) {
 	return v, nil
 }
 
-// sliceField names an error of copoly.SliceAverages the way the JS API does: "mass[3]" and
+// sliceField names an error of molarmass.SliceAverages the way the JS API does: "mass[3]" and
 // "signal[3]" become "slices[3].mass" and "slices[3].signal"; a field about the table as a
 // whole ("mass", "signal", "bins") becomes "slices".
 func sliceField(err error) error {
@@ -627,7 +633,7 @@ func pasteError(err error) error {
 }
 
 // fit: every estimation method on the runs, with the recommended one and the warnings.
-func fit(arg js.Value) (any, error) {
+func fitMethod(arg js.Value) (any, error) {
 	var in fitIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
@@ -640,7 +646,7 @@ func fit(arg js.Value) (any, error) {
 	if in.Level != nil {
 		level = *in.Level
 	}
-	e, err := copoly.Estimate(runs, level)
+	e, err := fit.Estimate(runs, level)
 	if err != nil {
 		return nil, err
 	}
@@ -652,7 +658,7 @@ func fit(arg js.Value) (any, error) {
 // that is not finite, where the d.ts promises one, is left out with a warning of its own;
 // copoly's +Inf standard errors and NaN correlation of a singular fit are the one expected
 // case and become null instead. curves adds the Mayo–Lewis curves.
-func fitValue(e *copoly.Estimates, curves bool) js.Value {
+func fitValue(e *fit.Estimates, curves bool) js.Value {
 	warnings := make([]warningOut, len(e.Warnings))
 	for i, w := range e.Warnings {
 		warnings[i] = warningOut{Method: w.Method, Row: w.Row, Field: w.Field, Message: w.Message}
@@ -674,13 +680,13 @@ func fitValue(e *copoly.Estimates, curves bool) js.Value {
 	}
 	for _, l := range []struct {
 		name  string
-		fit   *copoly.Linear
+		fit   *fit.Linear
 		alpha bool
 	}{
-		{copoly.MethodFinemanRoss, e.FinemanRoss, false},
-		{copoly.MethodInvertedFinemanRoss, e.InvertedFinemanRoss, false},
-		{copoly.MethodKelenTudos, e.KelenTudos, true},
-		{copoly.MethodExtendedKelenTudos, e.ExtendedKelenTudos, true},
+		{fit.MethodFinemanRoss, e.FinemanRoss, false},
+		{fit.MethodInvertedFinemanRoss, e.InvertedFinemanRoss, false},
+		{fit.MethodKelenTudos, e.KelenTudos, true},
+		{fit.MethodExtendedKelenTudos, e.ExtendedKelenTudos, true},
 	} {
 		if l.fit == nil {
 			continue
@@ -693,26 +699,26 @@ func fitValue(e *copoly.Estimates, curves bool) js.Value {
 	}
 	if e.MayoLewis != nil {
 		if curves {
-			add(copoly.MethodMayoLewis, mayoLewisDTO(e.MayoLewis, true))
+			add(fit.MethodMayoLewis, mayoLewisDTO(e.MayoLewis, true))
 		} else {
-			add(copoly.MethodMayoLewis, mayoLewisDTO(e.MayoLewis, false), "curves")
+			add(fit.MethodMayoLewis, mayoLewisDTO(e.MayoLewis, false), "curves")
 		}
 	}
 	if n := e.Nonlinear; n != nil {
 		if n.Weighted {
-			add(copoly.MethodNonlinear, nonlinearDTO(n))
+			add(fit.MethodNonlinear, nonlinearDTO(n))
 		} else {
-			add(copoly.MethodNonlinear, nonlinearDTO(n), "reducedChi2", "pValue", "sigma")
+			add(fit.MethodNonlinear, nonlinearDTO(n), "reducedChi2", "pValue", "sigma")
 		}
 	}
 	if e.EVM != nil {
-		add(copoly.MethodEVM, evmDTO(e.EVM))
+		add(fit.MethodEVM, evmDTO(e.EVM))
 	}
 	recommended := e.Recommended
-	if recommended == copoly.MethodEVM && methods.Get(copoly.MethodEVM).IsUndefined() {
-		recommended = copoly.MethodNonlinear
+	if recommended == fit.MethodEVM && methods.Get(fit.MethodEVM).IsUndefined() {
+		recommended = fit.MethodNonlinear
 	}
-	trend := func(name string, t copoly.Trend) trendOut {
+	trend := func(name string, t fit.Trend) trendOut {
 		out := trendOut{Slope: t.Slope, PValue: t.PValue, Flagged: t.Flagged}
 		if p := nonFinite(out); p != "" {
 			notFinite(name, p)
@@ -748,7 +754,7 @@ func nextRuns(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	d, err := copoly.NextRuns(in.R1, in.R2, made, in.Conversions)
+	d, err := fit.NextRuns(in.R1, in.R2, made, in.Conversions)
 	if err != nil {
 		return nil, err
 	}
@@ -765,12 +771,12 @@ func nextRuns(arg js.Value) (any, error) {
 	return out, nil
 }
 
-// plan: a recipe and schedule for a target copolymer composition (copoly.MakePlan), with the
+// plan: a recipe and schedule for a target copolymer composition (plan.Make), with the
 // safety figures and, when the joint confidence region of the ratios is given, the band of
-// outcomes over it (copoly.PlanBand). Monomers named as in the built-in list lend their heats of
+// outcomes over it (plan.BandOf). Monomers named as in the built-in list lend their heats of
 // polymerization (unless heat1 or heat2 is given), their densities for the volumes of the charge
 // and their hazard classes. An empty jcr (or timeTable) counts as not given.
-func plan(arg js.Value) (any, error) {
+func planMethod(arg js.Value) (any, error) {
 	var in planIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
@@ -779,7 +785,7 @@ func plan(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	samples, err := intIn("samples", in.Samples, defaultBandSamples, 1, copoly.MaxBandSamples)
+	samples, err := intIn("samples", in.Samples, defaultBandSamples, 1, plan.MaxBandSamples)
 	if err != nil {
 		return nil, err
 	}
@@ -809,7 +815,7 @@ func plan(arg js.Value) (any, error) {
 		pi.Heat2 = lib[1].HeatOfPolymerization
 	}
 
-	p, err := copoly.MakePlan(pi)
+	p, err := plan.Make(pi)
 	if err != nil {
 		return nil, err
 	}
@@ -820,7 +826,7 @@ func plan(arg js.Value) (any, error) {
 		for i, pt := range in.JCR {
 			region[i] = [2]float64{pt[0], pt[1]} // decode read each point as a pair
 		}
-		b, err := copoly.PlanBand(pi, p, region, samples, uint64(seed))
+		b, err := plan.BandOf(pi, p, region, samples, uint64(seed))
 		if err != nil {
 			return nil, err
 		}
@@ -840,8 +846,8 @@ func plan(arg js.Value) (any, error) {
 // default. A 0 given on purpose for an option whose 0 copoly reads as "use the default" is
 // refused rather than silently replaced; where the d.ts gives 0 a meaning (shots, heats, batch
 // mass, rate constant, half-life) it is passed on.
-func (in planIn) planInput() (copoly.PlanInput, error) {
-	pi := copoly.PlanInput{
+func (in planIn) planInput() (plan.Input, error) {
+	pi := plan.Input{
 		Model:    copoly.Terminal{R1: in.R1, R2: in.R2},
 		TargetF1: in.TargetF1, MolarMass1: in.MolarMass1, MolarMass2: in.MolarMass2,
 		PolymerMass: in.PolymerMass, Mode: in.Mode,
@@ -868,20 +874,20 @@ func (in planIn) planInput() (copoly.PlanInput, error) {
 			continue
 		}
 		if *o.v == 0 && o.zero != "" {
-			return copoly.PlanInput{}, &copoly.InputError{Field: o.field, Value: 0, Reason: o.zero, Err: copoly.ErrOutOfRange}
+			return plan.Input{}, &copoly.InputError{Field: o.field, Value: 0, Reason: o.zero, Err: copoly.ErrOutOfRange}
 		}
 		*o.dst = *o.v
 	}
 	if in.Feed != nil {
 		pi.Feed = *in.Feed // "" is copoly's default, "faster"
 	}
-	shots, err := intIn("shots", in.Shots, 0, 0, copoly.MaxShots)
+	shots, err := intIn("shots", in.Shots, 0, 0, plan.MaxShots)
 	if err != nil {
-		return copoly.PlanInput{}, err
+		return plan.Input{}, err
 	}
-	steps, err := intIn("steps", in.Steps, 0, 1, copoly.MaxPlanSteps)
+	steps, err := intIn("steps", in.Steps, 0, 1, plan.MaxSteps)
 	if err != nil {
-		return copoly.PlanInput{}, err
+		return plan.Input{}, err
 	}
 	pi.Shots, pi.Steps = shots, steps
 	if len(in.TimeTable) > 0 {
@@ -910,7 +916,7 @@ func starvedFeed(arg js.Value) (any, error) {
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	inv, f1, err := copoly.Terminal{R1: in.R1, R2: in.R2}.StarvedFeed(in.TargetF1, in.FeedRate, in.RateConstant, in.MolarMass1, in.MolarMass2)
+	inv, f1, err := plan.StarvedFeed(copoly.Terminal{R1: in.R1, R2: in.R2}, in.TargetF1, in.FeedRate, in.RateConstant, in.MolarMass1, in.MolarMass2)
 	if err != nil {
 		return nil, err
 	}

@@ -3,12 +3,14 @@
 package main
 
 import (
+	"copoly/copoly/molarmass"
+)
+
+import (
 	"math"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
-
-	"copoly/copoly"
 )
 
 // Hand case from the definitions of the averages (P. J. Flory, Principles of Polymer Chemistry,
@@ -70,11 +72,11 @@ func TestAverages(t *testing.T) {
 			}
 		}
 		// And exactly what copoly gives.
-		a, err := copoly.SliceAverages([]float64{10000, 30000}, []float64{1, 1})
+		a, err := molarmass.SliceAverages([]float64{10000, 30000}, []float64{1, 1})
 		if err != nil {
 			t.Fatal(err)
 		}
-		c, err := copoly.SizeOf(a, 0.4, 100, 200)
+		c, err := molarmass.SizeOf(a, 0.4, 100, 200)
 		if err != nil {
 			t.Fatal(err)
 		}

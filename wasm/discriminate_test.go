@@ -3,6 +3,10 @@
 package main
 
 import (
+	"copoly/copoly/fit"
+)
+
+import (
 	"math"
 	"syscall/js"
 	"testing"
@@ -14,30 +18,30 @@ import (
 
 // triadSet returns a small set of runs generated from the penultimate model pen (invented
 // ratios) with copoly.Penultimate.Sequence: five runs with the composition and every triad, one
-// with the composition only and one with two triads marked -1; as copoly.TriadRun (not measured
+// with the composition only and one with two triads marked -1; as fit.TriadRun (not measured
 // = -1) and as the JS rows of the d.ts.
-func triadSet(t *testing.T) ([]copoly.TriadRun, []any) {
+func triadSet(t *testing.T) ([]fit.TriadRun, []any) {
 	t.Helper()
-	var runs []copoly.TriadRun
+	var runs []fit.TriadRun
 	var rows []any
 	for _, f := range []float64{0.15, 0.3, 0.5, 0.7, 0.85} {
 		s, err := pen.Sequence(f)
 		if err != nil {
 			t.Fatal(err)
 		}
-		runs = append(runs, copoly.TriadRun{F10: f, F1: s.F1, A111: s.T111, A112: s.T112, A212: s.T212, A222: s.T222, A221: s.T221, A121: s.T121})
+		runs = append(runs, fit.TriadRun{F10: f, F1: s.F1, A111: s.T111, A112: s.T112, A212: s.T212, A222: s.T222, A221: s.T221, A121: s.T121})
 		rows = append(rows, map[string]any{"f10": f, "F1": s.F1, "A111": s.T111, "A112": s.T112, "A212": s.T212, "A222": s.T222, "A221": s.T221, "A121": s.T121})
 	}
 	s, _ := pen.Sequence(0.6)
-	runs = append(runs, copoly.TriadRun{F10: 0.6, F1: s.F1, A111: -1, A112: -1, A212: -1, A222: -1, A221: -1, A121: -1})
+	runs = append(runs, fit.TriadRun{F10: 0.6, F1: s.F1, A111: -1, A112: -1, A212: -1, A222: -1, A221: -1, A121: -1})
 	rows = append(rows, map[string]any{"f10": 0.6, "F1": s.F1})
 	s, _ = pen.Sequence(0.4)
-	runs = append(runs, copoly.TriadRun{F10: 0.4, F1: -1, A111: s.T111, A112: s.T112, A212: s.T212, A222: -1, A221: -1, A121: s.T121})
+	runs = append(runs, fit.TriadRun{F10: 0.4, F1: -1, A111: s.T111, A112: s.T112, A212: s.T212, A222: -1, A221: -1, A121: s.T121})
 	rows = append(rows, map[string]any{"f10": 0.4, "F1": -1, "A111": s.T111, "A112": s.T112, "A212": s.T212, "A222": -1, "A221": nil, "A121": s.T121})
 	return runs, rows
 }
 
-func sameFit(t *testing.T, v js.Value, f copoly.ModelFit) {
+func sameFit(t *testing.T, v js.Value, f fit.ModelFit) {
 	t.Helper()
 	if got := v.Get("model").String(); got != f.Model {
 		t.Errorf("model = %q, want %q", got, f.Model)
@@ -71,7 +75,7 @@ func TestDiscriminate(t *testing.T) {
 	runs, rows := triadSet(t)
 	r := call(api, "discriminate", map[string]any{"runs": rows})
 	wantNoError(t, r)
-	d, err := copoly.Discriminate(runs)
+	d, err := fit.Discriminate(runs)
 	if err != nil {
 		t.Fatal(err)
 	}

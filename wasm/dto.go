@@ -3,6 +3,12 @@
 package main
 
 import (
+	"copoly/copoly/bench"
+	"copoly/copoly/fit"
+	"copoly/copoly/plan"
+)
+
+import (
 	"errors"
 	"fmt"
 	"maps"
@@ -356,7 +362,7 @@ type modelFitOut struct {
 	AICc   float64    `js:"aicc"`
 }
 
-func modelFitDTO(f copoly.ModelFit) modelFitOut {
+func modelFitDTO(f fit.ModelFit) modelFitOut {
 	se := make([]*float64, len(f.SE))
 	for i, x := range f.SE {
 		se[i] = finiteOrNil(x)
@@ -561,7 +567,7 @@ type linearOut struct {
 	Linear    bool      `js:"linear"`
 }
 
-func linearDTO(l *copoly.Linear) linearOut {
+func linearDTO(l *fit.Linear) linearOut {
 	return linearOut{R1: l.R1, R2: l.R2, X: orEmpty(l.X), Y: orEmpty(l.Y), Slope: l.Slope, Intercept: l.Intercept, Alpha: l.Alpha, Linear: true}
 }
 
@@ -578,7 +584,7 @@ type mayoLewisOut struct {
 
 // mayoLewisDTO converts the intersection; its curves (one per run, up to 200 points each: most
 // of a fit's result) only when asked for, as the page does not draw them.
-func mayoLewisDTO(m *copoly.Intersection, curves bool) mayoLewisOut {
+func mayoLewisDTO(m *fit.Intersection, curves bool) mayoLewisOut {
 	out := mayoLewisOut{R1: m.R1, R2: m.R2}
 	if !curves {
 		return out
@@ -603,7 +609,7 @@ type regionOut struct {
 }
 
 // regionDTO returns the region and its boundary as [r1, r2] lists (vert cannot convert [2]float64).
-func regionDTO(r copoly.Region) (regionOut, [][]float64) {
+func regionDTO(r fit.Region) (regionOut, [][]float64) {
 	b := make([][]float64, len(r.Boundary))
 	for i, p := range r.Boundary {
 		b[i] = []float64{p[0], p[1]}
@@ -634,7 +640,7 @@ type nonlinearOut struct {
 	Region      regionOut   `js:"region"`
 }
 
-func nonlinearDTO(n *copoly.Nonlinear) nonlinearOut {
+func nonlinearDTO(n *fit.Nonlinear) nonlinearOut {
 	region, jcr := regionDTO(n.Region)
 	return nonlinearOut{
 		R1: n.R1, R2: n.R2, SE1: finiteOrNil(n.SE1), SE2: finiteOrNil(n.SE2), Corr: finiteOrNil(n.Corr),
@@ -660,7 +666,7 @@ type evmOut struct {
 	Region      regionOut   `js:"region"`
 }
 
-func evmDTO(e *copoly.EVM) evmOut {
+func evmDTO(e *fit.EVM) evmOut {
 	region, jcr := regionDTO(e.Region)
 	return evmOut{
 		R1: e.R1, R2: e.R2, SE1: finiteOrNil(e.SE1), SE2: finiteOrNil(e.SE2), Corr: finiteOrNil(e.Corr),
@@ -730,7 +736,7 @@ type qeOut struct {
 }
 
 // planIn is the argument of plan. The pointer fields are optional; absent means copoly's
-// default (a zero in copoly.PlanInput), and apply checks the few whose zero would silently
+// default (a zero in plan.Input), and apply checks the few whose zero would silently
 // select a default the caller did not ask for.
 type planIn struct {
 	R1              float64     `js:"r1"`
@@ -848,7 +854,7 @@ type planOut struct {
 // planDTO converts a plan: NaN times, pump rates, heat, rise and volumes become null; v1 and v2
 // are the volumes of the charge from the library densities (see millilitres); hazards the
 // library's hazard classes of the monomers named.
-func planDTO(p *copoly.Plan, v1, v2 *float64, hazards []hazardsOut) planOut {
+func planDTO(p *plan.Recipe, v1, v2 *float64, hazards []hazardsOut) planOut {
 	out := planOut{
 		Mode:    p.Mode,
 		StartF1: p.StartF1,
@@ -887,7 +893,7 @@ func planDTO(p *copoly.Plan, v1, v2 *float64, hazards []hazardsOut) planOut {
 	return out
 }
 
-func bandDTO(b copoly.Band) *bandOut {
+func bandDTO(b plan.Band) *bandOut {
 	return &bandOut{Samples: b.Samples, InstLow: orEmpty(b.InstLow), InstHigh: orEmpty(b.InstHigh),
 		CumLow: orEmpty(b.CumLow), CumHigh: orEmpty(b.CumHigh), ProductLow: b.ProductLow, ProductHigh: b.ProductHigh}
 }
@@ -1459,18 +1465,18 @@ func snapshot(v js.Value, t reflect.Type, prefix string) (js.Value, error) {
 // limits are the largest sizes of the inputs that carry a limit:"name" tag: entries of a list,
 // keys of a map, or UTF-16 code units of a text (checked before the text is copied into Go).
 var limits = map[string]int{
-	"runs":      copoly.MaxRuns,
+	"runs":      bench.MaxRuns,
 	"rows":      project.MaxRows,
 	"cells":     project.MaxCells,
 	"jcr":       project.MaxJCRPoints,
-	"timeTable": copoly.MaxTimeRows,
-	"text":      copoly.MaxTableBytes,
+	"timeTable": plan.MaxTimeRows,
+	"text":      bench.MaxBlockBytes,
 
 	"userMonomers": project.MaxUserMonomers,
 	"hazards":      project.MaxHazards,
 
-	"triads":   project.MaxTriadRows,      // = copoly.MaxTriadRuns
-	"sizeBins": project.MaxSizeBins,       // = copoly.MaxAverageRows
+	"triads":   project.MaxTriadRows,      // = fit.MaxTriadRuns
+	"sizeBins": project.MaxSizeBins,       // = molarmass.MaxAverageRows
 	"word":     project.MaxPlanWordLength, // a one-word option such as "model"
 
 	// Texts whose limit copoly counts in characters (runes) or UTF-8 bytes: the bridge counts

@@ -3,6 +3,11 @@
 package main
 
 import (
+	"copoly/copoly/bench"
+	"copoly/copoly/fit"
+)
+
+import (
 	"math"
 	"strings"
 	"syscall/js"
@@ -103,7 +108,7 @@ func TestBenchRuns(t *testing.T) {
 	}
 
 	// A feed by mass needs the molar masses: an error naming molarMass1 without them, the same
-	// feed as copoly.FeedFromMasses with them.
+	// feed as bench.FeedFromMasses with them.
 	mass := jsEval(`({bench: {feedKind: "mass", rows: [{label: "m", cells: {mass1: "10,4", mass2: "12.8", F1: "0.45"}}]}})`)
 	r = call(api, "benchRuns", mass)
 	wantNoError(t, r)
@@ -112,7 +117,7 @@ func TestBenchRuns(t *testing.T) {
 	mass.Set("molarMass2", 128.17)
 	r = call(api, "benchRuns", mass)
 	wantNoError(t, r)
-	if got, want := r.Get("runs").Index(0).Get("f10").Float(), copoly.FeedFromMasses(10.4, 12.8, 104.15, 128.17); !scalar.EqualWithinAbsOrRel(got, want, 1e-15, 1e-15) {
+	if got, want := r.Get("runs").Index(0).Get("f10").Float(), bench.FeedFromMasses(10.4, 12.8, 104.15, 128.17); !scalar.EqualWithinAbsOrRel(got, want, 1e-15, 1e-15) {
 		t.Errorf("f10 from masses = %v, want %v", got, want)
 	}
 	// Zero means "not given", as in a project.
@@ -161,7 +166,7 @@ func TestPasteBench(t *testing.T) {
 	if stringify(empty) != before {
 		t.Errorf("pasteBench changed its argument: %s, was %s", stringify(empty), before)
 	}
-	var want copoly.BenchTable
+	var want bench.Table
 	if err := want.Paste(block); err != nil {
 		t.Fatal(err)
 	}
@@ -206,7 +211,7 @@ func TestPasteBench(t *testing.T) {
 		{"too wide a row", "0,1\t0,2\t0,3\t0,4\t0,5\t0,6\t0,7", "paste", "columns are expected"},
 		{"cell too long to keep", "f10\tF1\n0,5\t" + strings.Repeat("9", 201), "paste", "cannot be kept"},
 		{"label too long to keep", strings.Repeat("L", 201) + "\t0,5\t0,6", "paste", "cannot be kept"},
-		{"text too long", strings.Repeat("0", copoly.MaxTableBytes+1), "text", "the limit is 1048576"},
+		{"text too long", strings.Repeat("0", bench.MaxBlockBytes+1), "text", "the limit is 1048576"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			a := with(c.text)
@@ -249,7 +254,7 @@ func pairsOf(t *testing.T, v js.Value) [][2]float64 {
 
 // checkRegion checks a region object against copoly's and that its jcr is the same closed
 // polygon around the estimate (r1, r2).
-func checkRegion(t *testing.T, fit js.Value, want copoly.Region, r1, r2 float64) {
+func checkRegion(t *testing.T, fit js.Value, want fit.Region, r1, r2 float64) {
 	t.Helper()
 	reg := fit.Get("region")
 	if reg.Get("kind").String() != want.Kind || reg.Get("level").Float() != want.Level || reg.Get("critical").Float() != want.Critical || reg.Get("open").Bool() != want.Open {
@@ -285,7 +290,7 @@ func checkRegion(t *testing.T, fit js.Value, want copoly.Region, r1, r2 float64)
 func TestFit(t *testing.T) {
 	api, _ := testAPI(t)
 	runs, objs := fitRuns()
-	e, err := copoly.Estimate(runs, 0)
+	e, err := fit.Estimate(runs, 0)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -304,7 +309,7 @@ func TestFit(t *testing.T) {
 	// Linear methods.
 	for _, c := range []struct {
 		name  string
-		l     *copoly.Linear
+		l     *fit.Linear
 		alpha bool
 	}{
 		{"fineman-ross", e.FinemanRoss, false},
@@ -380,7 +385,7 @@ func TestFit(t *testing.T) {
 	}
 	for _, c := range []struct {
 		key  string
-		want copoly.Trend
+		want fit.Trend
 	}{{"feed", e.TrendFeed}, {"conversion", e.TrendConversion}} {
 		g := r.Get("trends").Get(c.key)
 		if g.Get("slope").Float() != c.want.Slope || g.Get("pValue").Float() != c.want.PValue || g.Get("flagged").Bool() != c.want.Flagged {
@@ -416,7 +421,7 @@ func TestFitUnweighted(t *testing.T) {
 		delete(o, "sX")
 		delete(o, "sf")
 	}
-	e, err := copoly.Estimate(runs, 0)
+	e, err := fit.Estimate(runs, 0)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -485,15 +490,15 @@ func TestFitErrors(t *testing.T) {
 // are built by hand; no fit produces the second kind today.
 func TestFitValueNotFinite(t *testing.T) {
 	nan, inf := math.NaN(), math.Inf(1)
-	region := copoly.Region{Level: 0.95, Kind: "F", Critical: 1, Boundary: [][2]float64{{0.5, 0.1}, {1, 0.1}, {0.7, 0.3}}, R1Min: 0.5, R1Max: 1, R2Min: 0.1, R2Max: 0.3}
-	e := &copoly.Estimates{
-		FinemanRoss:        &copoly.Linear{R1: 0.8, R2: 0.15, X: []float64{1, 2}, Y: []float64{1, nan}, Slope: 0.8, Intercept: -0.15},
-		KelenTudos:         &copoly.Linear{R1: 0.8, R2: 0.15, X: []float64{0.1, 0.9}, Y: []float64{0.1, 0.5}, Slope: 1, Intercept: 0, Alpha: 0.3},
-		Nonlinear:          &copoly.Nonlinear{R1: 0.8, R2: 0.15, SE1: inf, SE2: inf, Corr: nan, N: 3, DoF: 1, Residuals: []float64{0, 0, 0}, Region: region},
-		EVM:                &copoly.EVM{R1: 0.8, R2: 0.15, SE1: 0.1, SE2: 0.1, Phi: inf, Region: copoly.Region{Kind: "ellipse", Open: true}},
-		Recommended:        copoly.MethodEVM,
-		TrendFeed:          copoly.Trend{Slope: nan, PValue: nan},
-		SwappedFinemanRoss: &copoly.Linear{R1: inf, R2: 0.1},
+	region := fit.Region{Level: 0.95, Kind: "F", Critical: 1, Boundary: [][2]float64{{0.5, 0.1}, {1, 0.1}, {0.7, 0.3}}, R1Min: 0.5, R1Max: 1, R2Min: 0.1, R2Max: 0.3}
+	e := &fit.Estimates{
+		FinemanRoss:        &fit.Linear{R1: 0.8, R2: 0.15, X: []float64{1, 2}, Y: []float64{1, nan}, Slope: 0.8, Intercept: -0.15},
+		KelenTudos:         &fit.Linear{R1: 0.8, R2: 0.15, X: []float64{0.1, 0.9}, Y: []float64{0.1, 0.5}, Slope: 1, Intercept: 0, Alpha: 0.3},
+		Nonlinear:          &fit.Nonlinear{R1: 0.8, R2: 0.15, SE1: inf, SE2: inf, Corr: nan, N: 3, DoF: 1, Residuals: []float64{0, 0, 0}, Region: region},
+		EVM:                &fit.EVM{R1: 0.8, R2: 0.15, SE1: 0.1, SE2: 0.1, Phi: inf, Region: fit.Region{Kind: "ellipse", Open: true}},
+		Recommended:        fit.MethodEVM,
+		TrendFeed:          fit.Trend{Slope: nan, PValue: nan},
+		SwappedFinemanRoss: &fit.Linear{R1: inf, R2: 0.1},
 	}
 	v := fitValue(e, true)
 	m := v.Get("methods")
@@ -520,7 +525,7 @@ func TestFitValueNotFinite(t *testing.T) {
 		}
 	}
 	// An EVM region without a boundary (singular) still gives lists, not null.
-	if b := toJS(evmDTO(&copoly.EVM{Region: copoly.Region{Open: true}})).Get("jcr"); !isArray(b) || b.Length() != 0 {
+	if b := toJS(evmDTO(&fit.EVM{Region: fit.Region{Open: true}})).Get("jcr"); !isArray(b) || b.Length() != 0 {
 		t.Errorf("jcr of an empty region = %s, want []", stringify(b))
 	}
 }
@@ -528,7 +533,7 @@ func TestFitValueNotFinite(t *testing.T) {
 func TestNextRuns(t *testing.T) {
 	api, _ := testAPI(t)
 	runs, objs := fitRuns()
-	check := func(t *testing.T, r js.Value, d copoly.Design) {
+	check := func(t *testing.T, r js.Value, d fit.Design) {
 		t.Helper()
 		wantNoError(t, r)
 		sameFloats(t, "tidwellMortimer", floatsOf(t, r.Get("tidwellMortimer")), d.TidwellMortimer[:])
@@ -547,7 +552,7 @@ func TestNextRuns(t *testing.T) {
 		}
 	}
 	t.Run("no runs", func(t *testing.T) {
-		d, err := copoly.NextRuns(0.8, 0.15, nil, nil)
+		d, err := fit.NextRuns(0.8, 0.15, nil, nil)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -558,11 +563,11 @@ func TestNextRuns(t *testing.T) {
 			t.Errorf("tidwellMortimer = %v, want [0.15/2.15, 2/2.8]", tm)
 		}
 		if r.Get("shrink").Float() != 0 {
-			t.Errorf("shrink with no runs = %v, want 0 (copoly.Design)", r.Get("shrink").Float())
+			t.Errorf("shrink with no runs = %v, want 0 (fit.Design)", r.Get("shrink").Float())
 		}
 	})
 	t.Run("runs and conversions", func(t *testing.T) {
-		d, err := copoly.NextRuns(0.8, 0.15, runs, []float64{0.1, 0.3})
+		d, err := fit.NextRuns(0.8, 0.15, runs, []float64{0.1, 0.3})
 		if err != nil {
 			t.Fatal(err)
 		}

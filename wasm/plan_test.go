@@ -3,6 +3,10 @@
 package main
 
 import (
+	"copoly/copoly/plan"
+)
+
+import (
 	"math"
 	"slices"
 	"strings"
@@ -37,8 +41,8 @@ func planArg(mode string, more ...any) map[string]any {
 }
 
 // planInputOf is the copoly input the bridge should build for planArg(mode) with no options.
-func planInputOf(mode string) copoly.PlanInput {
-	return copoly.PlanInput{Model: copoly.Terminal{R1: 0.8, R2: 0.15}, TargetF1: 0.5,
+func planInputOf(mode string) plan.Input {
+	return plan.Input{Model: copoly.Terminal{R1: 0.8, R2: 0.15}, TargetF1: 0.5,
 		MolarMass1: planMM1, MolarMass2: planMM2, PolymerMass: 1000, Mode: mode}
 }
 
@@ -67,7 +71,7 @@ func column(t *testing.T, r js.Value, key string) []float64 {
 }
 
 // samePlan checks that the result r holds exactly the plan p.
-func samePlan(t *testing.T, r js.Value, p *copoly.Plan) {
+func samePlan(t *testing.T, r js.Value, p *plan.Recipe) {
 	t.Helper()
 	if got := r.Get("mode").String(); got != p.Mode {
 		t.Errorf("mode = %q, want %q", got, p.Mode)
@@ -96,7 +100,7 @@ func samePlan(t *testing.T, r js.Value, p *copoly.Plan) {
 	if got := r.Get("safety").Get("flagged").Bool(); got != p.Safety.Flagged {
 		t.Errorf("safety.flagged = %v, want %v", got, p.Safety.Flagged)
 	}
-	col := func(f func(copoly.PlanRow) float64) []float64 {
+	col := func(f func(plan.Row) float64) []float64 {
 		out := make([]float64, len(p.Schedule))
 		for i, row := range p.Schedule {
 			out[i] = f(row)
@@ -107,17 +111,17 @@ func samePlan(t *testing.T, r js.Value, p *copoly.Plan) {
 		key  string
 		want []float64
 	}{
-		{"conversion", col(func(r copoly.PlanRow) float64 { return r.Conversion })},
-		{"polymer", col(func(r copoly.PlanRow) float64 { return r.Polymer })},
-		{"fed1", col(func(r copoly.PlanRow) float64 { return r.Fed1 })},
-		{"fed2", col(func(r copoly.PlanRow) float64 { return r.Fed2 })},
-		{"f1", col(func(r copoly.PlanRow) float64 { return r.Feed })},
-		{"F1", col(func(r copoly.PlanRow) float64 { return r.Inst })},
-		{"F1cum", col(func(r copoly.PlanRow) float64 { return r.Cum })},
-		{"inventory", col(func(r copoly.PlanRow) float64 { return r.Inventory })},
-		{"time", col(func(r copoly.PlanRow) float64 { return r.Time })},
-		{"pump1", col(func(r copoly.PlanRow) float64 { return r.Pump1 })},
-		{"pump2", col(func(r copoly.PlanRow) float64 { return r.Pump2 })},
+		{"conversion", col(func(r plan.Row) float64 { return r.Conversion })},
+		{"polymer", col(func(r plan.Row) float64 { return r.Polymer })},
+		{"fed1", col(func(r plan.Row) float64 { return r.Fed1 })},
+		{"fed2", col(func(r plan.Row) float64 { return r.Fed2 })},
+		{"f1", col(func(r plan.Row) float64 { return r.Feed })},
+		{"F1", col(func(r plan.Row) float64 { return r.Inst })},
+		{"F1cum", col(func(r plan.Row) float64 { return r.Cum })},
+		{"inventory", col(func(r plan.Row) float64 { return r.Inventory })},
+		{"time", col(func(r plan.Row) float64 { return r.Time })},
+		{"pump1", col(func(r plan.Row) float64 { return r.Pump1 })},
+		{"pump2", col(func(r plan.Row) float64 { return r.Pump2 })},
 	} {
 		sameFloats(t, "schedule."+c.key, column(t, r, c.key), c.want)
 	}
@@ -214,7 +218,7 @@ func TestPlanModes(t *testing.T) {
 	t.Run("batch without names", func(t *testing.T) {
 		r := call(api, "plan", planArg("batch"))
 		wantNoError(t, r)
-		p, err := copoly.MakePlan(planInputOf("batch"))
+		p, err := plan.Make(planInputOf("batch"))
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -243,7 +247,7 @@ func TestPlanModes(t *testing.T) {
 		in := planInputOf("semibatch")
 		in.RateConstant, in.BatchMass, in.Steps = 0.01, 2500, 50
 		in.Heat1, in.Heat2 = styrene.HeatOfPolymerization, nba.HeatOfPolymerization
-		p, err := copoly.MakePlan(in)
+		p, err := plan.Make(in)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -274,7 +278,7 @@ func TestPlanModes(t *testing.T) {
 		wantNoError(t, r)
 		in := planInputOf("semibatch")
 		in.Heat1, in.Heat2 = 60, 0
-		p, err := copoly.MakePlan(in)
+		p, err := plan.Make(in)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -289,9 +293,9 @@ func TestPlanModes(t *testing.T) {
 		r := call(api, "plan", planArg("semibatch", "feed", "mixture", "feedF1", 0.9, "finalConversion", 0.9, "timeTable", table))
 		wantNoError(t, r)
 		in := planInputOf("semibatch")
-		in.Feed, in.FeedF1, in.FinalConversion = copoly.FeedMixture, 0.9, 0.9
+		in.Feed, in.FeedF1, in.FinalConversion = plan.FeedMixture, 0.9, 0.9
 		in.TimeTable = [][2]float64{{0, 0}, {30, 0.2}, {90, 0.6}, {240, 0.97}}
-		p, err := copoly.MakePlan(in)
+		p, err := plan.Make(in)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -312,7 +316,7 @@ func TestPlanModes(t *testing.T) {
 		in := planInputOf("shots")
 		in.HalfLife, in.Shots = 120, 40
 		in.Heat1, in.Heat2 = styrene.HeatOfPolymerization, bd.HeatOfPolymerization
-		p, err := copoly.MakePlan(in)
+		p, err := plan.Make(in)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -341,7 +345,7 @@ func TestPlanModes(t *testing.T) {
 		wantNoError(t, r)
 		in := planInputOf("shots")
 		in.Tolerance = 0.03
-		p, err := copoly.MakePlan(in)
+		p, err := plan.Make(in)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -395,12 +399,12 @@ func TestPlanBand(t *testing.T) {
 			if c.mode == "shots" {
 				in.Shots = 40
 			}
-			p, err := copoly.MakePlan(in)
+			p, err := plan.Make(in)
 			if err != nil {
 				t.Fatal(err)
 			}
 			samePlan(t, r, p)
-			want, err := copoly.PlanBand(in, p, planJCR, c.samples, c.seed)
+			want, err := plan.BandOf(in, p, planJCR, c.samples, c.seed)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -507,7 +511,7 @@ func TestPlanErrors(t *testing.T) {
 // TestPlanNotFinite checks that a plan holding a number that is not finite where the d.ts
 // promises one is refused rather than handed to the page.
 func TestPlanNotFinite(t *testing.T) {
-	p, err := copoly.MakePlan(planInputOf("batch"))
+	p, err := plan.Make(planInputOf("batch"))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -527,7 +531,7 @@ func TestStarvedFeed(t *testing.T) {
 	r := call(api, "starvedFeed", arg)
 	wantNoError(t, r)
 	m := copoly.Terminal{R1: 0.8, R2: 0.15}
-	inv, f1, err := m.StarvedFeed(0.5, 5, 0.01, planMM1, planMM2)
+	inv, f1, err := plan.StarvedFeed(m, 0.5, 5, 0.01, planMM1, planMM2)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -1,6 +1,10 @@
 package project
 
 import (
+	"copoly/copoly/bench"
+)
+
+import (
 	"errors"
 	"fmt"
 	"maps"
@@ -13,32 +17,32 @@ import (
 
 // Limits on the bench-data grid of a project. MaxCells and MaxCellLength are design choices of
 // copoly that keep a project file small; the row and label limits are copoly's own
-// (copoly.MaxRuns, copoly.MaxLabelLength), so that every grid a project holds can be converted.
+// (bench.MaxRuns, bench.MaxLabelLength), so that every grid a project holds can be converted.
 const (
-	MaxRows        = copoly.MaxRuns        // rows in the grid
-	MaxCells       = 64                    // cells in one row
-	MaxCellLength  = 200                   // characters in one cell, and in Bench.Element
-	MaxLabelLength = copoly.MaxLabelLength // characters in a row label
-	MaxJCRPoints   = 4096                  // points of Project.JCR
+	MaxRows        = bench.MaxRuns        // rows in the grid
+	MaxCells       = 64                   // cells in one row
+	MaxCellLength  = 200                  // characters in one cell, and in Bench.Element
+	MaxLabelLength = bench.MaxLabelLength // characters in a row label
+	MaxJCRPoints   = 4096                 // points of Project.JCR
 )
 
 // ErrNotAllowed reports a word that is not among those a field accepts, such as an unknown
 // entry form or cell key.
 var ErrNotAllowed = errors.New("project: value not among those allowed")
 
-// Bench is the bench-data grid of a project: [copoly.BenchTable] with the keys of the project
+// Bench is the bench-data grid of a project: [bench.Table] with the keys of the project
 // file and of the BenchTable of the JavaScript API. Cells are kept as typed, so a cell that is
-// not (yet) a number is not an error here; [copoly.BenchTable.Runs] reports it when the runs are
+// not (yet) a number is not an error here; [bench.Table.Runs] reports it when the runs are
 // converted.
 type Bench struct {
-	// FeedKind is copoly.FeedFraction, FeedMass, FeedMoles or "" (fraction).
+	// FeedKind is bench.FeedFraction, FeedMass, FeedMoles or "" (fraction).
 	FeedKind string `json:"feedKind"`
-	// ConversionKind is copoly.ConversionNone, ConversionMolar, ConversionMass or "" (none).
+	// ConversionKind is bench.ConversionNone, ConversionMolar, ConversionMass or "" (none).
 	ConversionKind string `json:"conversionKind"`
-	// CompositionKind is copoly.CompositionFraction, CompositionMassFraction, CompositionNMR,
+	// CompositionKind is bench.CompositionFraction, CompositionMassFraction, CompositionNMR,
 	// CompositionElement or "" (fraction).
 	CompositionKind string `json:"compositionKind"`
-	// Element, Carrier and ElementCount describe an elemental analysis as in copoly.RunInput;
+	// Element, Carrier and ElementCount describe an elemental analysis as in bench.RunInput;
 	// Carrier is 1 or 2, or 0 when not chosen, and ElementCount ≥ 0 (0 = not given).
 	Element      string     `json:"element"`
 	Carrier      int        `json:"carrier"`
@@ -47,30 +51,30 @@ type Bench struct {
 }
 
 // BenchRow is one row of a Bench: a label and the text of each cell, keyed by column
-// (copoly.ColF10, copoly.ColF1, …).
+// (bench.ColF10, bench.ColF1, …).
 type BenchRow struct {
 	Label string            `json:"label"`
 	Cells map[string]string `json:"cells"`
 }
 
-// Table returns b as a copoly.BenchTable. The rows and cells are copied, so changing the table
-// (copoly.BenchTable.Paste appends rows) leaves b as it was.
-func (b Bench) Table() copoly.BenchTable {
-	t := copoly.BenchTable{
+// Table returns b as a bench.Table. The rows and cells are copied, so changing the table
+// (bench.Table.Paste appends rows) leaves b as it was.
+func (b Bench) Table() bench.Table {
+	t := bench.Table{
 		FeedKind: b.FeedKind, ConversionKind: b.ConversionKind, CompositionKind: b.CompositionKind,
 		Element: b.Element, Carrier: b.Carrier, ElementCount: b.ElementCount,
 	}
 	if b.Rows != nil {
-		t.Rows = make([]copoly.BenchRow, len(b.Rows))
+		t.Rows = make([]bench.Row, len(b.Rows))
 		for i, r := range b.Rows {
-			t.Rows[i] = copoly.BenchRow{Label: r.Label, Cells: maps.Clone(r.Cells)}
+			t.Rows[i] = bench.Row{Label: r.Label, Cells: maps.Clone(r.Cells)}
 		}
 	}
 	return t
 }
 
-// BenchOf returns the copoly.BenchTable t as a Bench, copying its rows and cells.
-func BenchOf(t copoly.BenchTable) Bench {
+// BenchOf returns the bench.Table t as a Bench, copying its rows and cells.
+func BenchOf(t bench.Table) Bench {
 	b := Bench{
 		FeedKind: t.FeedKind, ConversionKind: t.ConversionKind, CompositionKind: t.CompositionKind,
 		Element: t.Element, Carrier: t.Carrier, ElementCount: t.ElementCount,
@@ -86,20 +90,20 @@ func BenchOf(t copoly.BenchTable) Bench {
 
 // Words accepted by the kind fields of a Bench; "" selects the first form of each.
 var (
-	feedKinds        = []string{"", copoly.FeedFraction, copoly.FeedMass, copoly.FeedMoles}
-	conversionKinds  = []string{"", copoly.ConversionNone, copoly.ConversionMolar, copoly.ConversionMass}
-	compositionKinds = []string{"", copoly.CompositionFraction, copoly.CompositionMassFraction, copoly.CompositionNMR, copoly.CompositionElement}
+	feedKinds        = []string{"", bench.FeedFraction, bench.FeedMass, bench.FeedMoles}
+	conversionKinds  = []string{"", bench.ConversionNone, bench.ConversionMolar, bench.ConversionMass}
+	compositionKinds = []string{"", bench.CompositionFraction, bench.CompositionMassFraction, bench.CompositionNMR, bench.CompositionElement}
 )
 
-// cellKeys are the cell keys a row may hold: every column of every form of copoly.BenchTable.
+// cellKeys are the cell keys a row may hold: every column of every form of bench.Table.
 // A row may keep cells of a form the table no longer uses (the chemist switched forms), so the
 // keys are not checked against the table's current columns.
 var cellKeys = map[string]bool{
-	copoly.ColF10: true, copoly.ColMass1: true, copoly.ColMass2: true, copoly.ColMoles1: true, copoly.ColMoles2: true,
-	copoly.ColConversion: true,
-	copoly.ColF1:         true, copoly.ColMassFraction1: true, copoly.ColIntegral1: true, copoly.ColProtons1: true,
-	copoly.ColIntegral2: true, copoly.ColProtons2: true, copoly.ColElementPercent: true,
-	copoly.ColSF: true, copoly.ColSX: true, copoly.ColSf: true,
+	bench.ColF10: true, bench.ColMass1: true, bench.ColMass2: true, bench.ColMoles1: true, bench.ColMoles2: true,
+	bench.ColConversion: true,
+	bench.ColF1:         true, bench.ColMassFraction1: true, bench.ColIntegral1: true, bench.ColProtons1: true,
+	bench.ColIntegral2: true, bench.ColProtons2: true, bench.ColElementPercent: true,
+	bench.ColSF: true, bench.ColSX: true, bench.ColSf: true,
 }
 
 // CheckBench reports the first structural problem of b as a *copoly.InputError or
@@ -107,7 +111,7 @@ var cellKeys = map[string]bool{
 // "project.bench.rows[3].cells.f10"), or nil. It checks the kind words, the carrier (0, 1 or 2),
 // a finite ElementCount ≥ 0, at most MaxRows rows, and in each row a label of at most
 // MaxLabelLength characters and at most MaxCells cells, each keyed by a column of
-// copoly.BenchTable and at most MaxCellLength characters long. What the cells say is not
+// bench.Table and at most MaxCellLength characters long. What the cells say is not
 // checked.
 func CheckBench(field string, b Bench) error {
 	for _, k := range []struct {

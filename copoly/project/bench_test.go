@@ -1,10 +1,12 @@
 package project
 
 import (
+	"copoly/copoly/fit"
+)
+
+import (
 	"reflect"
 	"testing"
-
-	"copoly/copoly"
 )
 
 func TestBenchTableRoundTrip(t *testing.T) {
@@ -39,7 +41,7 @@ func TestBenchTableRoundTrip(t *testing.T) {
 }
 
 // TestDemoBenchFits checks the invented demo runs against what demoBench documents: every row
-// converts without error, and the weighted nonlinear fit (copoly.Estimate) places r1 = 0.80,
+// converts without error, and the weighted nonlinear fit (fit.Estimate) places r1 = 0.80,
 // r2 = 0.15, the values the runs were generated from, inside its 95 % joint confidence region.
 func TestDemoBenchFits(t *testing.T) {
 	p := Demo()
@@ -52,7 +54,7 @@ func TestDemoBenchFits(t *testing.T) {
 			t.Errorf("demo bench row %d = %+v, want sF 0.01 and a conversion", i, runs[i])
 		}
 	}
-	e, err := copoly.Estimate(runs, 0)
+	e, err := fit.Estimate(runs, 0)
 	if err != nil {
 		t.Fatalf("Estimate(demo runs) = %v", err)
 	}

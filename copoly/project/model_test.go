@@ -1,6 +1,11 @@
 package project
 
 import (
+	"copoly/copoly/fit"
+	"copoly/copoly/molarmass"
+)
+
+import (
 	"errors"
 	"math"
 	"reflect"
@@ -160,15 +165,15 @@ func TestParsePanels(t *testing.T) {
 }
 
 func TestTriadRowRun(t *testing.T) {
-	// Absent and NotMeasured both become a value below 0, which copoly.TriadRun reads as not
+	// Absent and NotMeasured both become a value below 0, which fit.TriadRun reads as not
 	// measured (its doc comment).
 	r := TriadRow{F10: 0.4, F1: num(0.5), A121: num(NotMeasured)}.Run()
-	want := copoly.TriadRun{F10: 0.4, F1: 0.5, A111: -1, A112: -1, A212: -1, A222: -1, A221: -1, A121: -1}
+	want := fit.TriadRun{F10: 0.4, F1: 0.5, A111: -1, A112: -1, A212: -1, A222: -1, A221: -1, A121: -1}
 	if r != want {
 		t.Errorf("Run() = %+v, want %+v", r, want)
 	}
 	b := SizeBin{Low: 1, High: 2, NumberFraction: 3, WeightFraction: 4}.Bin()
-	if b != (copoly.Bin{Low: 1, High: 2, Number: 3, Weight: 4}) {
+	if b != (molarmass.Bin{Low: 1, High: 2, Number: 3, Weight: 4}) {
 		t.Errorf("Bin() = %+v, want the same four numbers", b)
 	}
 }

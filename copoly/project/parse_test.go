@@ -1,6 +1,10 @@
 package project
 
 import (
+	"copoly/copoly/bench"
+)
+
+import (
 	"bytes"
 	"errors"
 	"fmt"
@@ -106,7 +110,7 @@ func TestValidateRefusesInvalidUTF8(t *testing.T) {
 		{"name", func(p *Project) { p.Name = "run \xff" }, "project.name"},
 		{"monomer name", func(p *Project) { p.Monomer2.Name = "\xed\xa0\x80" }, "project.monomer2.name"},
 		{"notes", func(p *Project) { p.Notes = "ok\xc1" }, "project.notes"},
-		{"bench cell", func(p *Project) { p.Bench.Rows[0].Cells[copoly.ColF1] = "\xc1" }, "project.bench.rows[0].cells.F1"},
+		{"bench cell", func(p *Project) { p.Bench.Rows[0].Cells[bench.ColF1] = "\xc1" }, "project.bench.rows[0].cells.F1"},
 		{"bench label", func(p *Project) { p.Bench.Rows[2].Label = "\x80" }, "project.bench.rows[2].label"},
 		{"hazard", func(p *Project) { p.UserMonomers = []UserMonomer{{Name: "X", Hazards: []string{"\xfe"}}} }, "project.userMonomers[0].hazards[0]"},
 	}
@@ -364,9 +368,9 @@ func FuzzProjectRoundTrip(f *testing.F) {
 	f.Add("\xff", "a\x00b", "\xed\xa0\x80", "\u2028", "\"", uint8(7), -0.0, 1e4+1, 1.0, 0.0, 0.0, -1.0, 1.0, -0.0, math.NaN(), math.Inf(1), 1001.0, -1.0, 1.5, "Batch", " ", "2026-13-01")
 	f.Add(strings.Repeat("é", MaxNameLength), strings.Repeat("\u00e9", MaxNotesBytes/2), "s", strings.Repeat("x", MaxLabelLength+1), strings.Repeat("9", MaxCellLength),
 		uint8(15), 5e-324, math.MaxFloat64, 0.999999999, 1e-300, 0.49999, 999999.9, 1e-10, 1e308, 1e-308, 1e-7, 999.999, 1e15, 1.0, "shots", strings.Repeat("h", MaxHazardLength+1), "2026-01-02T03:04:05.123456789+14:00")
-	keys := []string{copoly.ColF10, copoly.ColMass1, copoly.ColMass2, copoly.ColMoles1, copoly.ColMoles2, copoly.ColConversion, copoly.ColF1,
-		copoly.ColMassFraction1, copoly.ColIntegral1, copoly.ColProtons1, copoly.ColIntegral2, copoly.ColProtons2,
-		copoly.ColElementPercent, copoly.ColSF, copoly.ColSX, copoly.ColSf, "label", "F", ""}
+	keys := []string{bench.ColF10, bench.ColMass1, bench.ColMass2, bench.ColMoles1, bench.ColMoles2, bench.ColConversion, bench.ColF1,
+		bench.ColMassFraction1, bench.ColIntegral1, bench.ColProtons1, bench.ColIntegral2, bench.ColProtons2,
+		bench.ColElementPercent, bench.ColSF, bench.ColSX, bench.ColSf, "label", "F", ""}
 	f.Fuzz(func(t *testing.T, name, notes, source, label, cell string, key uint8, r1, r2, f10, conv, tol, mm, level, j1, j2, r11, heat, tt0, tt1 float64,
 		mode, hazard, savedAt string) {
 		p := Demo()

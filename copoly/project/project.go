@@ -65,6 +65,11 @@
 package project
 
 import (
+	"copoly/copoly/bench"
+	"copoly/copoly/plan"
+)
+
+import (
 	"errors"
 	"fmt"
 	"math"
@@ -334,7 +339,7 @@ func Demo() Project {
 		// semi-batch making 1 kg of a 50:50 (mol) copolymer, an assumed first-order rate
 		// constant, and an assumed 2.5 kg reactor charge for the adiabatic-rise check.
 		Plan: &Plan{
-			Mode:         copoly.PlanSemibatch,
+			Mode:         plan.ModeSemibatch,
 			TargetF1:     0.5,
 			PolymerMass:  1000,
 			Tolerance:    0.02,
@@ -363,14 +368,14 @@ func demoBench() Bench {
 		{"HL-08 (invented)", "0.850", "0.080", "0.841"},
 	}
 	b := Bench{
-		FeedKind:        copoly.FeedFraction,
-		ConversionKind:  copoly.ConversionMolar,
-		CompositionKind: copoly.CompositionFraction,
+		FeedKind:        bench.FeedFraction,
+		ConversionKind:  bench.ConversionMolar,
+		CompositionKind: bench.CompositionFraction,
 		Rows:            make([]BenchRow, len(rows)),
 	}
 	for i, r := range rows {
 		b.Rows[i] = BenchRow{Label: r.label, Cells: map[string]string{
-			copoly.ColF10: r.f10, copoly.ColConversion: r.x, copoly.ColF1: r.F1, copoly.ColSF: "0.010",
+			bench.ColF10: r.f10, bench.ColConversion: r.x, bench.ColF1: r.F1, bench.ColSF: "0.010",
 		}}
 	}
 	return b

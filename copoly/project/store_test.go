@@ -1,6 +1,10 @@
 package project
 
 import (
+	"copoly/copoly/bench"
+)
+
+import (
 	"errors"
 	"io/fs"
 	"reflect"
@@ -417,7 +421,7 @@ func TestSaveOversizedRefused(t *testing.T) {
 	// revision it would not: the store refuses it rather than write a file Load could not read.
 	p := Demo()
 	p.Notes = ""
-	p.Bench = &Bench{FeedKind: copoly.FeedFraction, ConversionKind: copoly.ConversionMolar, CompositionKind: copoly.CompositionFraction}
+	p.Bench = &Bench{FeedKind: bench.FeedFraction, ConversionKind: bench.ConversionMolar, CompositionKind: bench.CompositionFraction}
 	size := func() int {
 		data, err := Marshal(p)
 		if err != nil {

@@ -1,6 +1,10 @@
 package project
 
 import (
+	"copoly/copoly/fit"
+)
+
+import (
 	"fmt"
 	"math"
 
@@ -8,16 +12,16 @@ import (
 )
 
 // MaxTriadRows is the largest number of rows of Project.Triads: copoly's own limit
-// (copoly.MaxTriadRuns), so that every table a project holds can be compared.
-const MaxTriadRows = copoly.MaxTriadRuns
+// (fit.MaxTriadRuns), so that every table a project holds can be compared.
+const MaxTriadRows = fit.MaxTriadRuns
 
 // NotMeasured is the value that marks a measurement of a TriadRow as not made, as an
-// alternative to leaving it out (copoly.TriadRun reads any value below 0 so).
+// alternative to leaving it out (fit.TriadRun reads any value below 0 so).
 const NotMeasured = -1
 
 // TriadRow is one row of the measured-triads table as entered: a low-conversion copolymer
 // made from feed F10, with its composition F1 and its monomer-centred triad fractions (¹³C NMR)
-// in the convention of copoly.TriadRun (A112 counts 112 and 211, A221 counts 221 and 122). It is
+// in the convention of fit.TriadRun (A112 counts 112 and 211, A221 counts 221 and 122). It is
 // the TriadRow of the JavaScript API. A measurement left out (nil) or equal to NotMeasured was
 // not made; the values are kept as typed, so the family sums are not checked here.
 type TriadRow struct {
@@ -34,15 +38,15 @@ type TriadRow struct {
 	A121 *float64 `json:"A121,omitempty"`
 }
 
-// Run returns the row as a copoly.TriadRun, with NotMeasured for each measurement left out.
-func (r TriadRow) Run() copoly.TriadRun {
+// Run returns the row as a fit.TriadRun, with NotMeasured for each measurement left out.
+func (r TriadRow) Run() fit.TriadRun {
 	v := func(p *float64) float64 {
 		if p == nil {
 			return NotMeasured
 		}
 		return *p
 	}
-	return copoly.TriadRun{F10: r.F10, F1: v(r.F1),
+	return fit.TriadRun{F10: r.F10, F1: v(r.F1),
 		A111: v(r.A111), A112: v(r.A112), A212: v(r.A212),
 		A222: v(r.A222), A221: v(r.A221), A121: v(r.A121)}
 }

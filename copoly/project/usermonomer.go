@@ -15,8 +15,8 @@ const (
 	MaxUserMonomers    = 100  // entries of Project.UserMonomers
 	MaxHazards         = 20   // hazards of one user monomer
 	MaxHazardLength    = 100  // characters in one hazard
-	MaxUserDensity     = 25   // g/mL: the largest density copoly.MakePlan takes
-	MaxUserHeat        = 1000 // kJ/mol: the largest heat of polymerization copoly.MakePlan takes
+	MaxUserDensity     = 25   // g/mL: the largest density plan.Make takes
+	MaxUserHeat        = 1000 // kJ/mol: the largest heat of polymerization plan.Make takes
 	MaxUserDensityTemp = 1000 // °C
 )
 

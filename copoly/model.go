@@ -1,0 +1,10 @@
+package copoly
+
+// Model is a copolymerization model: it gives the instantaneous copolymer composition of a
+// feed. [Terminal], [Penultimate] and [Implicit] implement it.
+type Model interface {
+	// Validate reports invalid parameters as an [*InputError] naming them.
+	Validate() error
+	// Instantaneous returns F1 at feed f1 (0 ≤ f1 ≤ 1).
+	Instantaneous(f1 float64) float64
+}
