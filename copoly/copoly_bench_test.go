@@ -49,7 +49,8 @@ func BenchmarkConversionLimit(b *testing.B) {
 	m := Terminal{0.40, 0.04}
 	b.ReportAllocs()
 	for b.Loop() {
-		sinkX, _ = m.ConversionLimit(0.3, 0.02)
+		bt, _ := NewBatch(m, 0.3)
+		sinkX, _ = bt.ConversionLimit(0.02)
 	}
 }
 
@@ -58,7 +59,8 @@ func BenchmarkCompositionDistribution(b *testing.B) {
 	m := Terminal{0.40, 0.04}
 	b.ReportAllocs()
 	for b.Loop() {
-		sinkH, _ = m.CompositionDistribution(0.3, 0.95, 20, 104.152, 53.064)
+		bt, _ := NewBatch(m, 0.3)
+		sinkH, _ = bt.Distribution(0.95, 20, 104.152, 53.064)
 	}
 }
 
@@ -75,7 +77,8 @@ func BenchmarkSequence(b *testing.B) {
 	b.Run("batch", func(b *testing.B) {
 		b.ReportAllocs()
 		for b.Loop() {
-			sinkS, _ = m.BatchSequence(0.3, 0.95)
+			bt, _ := NewBatch(m, 0.3)
+			sinkS, _ = bt.Sequence(0.95)
 		}
 	})
 }

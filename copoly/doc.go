@@ -36,6 +36,18 @@
 //     ratios, each value with its source: [Monomers], [PropertiesOf], [QEOf], [Pairs],
 //     [MolarMassOf]; Q–e screening estimates ([RatiosFromQE]).
 //
+// Every [Model] gives its composition ([Model.Instantaneous]) and its sequence statistics
+// ([Model.Sequence]), so that a caller needs no type switch.
+//
+// # One call per panel
+//
+// Each view of the page is one call, so that the bridge in wasm/ only converts: the
+// composition curve ([CompositionOf]), a batch followed to a list of conversions with its
+// conversion limit and composition distribution ([ProfileOf]), the sequences at a feed and over a
+// batch ([MicrostructureOf]), simulated chains with their histogram and Stockmayer's
+// distribution ([SimulateChains]), the built-in list ([Library]) and a Q–e estimate
+// ([QEPairOf]). The other packages do the same for their panels.
+//
 // # Packages
 //
 // Each concept beyond the models has its own package, which imports this one and

@@ -467,9 +467,18 @@ func (b *Batch) checkConversions(xs []float64) error {
 		if i > 0 && x < xs[i-1] {
 			return &InputError{Field: field, Value: x, Reason: fmt.Sprintf("conversions must not decrease (the one before is %g)", xs[i-1]), Err: ErrOutOfRange}
 		}
-		if x > b.xmax {
-			return &InputError{Field: field, Value: x, Reason: fmt.Sprintf("polymerization stops at X = %.4g: M%d is used up and the other monomer cannot add to its own radical (r = 0)", b.xmax, 1+int(b.end)), Err: ErrOutOfRange}
+		if err := b.checkConversion(field, x); err != nil {
+			return err
 		}
+	}
+	return nil
+}
+
+// checkConversion reports a conversion x (already in [0, 1]) past the end of the batch, naming
+// field.
+func (b *Batch) checkConversion(field string, x float64) error {
+	if x > b.xmax {
+		return &InputError{Field: field, Value: x, Reason: fmt.Sprintf("polymerization stops at X = %.4g: M%d is used up and the other monomer cannot add to its own radical (r = 0)", b.xmax, 1+int(b.end)), Err: ErrOutOfRange}
 	}
 	return nil
 }
@@ -489,18 +498,10 @@ func (b *Batch) checkConversions(xs []float64) error {
 // References:
 //   - I. Skeist, J. Am. Chem. Soc. 1946, 68, 1781.
 //   - V. E. Meyer, G. G. Lowry, J. Polym. Sci. A 1965, 3, 2843.
+//
+// It is the shorthand for NewBatch(m, f10) and [Batch.Drift], which take any [Model].
 func (m Terminal) Drift(f10 float64, conversion []float64) (*Drift, error) {
 	b, err := newBatch(m, f10)
-	if err != nil {
-		return nil, err
-	}
-	return b.Drift(conversion)
-}
-
-// DriftOf is [Terminal.Drift] for any model: for a [Penultimate] or [Implicit] model the
-// Skeist equation is integrated numerically (the Meyer–Lowry form is terminal only).
-func DriftOf(model Model, f10 float64, conversion []float64) (*Drift, error) {
-	b, err := NewBatch(model, f10)
 	if err != nil {
 		return nil, err
 	}

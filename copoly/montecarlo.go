@@ -29,6 +29,10 @@ type ChainOptions struct {
 	// Samples is the number of chains returned as strings (default 12), each cut at
 	// SampleUnits units (default 200).
 	Samples, SampleUnits int
+	// Bins, when above 0, asks for the histogram of the chain compositions on that many bins
+	// ([ChainStats.Histogram]) and, for a [Terminal] model at a constant feed with a DPn,
+	// Stockmayer's distribution on the same bins ([Terminal.Stockmayer]).
+	Bins int
 }
 
 // Limits of [SimulateChains]: chains, and units grown in all (which bounds the time of a call).
@@ -62,6 +66,12 @@ type ChainStats struct {
 	// distribution with p = 1 − 1/DPn, where F and P are the composition and the
 	// self-propagation probability of the other monomer. NaN with drift or another model.
 	ExpectedNonFunctional float64
+	// Composition is the histogram of the chain compositions, each chain weighted by its units,
+	// on [ChainOptions.Bins] bins; its Edges are nil when no bins were asked for.
+	Composition Histogram
+	// Stockmayer holds Stockmayer's weight fractions on the bins of Composition for a terminal
+	// model at a constant feed with a DPn; nil otherwise.
+	Stockmayer []float64
 }
 
 // chainStep holds the growth probabilities at one feed: the stationary dyad states (11, 12, 21,
@@ -147,6 +157,9 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 	}
 	if opt.Samples < 0 || opt.Samples > 1000 || opt.SampleUnits < 1 || opt.SampleUnits > 10000 {
 		return nil, &InputError{Field: "samples", Value: float64(opt.Samples), Reason: "at most 1000 sample chains of at most 10000 units", Err: ErrOutOfRange}
+	}
+	if opt.Bins < 0 || opt.Bins > MaxBins {
+		return nil, &InputError{Field: "bins", Value: float64(opt.Bins), Reason: fmt.Sprintf("the number of bins must be between 1 and %d", MaxBins), Err: ErrOutOfRange}
 	}
 	var pm Penultimate
 	switch m := opt.Model.(type) {
@@ -310,6 +323,18 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 				st.ExpectedNonFunctional = F * (1 - p) / (1 - p*P)
 			} else {
 				st.ExpectedNonFunctional = F * math.Pow(P, float64(opt.Length-1))
+			}
+		}
+	}
+	if opt.Bins > 0 {
+		h, err := st.Histogram(opt.Bins)
+		if err != nil {
+			return nil, err
+		}
+		st.Composition = h
+		if t, ok := opt.Model.(Terminal); ok && opt.DPn > 0 && opt.Conversion == 0 {
+			if st.Stockmayer, err = t.Stockmayer(opt.F10, opt.DPn, h.Edges); err != nil {
+				return nil, err
 			}
 		}
 	}

@@ -1,12 +1,10 @@
 package copoly
 
 import (
-	"gonum.org/v1/gonum/stat/distuv"
-)
-
-import (
 	"math"
 	"testing"
+
+	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // The Monte Carlo checks compare seeded simulations with analytic results within a stated number
@@ -223,5 +221,46 @@ func TestSimulateChainsPoissonLimit(t *testing.T) {
 			t.Errorf("chains with %d functional units: %.5f of %d, Poisson(%g) %.5f (binomial %.5f), beyond %.5f",
 				k, got, count, n*f2, pp, pb, tol)
 		}
+	}
+}
+
+// TestSimulateChainsBins: with Bins the statistics carry the histogram of the chains
+// ([ChainStats.Histogram]) and, for the terminal model at a constant feed with a DPn only,
+// Stockmayer's distribution on the same bins; without Bins neither.
+func TestSimulateChainsBins(t *testing.T) {
+	m := Terminal{0.80, 0.15}
+	for _, tc := range []struct {
+		opt        ChainOptions
+		stockmayer bool
+	}{
+		{ChainOptions{Model: m, F10: 0.5, DPn: 50, Count: 500, Seed: 3, Bins: 12}, true},
+		{ChainOptions{Model: m, F10: 0.5, Length: 50, Count: 500, Seed: 3, Bins: 12}, false},
+		{ChainOptions{Model: m, F10: 0.5, DPn: 50, Conversion: 0.5, Count: 500, Seed: 3, Bins: 12}, false},
+		{ChainOptions{Model: Penultimate{0.9, 0.6, 0.2, 0.1}, F10: 0.5, DPn: 50, Count: 500, Seed: 3, Bins: 12}, false},
+	} {
+		st, err := SimulateChains(tc.opt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		h, _ := st.Histogram(12)
+		if !sameFloats(st.Composition.Edges, h.Edges) || !sameFloats(st.Composition.Weights, h.Weights) {
+			t.Errorf("%+v: composition %+v, want Histogram(12) %+v", tc.opt, st.Composition, h)
+		}
+		if (st.Stockmayer != nil) != tc.stockmayer {
+			t.Fatalf("%+v: Stockmayer %v, want one: %v", tc.opt, st.Stockmayer, tc.stockmayer)
+		}
+		if tc.stockmayer {
+			want, _ := m.Stockmayer(0.5, 50, h.Edges)
+			if !sameFloats(st.Stockmayer, want) {
+				t.Errorf("Stockmayer %v, want %v", st.Stockmayer, want)
+			}
+		}
+	}
+	st, _ := SimulateChains(ChainOptions{Model: m, F10: 0.5, DPn: 50, Count: 10, Seed: 3})
+	if st.Composition.Edges != nil || st.Stockmayer != nil {
+		t.Errorf("without Bins: composition %+v, Stockmayer %v, want neither", st.Composition, st.Stockmayer)
+	}
+	if _, err := SimulateChains(ChainOptions{Model: m, F10: 0.5, DPn: 50, Count: 10, Seed: 3, Bins: MaxBins + 1}); Field(err) != "bins" {
+		t.Errorf("bins %d: error %v, want one naming bins", MaxBins+1, err)
 	}
 }

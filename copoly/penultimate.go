@@ -189,6 +189,16 @@ func (m Implicit) Penultimate() Penultimate { return Penultimate{m.R1, m.R1, m.R
 // Instantaneous returns F1 at feed f1: the terminal Mayo–Lewis composition.
 func (m Implicit) Instantaneous(f1 float64) float64 { return Terminal{m.R1, m.R2}.Instantaneous(f1) }
 
+// Sequence returns the sequence statistics of the copolymer formed at feed f1: those of the
+// equivalent explicit model ([Implicit.Penultimate]), which are the terminal model's (the radical
+// reactivity ratios change the rate, not the chain).
+func (m Implicit) Sequence(f1 float64) (Sequence, error) {
+	if err := m.Validate(); err != nil {
+		return Sequence{}, err
+	}
+	return m.Penultimate().Sequence(f1)
+}
+
 // MeanPropagation returns the mean propagation rate coefficient k̄p at feed f1, in the units of
 // the homopropagation coefficients k111 and k222:
 //

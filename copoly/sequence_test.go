@@ -62,6 +62,23 @@ func TestSequenceLimits(t *testing.T) {
 	}
 }
 
+// drift and batchSequence call the methods of the batch of m from f10, as the tests use them.
+func drift(m Model, f10 float64, xs []float64) (*Drift, error) {
+	b, err := NewBatch(m, f10)
+	if err != nil {
+		return nil, err
+	}
+	return b.Drift(xs)
+}
+
+func batchSequence(m Model, f10, x float64) (Sequence, error) {
+	b, err := NewBatch(m, f10)
+	if err != nil {
+		return Sequence{}, err
+	}
+	return b.Sequence(x)
+}
+
 func TestBatchSequence(t *testing.T) {
 	for _, tc := range []struct {
 		m      Terminal
@@ -71,7 +88,7 @@ func TestBatchSequence(t *testing.T) {
 		{Terminal{1.88, 0.43}, 0.5, 0.9}, // MMA/n-BA, Polymer Handbook table
 		{Terminal{1, 0.5}, 0.4, 0.5},     // Skeist ODE path
 	} {
-		s, err := tc.m.BatchSequence(tc.f10, tc.x)
+		s, err := batchSequence(tc.m, tc.f10, tc.x)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -95,10 +112,10 @@ func TestBatchSequence(t *testing.T) {
 			t.Errorf("runs of M1 %v, of M2 %v, D12/2 %v", a, b, s.D12/2)
 		}
 		// Conversion → 0 gives the statistics at the feed.
-		s0, _ := tc.m.BatchSequence(tc.f10, 0)
+		s0, _ := batchSequence(tc.m, tc.f10, 0)
 		s1, _ := tc.m.Sequence(tc.f10)
 		if s0 != s1 {
-			t.Errorf("BatchSequence(X = 0) = %+v, want Sequence(f10) = %+v", s0, s1)
+			t.Errorf("Batch.Sequence(X = 0) = %+v, want Sequence(f10) = %+v", s0, s1)
 		}
 	}
 }

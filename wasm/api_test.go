@@ -101,7 +101,11 @@ func TestDrift(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	limit, err := m.ConversionLimit(0.5, 0.05)
+	batch, err := copoly.NewBatch(m, 0.5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	limit, err := batch.ConversionLimit(0.05)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -119,7 +123,7 @@ func TestDrift(t *testing.T) {
 		if got := r.Get("limit"); got.Get("tolerance").Float() != 0.05 || got.Get("conversion").Float() != limit {
 			t.Errorf("limit = %s, want tolerance 0.05, conversion %v", stringify(got), limit)
 		}
-		h, err := m.CompositionDistribution(0.5, 0.9, 5, 0, 0)
+		h, err := batch.Distribution(0.9, 5, 0, 0)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -223,7 +227,11 @@ func TestSequence(t *testing.T) {
 	if got := r.Get("runLengths").Get("length").Length(); got != 20 {
 		t.Errorf("default maxLength gives %d run lengths, want 20", got)
 	}
-	b, err := m.BatchSequence(0.4, 0.8)
+	batch, err := copoly.NewBatch(m, 0.4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := batch.Sequence(0.8)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -3,14 +3,12 @@
 package main
 
 import (
-	"copoly/copoly/molarmass"
-)
-
-import (
 	"math"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
+
+	"copoly/copoly/molarmass"
 )
 
 // Hand case from the definitions of the averages (P. J. Flory, Principles of Polymer Chemistry,

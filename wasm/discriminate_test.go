@@ -3,10 +3,6 @@
 package main
 
 import (
-	"copoly/copoly/fit"
-)
-
-import (
 	"math"
 	"syscall/js"
 	"testing"
@@ -14,6 +10,7 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 
 	"copoly/copoly"
+	"copoly/copoly/fit"
 )
 
 // triadSet returns a small set of runs generated from the penultimate model pen (invented

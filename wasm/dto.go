@@ -3,12 +3,6 @@
 package main
 
 import (
-	"copoly/copoly/bench"
-	"copoly/copoly/fit"
-	"copoly/copoly/plan"
-)
-
-import (
 	"errors"
 	"fmt"
 	"maps"
@@ -22,6 +16,9 @@ import (
 	"github.com/norunners/vert"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
+	"copoly/copoly/fit"
+	"copoly/copoly/plan"
 	"copoly/copoly/project"
 )
 
@@ -55,7 +52,7 @@ type modelIn struct {
 	S2    *float64 `js:"s2"`
 }
 
-// readModel reads the ModelArgs of arg and returns the model, validated: a copoly.Terminal
+// readModel reads the ModelArgs of arg and returns the model (copoly validates it): a copoly.Terminal
 // when "model" is absent or "terminal", else a copoly.Penultimate or copoly.Implicit. named
 // reports that the caller gave "model". Ratios that belong to another model are ignored.
 func readModel(arg js.Value) (m copoly.Model, named bool, err error) {
@@ -100,24 +97,7 @@ func readModel(arg js.Value) (m copoly.Model, named bool, err error) {
 	if err != nil {
 		return nil, false, err
 	}
-	if err := m.Validate(); err != nil {
-		return nil, false, err
-	}
 	return m, in.Model != nil, nil
-}
-
-// sequenceOf returns the sequence statistics of the copolymer m makes at feed f1 (the implicit
-// model's are those of its equivalent explicit model).
-func sequenceOf(m copoly.Model, f1 float64) (copoly.Sequence, error) {
-	switch mm := m.(type) {
-	case copoly.Terminal:
-		return mm.Sequence(f1)
-	case copoly.Penultimate:
-		return mm.Sequence(f1)
-	case copoly.Implicit:
-		return mm.Penultimate().Sequence(f1)
-	}
-	panic(fmt.Sprintf("copoly: no sequence for a %T", m))
 }
 
 // compositionIn is the argument of composition without its ModelArgs (readModel).
@@ -443,26 +423,6 @@ type averagesOut struct {
 	Mz         float64  `js:"Mz"`
 	Dispersity float64  `js:"dispersity"`
 	Size       *sizeOut `js:"size"`
-}
-
-// molarMasses reads an optional pair of molar masses: both or neither (given false), each
-// checked by copoly.CheckMolarMass.
-func molarMasses(mm1, mm2 *float64) (m1, m2 float64, given bool, err error) {
-	switch {
-	case mm1 != nil && mm2 != nil:
-		if err := copoly.CheckMolarMass("molarMass1", *mm1); err != nil {
-			return 0, 0, false, err
-		}
-		if err := copoly.CheckMolarMass("molarMass2", *mm2); err != nil {
-			return 0, 0, false, err
-		}
-		return *mm1, *mm2, true, nil
-	case mm1 != nil:
-		return 0, 0, false, &copoly.FieldError{Field: "molarMass2", Reason: "is missing: give both molar masses or neither", Err: copoly.ErrOutOfRange}
-	case mm2 != nil:
-		return 0, 0, false, &copoly.FieldError{Field: "molarMass1", Reason: "is missing: give both molar masses or neither", Err: copoly.ErrOutOfRange}
-	}
-	return 0, 0, false, nil
 }
 
 // monomerOut is the MonomerData of the d.ts: a built-in monomer with its process data
@@ -851,15 +811,13 @@ type planOut struct {
 	Notes          []string     `js:"notes"`
 }
 
-// planDTO converts a plan: NaN times, pump rates, heat, rise and volumes become null; v1 and v2
-// are the volumes of the charge from the library densities (see millilitres); hazards the
-// library's hazard classes of the monomers named.
-func planDTO(p *plan.Recipe, v1, v2 *float64, hazards []hazardsOut) planOut {
+// planDTO converts a plan: NaN times, pump rates, heat, rise and volumes become null.
+func planDTO(p *plan.Recipe) planOut {
 	out := planOut{
 		Mode:    p.Mode,
 		StartF1: p.StartF1,
 		Initial: initialOut{M1: p.Charge1, M2: p.Charge2, N1: p.Moles1, N2: p.Moles2,
-			V1: orFinite(v1, p.Volume1), V2: orFinite(v2, p.Volume2)},
+			V1: finiteOrNil(p.Volume1), V2: finiteOrNil(p.Volume2)},
 		Total:          totalOut{M1: p.Total1, M2: p.Total2},
 		FeedF1:         p.FeedF1,
 		FeedPerPolymer: p.FeedPerPolymer,
@@ -875,12 +833,12 @@ func planDTO(p *plan.Recipe, v1, v2 *float64, hazards []hazardsOut) planOut {
 			Heat: finiteOrNil(p.Safety.Heat), Rise: finiteOrNil(p.Safety.Rise),
 			RiseLimit: p.Safety.RiseLimit, Flagged: p.Safety.Flagged,
 			BatchMass: p.Safety.BatchMass, HeatCapacity: p.Safety.HeatCapacity,
-			Hazards: hazards,
+			Hazards: make([]hazardsOut, len(p.Safety.Hazards)),
 		},
 		Notes: orNoTexts(p.Notes),
 	}
-	if out.Safety.Hazards == nil {
-		out.Safety.Hazards = []hazardsOut{}
+	for i, h := range p.Safety.Hazards {
+		out.Safety.Hazards[i] = hazardsOut{Monomer: h.Monomer, Hazards: orNoTexts(h.Hazards)}
 	}
 	for i, r := range p.Schedule {
 		out.Schedule[i] = planRowOut{Conversion: r.Conversion, Polymer: r.Polymer, Fed1: r.Fed1, Fed2: r.Fed2,
@@ -890,21 +848,11 @@ func planDTO(p *plan.Recipe, v1, v2 *float64, hazards []hazardsOut) planOut {
 	for i, s := range p.Shots {
 		out.Shots[i] = shotOut{Polymer: s.Polymer, M1: s.Mass1, M2: s.Mass2, Time: finiteOrNil(s.Time)}
 	}
-	return out
-}
-
-func bandDTO(b plan.Band) *bandOut {
-	return &bandOut{Samples: b.Samples, InstLow: orEmpty(b.InstLow), InstHigh: orEmpty(b.InstHigh),
-		CumLow: orEmpty(b.CumLow), CumHigh: orEmpty(b.CumHigh), ProductLow: b.ProductLow, ProductHigh: b.ProductHigh}
-}
-
-// orFinite returns &x when x is finite (a volume copoly gives), else v (the one the bridge
-// worked out, or nil).
-func orFinite(v *float64, x float64) *float64 {
-	if f := finiteOrNil(x); f != nil {
-		return f
+	if b := p.Band; b != nil {
+		out.Band = &bandOut{Samples: b.Samples, InstLow: orEmpty(b.InstLow), InstHigh: orEmpty(b.InstHigh),
+			CumLow: orEmpty(b.CumLow), CumHigh: orEmpty(b.CumHigh), ProductLow: b.ProductLow, ProductHigh: b.ProductHigh}
 	}
-	return v
+	return out
 }
 
 type starvedFeedIn struct {
@@ -928,6 +876,22 @@ func finiteOrNil(x float64) *float64 {
 		return nil
 	}
 	return &x
+}
+
+// orNumber returns *v, or def when v is nil (absent).
+func orNumber(v *float64, def float64) float64 {
+	if v == nil {
+		return def
+	}
+	return *v
+}
+
+// orText returns *v, or "" when v is nil (absent).
+func orText(v *string) string {
+	if v == nil {
+		return ""
+	}
+	return *v
 }
 
 // orEmpty returns s, or an empty slice for nil, so that JavaScript gets [] rather than null.

@@ -3,11 +3,6 @@
 package main
 
 import (
-	"copoly/copoly/bench"
-	"copoly/copoly/fit"
-)
-
-import (
 	"math"
 	"strings"
 	"syscall/js"
@@ -16,6 +11,8 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
+	"copoly/copoly/fit"
 	"copoly/copoly/project"
 )
 

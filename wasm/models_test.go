@@ -133,7 +133,11 @@ func TestDriftModels(t *testing.T) {
 		{"implicit", implArg, impl},
 	} {
 		t.Run(c.name, func(t *testing.T) {
-			d, err := copoly.DriftOf(c.model, 0.3, xs)
+			b, err := copoly.NewBatch(c.model, 0.3)
+			if err != nil {
+				t.Fatal(err)
+			}
+			d, err := b.Drift(xs)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -152,12 +156,12 @@ func TestDriftModels(t *testing.T) {
 			}
 			sameFloats(t, "conversionMass", floatsOf(t, r.Get("conversionMass")), mass)
 			// Limit and distribution for any model: the same copoly routines the terminal model uses.
-			lim, err := copoly.ConversionLimitOf(c.model, 0.3, 0.02)
+			lim, err := b.ConversionLimit(0.02)
 			if err != nil {
 				t.Fatal(err)
 			}
 			if got := r.Get("limit").Get("conversion").Float(); got != lim {
-				t.Errorf("limit = %v, want %v (copoly.ConversionLimitOf)", got, lim)
+				t.Errorf("limit = %v, want %v (copoly.Batch.ConversionLimit)", got, lim)
 			}
 			if r.Get("distribution").IsNull() {
 				t.Errorf("distribution is null for %s", c.name)

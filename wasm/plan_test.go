@@ -3,10 +3,6 @@
 package main
 
 import (
-	"copoly/copoly/plan"
-)
-
-import (
 	"math"
 	"slices"
 	"strings"
@@ -16,6 +12,7 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 
 	"copoly/copoly"
+	"copoly/copoly/plan"
 	"copoly/copoly/project"
 )
 
@@ -246,7 +243,7 @@ func TestPlanModes(t *testing.T) {
 		wantNoError(t, r)
 		in := planInputOf("semibatch")
 		in.RateConstant, in.BatchMass, in.Steps = 0.01, 2500, 50
-		in.Heat1, in.Heat2 = styrene.HeatOfPolymerization, nba.HeatOfPolymerization
+		in.Heat1, in.Heat2 = &styrene.HeatOfPolymerization, &nba.HeatOfPolymerization
 		p, err := plan.Make(in)
 		if err != nil {
 			t.Fatal(err)
@@ -277,7 +274,8 @@ func TestPlanModes(t *testing.T) {
 		r := call(api, "plan", planArg("semibatch", "monomer1", "styrene", "monomer2", "n-butyl acrylate", "heat1", 60, "heat2", 0))
 		wantNoError(t, r)
 		in := planInputOf("semibatch")
-		in.Heat1, in.Heat2 = 60, 0
+		heat1, heat2 := 60.0, 0.0
+		in.Heat1, in.Heat2 = &heat1, &heat2
 		p, err := plan.Make(in)
 		if err != nil {
 			t.Fatal(err)
@@ -315,7 +313,7 @@ func TestPlanModes(t *testing.T) {
 		}
 		in := planInputOf("shots")
 		in.HalfLife, in.Shots = 120, 40
-		in.Heat1, in.Heat2 = styrene.HeatOfPolymerization, bd.HeatOfPolymerization
+		in.Heat1, in.Heat2 = &styrene.HeatOfPolymerization, &bd.HeatOfPolymerization
 		p, err := plan.Make(in)
 		if err != nil {
 			t.Fatal(err)
@@ -516,11 +514,11 @@ func TestPlanNotFinite(t *testing.T) {
 		t.Fatal(err)
 	}
 	p.Schedule[3].Inventory = math.Inf(1)
-	if path := nonFinite(planDTO(p, nil, nil, nil)); path != "schedule[3].inventory" {
+	if path := nonFinite(planDTO(p)); path != "schedule[3].inventory" {
 		t.Errorf("nonFinite(plan with an infinite inventory) = %q, want schedule[3].inventory", path)
 	}
 	p.Schedule[3].Inventory = 1
-	if path := nonFinite(planDTO(p, nil, nil, nil)); path != "" {
+	if path := nonFinite(planDTO(p)); path != "" {
 		t.Errorf("nonFinite(batch plan) = %q, want \"\" (NaN times and pump rates become null)", path)
 	}
 }

@@ -1,10 +1,6 @@
 package bench
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"encoding/csv"
 	"errors"
 	"fmt"
@@ -12,6 +8,8 @@ import (
 	"strings"
 	"unicode"
 	"unicode/utf8"
+
+	"copoly/copoly"
 )
 
 // Sentinel errors of the table reader.

@@ -1,10 +1,6 @@
 package bench
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -12,6 +8,8 @@ import (
 	"reflect"
 	"strings"
 	"testing"
+
+	"copoly/copoly"
 )
 
 // The expected numbers below are the text of each case read as a decimal number, as the rules

@@ -1,14 +1,12 @@
 package bench
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"fmt"
 	"math"
 	"strings"
 	"unicode/utf8"
+
+	"copoly/copoly"
 )
 
 // MaxRuns is the largest number of bench rows [ConvertRuns] accepts in one call.

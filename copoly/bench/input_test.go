@@ -1,10 +1,6 @@
 package bench
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"errors"
 	"math"
 	"math/rand/v2"
@@ -12,6 +8,8 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
+
+	"copoly/copoly"
 )
 
 // Molar masses (g/mol) from the molecular formulas and the IUPAC 2021 standard atomic weights

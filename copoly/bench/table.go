@@ -1,13 +1,12 @@
 package bench
 
 import (
-	"copoly/copoly"
-)
-
-import (
+	"errors"
 	"fmt"
 	"slices"
 	"strings"
+
+	"copoly/copoly"
 )
 
 // Table is the bench-data grid as the chemist typed it: one entry form for the whole table
@@ -236,12 +235,14 @@ func headerKey(h string) string {
 // F and f); without one, the columns are taken in the order of [Table.Columns], after a
 // first text column taken as the label. A header naming the columns of another form (X, mass1,
 // integral1…) switches the table to that form. A block with a header row but no data rows is
-// an error, and so is a header naming one column twice ("F1" and "F"). A paste that fails (unknown header names, a row wider than the columns, too many
-// rows) returns an error naming "paste" or "table" and changes nothing, not even the form.
+// an error, and so is a header naming one column twice ("F1" and "F"). A paste that fails
+// (unknown header names, a row wider than the columns, too many rows) returns an error naming
+// "paste" (also for the errors of ParseBlock, which name "table") and changes nothing, not even
+// the form.
 func (t *Table) Paste(text string) error {
 	tab, err := ParseBlock(text)
 	if err != nil {
-		return err
+		return asPaste(err)
 	}
 	if len(tab.Rows) == 0 {
 		return &copoly.FieldError{Field: "paste", Reason: fmt.Sprintf("the block holds only a header row (%s) and no rows of data", abbreviate(strings.Join(tab.Header, ", "))), Err: ErrNotTable}
@@ -313,4 +314,21 @@ func (t *Table) Paste(text string) error {
 	next.Rows = append(t.Rows[:len(t.Rows):len(t.Rows)], rows...)
 	*t = next
 	return nil
+}
+
+// asPaste returns an error of ParseBlock, which names the field "table", naming "paste".
+func asPaste(err error) error {
+	var ie *copoly.InputError
+	if errors.As(err, &ie) && ie.Field == "table" {
+		c := *ie
+		c.Field = "paste"
+		return &c
+	}
+	var fe *copoly.FieldError
+	if errors.As(err, &fe) && fe.Field == "table" {
+		c := *fe
+		c.Field = "paste"
+		return &c
+	}
+	return err
 }

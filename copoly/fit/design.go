@@ -1,12 +1,10 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"fmt"
 	"math"
+
+	"copoly/copoly"
 )
 
 // Design suggests where to run the next copolymerizations to shrink the joint confidence region

@@ -1,12 +1,10 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"math"
 	"testing"
+
+	"copoly/copoly"
 )
 
 func TestDOptimalPair(t *testing.T) {

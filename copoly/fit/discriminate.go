@@ -1,16 +1,13 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
-	"copoly/copoly/internal/lm"
-
 	"fmt"
 	"math"
 
 	"gonum.org/v1/gonum/mathext"
+
+	"copoly/copoly"
+	"copoly/copoly/internal/lm"
 )
 
 // TriadRun is one low-conversion copolymer with its measured composition and monomer-centred
@@ -61,6 +58,9 @@ type Discrimination struct {
 	// Verdict says so in words.
 	Supported bool
 	Verdict   string
+	// Terminal and Penultimate in Predicted hold each fitted model's composition and triads
+	// ([copoly.Sequence]) at the feed of each run, in the order of the runs.
+	Predicted struct{ Terminal, Penultimate []copoly.Sequence }
 }
 
 // MaxTriadRuns bounds [Discriminate].
@@ -157,7 +157,17 @@ func Discriminate(runs []TriadRun) (*Discrimination, error) {
 	default:
 		d.Verdict = fmt.Sprintf("The data do not support a penultimate effect: the terminal model describes them as well (F-test p = %.2g, AICc difference %.1f).", d.PValue, d.DeltaAIC)
 	}
+	d.Predicted.Terminal, d.Predicted.Penultimate = predictions(runs, term(bestT.x)), predictions(runs, pen(bestP.x))
 	return d, nil
+}
+
+// predictions returns the sequence statistics of m at the feed of each run.
+func predictions(runs []TriadRun, m copoly.Model) []copoly.Sequence {
+	out := make([]copoly.Sequence, len(runs))
+	for i, r := range runs {
+		out[i], _ = m.Sequence(r.F10) // the feeds and fitted ratios are checked
+	}
+	return out
 }
 
 type lmResult struct {

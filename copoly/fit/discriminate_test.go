@@ -1,10 +1,6 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"encoding/csv"
 	"math"
 	"os"
@@ -12,6 +8,8 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
+
+	"copoly/copoly"
 )
 
 func triadRunsFrom(m copoly.Model, seq func(float64) copoly.Sequence, feeds []float64) []TriadRun {
@@ -30,6 +28,19 @@ func TestDiscriminateRecoversPenultimate(t *testing.T) {
 	d, err := Discriminate(runs)
 	if err != nil {
 		t.Fatal(err)
+	}
+	// Each fitted model's values at the runs' feeds are its own sequence statistics there.
+	pt := copoly.Terminal{R1: d.Terminal.Params[0], R2: d.Terminal.Params[1]}
+	pp := copoly.Penultimate{R11: d.Penultimate.Params[0], R21: d.Penultimate.Params[1], R22: d.Penultimate.Params[2], R12: d.Penultimate.Params[3]}
+	if len(d.Predicted.Terminal) != len(runs) || len(d.Predicted.Penultimate) != len(runs) {
+		t.Fatalf("predicted %d and %d runs, want %d", len(d.Predicted.Terminal), len(d.Predicted.Penultimate), len(runs))
+	}
+	for i, r := range runs {
+		st, _ := pt.Sequence(r.F10)
+		sp, _ := pp.Sequence(r.F10)
+		if d.Predicted.Terminal[i] != st || d.Predicted.Penultimate[i] != sp {
+			t.Errorf("predicted at f10 = %v: %+v, %+v; want %+v, %+v", r.F10, d.Predicted.Terminal[i], d.Predicted.Penultimate[i], st, sp)
+		}
 	}
 	want := []float64{pm.R11, pm.R21, pm.R22, pm.R12}
 	for i, v := range d.Penultimate.Params {

@@ -1,12 +1,10 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"fmt"
 	"math"
+
+	"copoly/copoly"
 )
 
 // Method names used in [Estimates] and in the JavaScript API.

@@ -1,11 +1,9 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"testing"
+
+	"copoly/copoly"
 )
 
 func TestEstimateRunsEveryMethod(t *testing.T) {

@@ -1,12 +1,10 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"math"
 	"strconv"
+
+	"copoly/copoly"
 )
 
 // EVM is the result of the error-in-variables fit.

@@ -1,15 +1,13 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"math"
 	"math/rand/v2"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
+
+	"copoly/copoly"
 )
 
 func TestErrorsInVariablesExactData(t *testing.T) {

@@ -50,7 +50,6 @@ func copolyGrid(n int, top float64) []float64 {
 func BenchmarkRecompute(b *testing.B) {
 	runs := simulatedRuns(copoly.Terminal{R1: 0.52, R2: 0.46}, 0.01, 21)
 	feeds, xs := copolyGrid(101, 1), copolyGrid(101, 0.95)
-	dst := make([]float64, len(feeds))
 	b.Run("edit-20-runs", func(b *testing.B) {
 		b.ReportAllocs()
 		for b.Loop() {
@@ -60,22 +59,15 @@ func BenchmarkRecompute(b *testing.B) {
 			}
 			m := copoly.Terminal{R1: est.Nonlinear.R1, R2: est.Nonlinear.R2}
 			const f10 = 0.3
-			if _, err := m.InstantaneousTo(dst, feeds); err != nil {
+			if _, err := copoly.CompositionOf(m, feeds); err != nil {
 				b.Fatal(err)
 			}
-			if _, err := m.Drift(f10, xs); err != nil {
+			mm1, mm2 := 100.12, 86.09
+			if _, err := copoly.ProfileOf(copoly.ProfileInput{Model: m, F10: f10, Conversion: xs,
+				MolarMass1: &mm1, MolarMass2: &mm2, Tolerance: 0.02, Bins: 20}); err != nil {
 				b.Fatal(err)
 			}
-			if _, err := m.ConversionLimit(f10, 0.02); err != nil {
-				b.Fatal(err)
-			}
-			if _, err := m.CompositionDistribution(f10, 0.95, 20, 100.12, 86.09); err != nil {
-				b.Fatal(err)
-			}
-			if _, err := m.Sequence(f10); err != nil {
-				b.Fatal(err)
-			}
-			if _, err := m.BatchSequence(f10, 0.95); err != nil {
+			if _, err := copoly.MicrostructureOf(copoly.MicrostructureInput{Model: m, F1: f10, MaxLength: 20, Batch: true, Conversion: 0.95}); err != nil {
 				b.Fatal(err)
 			}
 			if _, err := m.Chains(f10, 12, 60, 1); err != nil {
@@ -84,17 +76,12 @@ func BenchmarkRecompute(b *testing.B) {
 			if _, err := NextRuns(m.R1, m.R2, runs, nil); err != nil {
 				b.Fatal(err)
 			}
-			in := plan.Input{Model: m, TargetF1: 0.5, MolarMass1: 100.12, MolarMass2: 86.09,
-				PolymerMass: 1000, Mode: plan.ModeSemibatch, RateConstant: 0.01}
-			p, err := plan.Make(in)
-			if err != nil {
+			if _, err := plan.Make(plan.Input{Model: m, TargetF1: 0.5, MolarMass1: mm1, MolarMass2: mm2,
+				PolymerMass: 1000, Mode: plan.ModeSemibatch, RateConstant: 0.01,
+				Region: est.Nonlinear.Region.Boundary, Samples: 500, Seed: 1}); err != nil {
 				b.Fatal(err)
 			}
-			if _, err := plan.BandOf(in, p, est.Nonlinear.Region.Boundary, 500, 1); err != nil {
-				b.Fatal(err)
-			}
-			_, err = copoly.SimulateChains(copoly.ChainOptions{Model: m, F10: f10, DPn: 100, Count: 10000, Seed: 1})
-			if err != nil {
+			if _, err := copoly.SimulateChains(copoly.ChainOptions{Model: m, F10: f10, DPn: 100, Count: 10000, Seed: 1, Bins: 30}); err != nil {
 				b.Fatal(err)
 			}
 		}

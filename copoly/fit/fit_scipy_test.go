@@ -1,10 +1,6 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"bytes"
 	"encoding/json"
 	"math"
@@ -12,6 +8,8 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
+
+	"copoly/copoly"
 )
 
 // fitScipyPath is the fixture made by testdata/fit_scipy.py: reactivity-ratio fits computed by

@@ -1,13 +1,11 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"fmt"
 	"math"
 	"sort"
+
+	"copoly/copoly"
 )
 
 // Linear is the result of a linearised (historical) estimation method: a straight line fitted by

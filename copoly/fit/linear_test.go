@@ -1,16 +1,14 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"errors"
 	"math"
 	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
+
+	"copoly/copoly"
 )
 
 // instantaneousRuns returns noise-free low-conversion data generated with the Mayo–Lewis

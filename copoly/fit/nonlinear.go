@@ -1,14 +1,11 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
-	"copoly/copoly/internal/lm"
-
 	"fmt"
 	"math"
+
+	"copoly/copoly"
+	"copoly/copoly/internal/lm"
 )
 
 // problem is a least-squares problem in (r1, r2): residuals F1,obs − F̄1,model of each run,

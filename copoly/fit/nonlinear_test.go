@@ -1,16 +1,14 @@
 package fit
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"math"
 	"math/rand/v2"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
 	"gonum.org/v1/gonum/stat/distuv"
+
+	"copoly/copoly"
 )
 
 // simulatedRuns returns runs generated with the integrated model at a 5×4 design of feeds and

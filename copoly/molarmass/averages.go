@@ -1,12 +1,10 @@
 package molarmass
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"fmt"
 	"math"
+
+	"copoly/copoly"
 )
 
 // Bin is one class of a molar-mass distribution: the range Low–High in g/mol and its number
@@ -71,37 +69,52 @@ func BinAverages(bins []Bin) (Averages, error) {
 			w[i] = b.Weight
 		}
 	}
-	return averages(M, w)
+	return averages(M, w, "bins")
 }
 
 // SliceAverages returns the averages of a size-exclusion chromatogram given as slices of molar
 // mass mᵢ (g/mol, from the calibration) and detector signal hᵢ, taken as proportional to the mass
-// of polymer in the slice (a concentration detector and slices of equal elution volume).
+// of polymer in the slice (a concentration detector and slices of equal elution volume). Errors
+// name "mass", "signal", "mass[i]" or "signal[i]".
 func SliceAverages(mass, signal []float64) (Averages, error) {
+	return sliceAverages(mass, signal, func(i int, key string) string {
+		if i < 0 {
+			return key
+		}
+		return fmt.Sprintf("%s[%d]", key, i)
+	}, "bins")
+}
+
+// sliceAverages is SliceAverages with the fields named by name: name(-1, key) for the list of
+// key ("mass" or "signal") as a whole, name(i, key) for its entry i; table names the table in an
+// error about all of it.
+func sliceAverages(mass, signal []float64, name func(i int, key string) string, table string) (Averages, error) {
 	if len(mass) != len(signal) {
-		return Averages{}, &copoly.InputError{Field: "signal", Value: float64(len(signal)), Reason: fmt.Sprintf("needs one signal per slice (%d molar masses)", len(mass)), Err: copoly.ErrOutOfRange}
+		return Averages{}, &copoly.InputError{Field: name(-1, "signal"), Value: float64(len(signal)), Reason: fmt.Sprintf("needs one signal per slice (%d molar masses)", len(mass)), Err: copoly.ErrOutOfRange}
 	}
 	if len(mass) == 0 || len(mass) > MaxAverageRows {
-		return Averages{}, &copoly.InputError{Field: "mass", Value: float64(len(mass)), Reason: fmt.Sprintf("give between 1 and %d slices", MaxAverageRows), Err: copoly.ErrOutOfRange}
+		return Averages{}, &copoly.InputError{Field: name(-1, "mass"), Value: float64(len(mass)), Reason: fmt.Sprintf("give between 1 and %d slices", MaxAverageRows), Err: copoly.ErrOutOfRange}
 	}
 	for i := range mass {
-		if err := copoly.CheckFinite(fmt.Sprintf("mass[%d]", i), mass[i]); err != nil {
+		if err := copoly.CheckFinite(name(i, "mass"), mass[i]); err != nil {
 			return Averages{}, err
 		}
-		if err := copoly.CheckFinite(fmt.Sprintf("signal[%d]", i), signal[i]); err != nil {
+		if err := copoly.CheckFinite(name(i, "signal"), signal[i]); err != nil {
 			return Averages{}, err
 		}
 		if mass[i] <= 0 {
-			return Averages{}, &copoly.InputError{Field: fmt.Sprintf("mass[%d]", i), Value: mass[i], Reason: "a molar mass must be positive", Err: copoly.ErrOutOfRange}
+			return Averages{}, &copoly.InputError{Field: name(i, "mass"), Value: mass[i], Reason: "a molar mass must be positive", Err: copoly.ErrOutOfRange}
 		}
 		if signal[i] < 0 {
-			return Averages{}, &copoly.InputError{Field: fmt.Sprintf("signal[%d]", i), Value: signal[i], Reason: "subtract the baseline: a signal cannot be negative", Err: copoly.ErrOutOfRange}
+			return Averages{}, &copoly.InputError{Field: name(i, "signal"), Value: signal[i], Reason: "subtract the baseline: a signal cannot be negative", Err: copoly.ErrOutOfRange}
 		}
 	}
-	return averages(mass, signal)
+	return averages(mass, signal, table)
 }
 
-func averages(M, w []float64) (Averages, error) {
+// averages returns the averages of molar masses M with weight fractions w (not normalised);
+// table names the table in an error about all of it.
+func averages(M, w []float64, table string) (Averages, error) {
 	var sw, swOverM, swM, swM2 float64
 	for i := range M {
 		sw += w[i]
@@ -110,40 +123,12 @@ func averages(M, w []float64) (Averages, error) {
 		swM2 += w[i] * M[i] * M[i]
 	}
 	if !(sw > 0) {
-		return Averages{}, &copoly.FieldError{Field: "bins", Reason: "the fractions or signals are all zero", Err: copoly.ErrOutOfRange}
+		return Averages{}, &copoly.FieldError{Field: table, Reason: "the fractions or signals are all zero", Err: copoly.ErrOutOfRange}
 	}
 	a := Averages{Mn: sw / swOverM, Mw: swM / sw, Mz: swM2 / swM}
 	a.Dispersity = a.Mw / a.Mn
 	if math.IsInf(a.Mz, 0) || math.IsNaN(a.Mz) {
-		return Averages{}, &copoly.FieldError{Field: "bins", Reason: "the averages overflow: check the units (g/mol)", Err: copoly.ErrOutOfRange}
+		return Averages{}, &copoly.FieldError{Field: table, Reason: "the averages overflow: check the units (g/mol)", Err: copoly.ErrOutOfRange}
 	}
 	return a, nil
-}
-
-// ChainSize relates the molar-mass averages of a copolymer to its units.
-type ChainSize struct {
-	// UnitMass is the mean molar mass of a repeat unit, M̄0 = F̄1 M1 + (1 − F̄1) M2 (g/mol).
-	UnitMass float64
-	// DPn and DPw are the number- and weight-average degrees of polymerization Mn/M̄0, Mw/M̄0;
-	// Units1 and Units2 the mean numbers of M1 and M2 units per chain, F̄1·DPn and F̄2·DPn.
-	DPn, DPw, Units1, Units2 float64
-}
-
-// SizeOf returns the degrees of polymerization of a copolymer of cumulative composition F1 with
-// the averages a, from the repeat-unit molar masses of the monomers (the monomer molar masses
-// for addition polymers; end groups neglected).
-func SizeOf(a Averages, F1, molarMass1, molarMass2 float64) (ChainSize, error) {
-	if err := copoly.CheckFraction("F1", F1); err != nil {
-		return ChainSize{}, err
-	}
-	if err := copoly.CheckMolarMass("molarMass1", molarMass1); err != nil {
-		return ChainSize{}, err
-	}
-	if err := copoly.CheckMolarMass("molarMass2", molarMass2); err != nil {
-		return ChainSize{}, err
-	}
-	c := ChainSize{UnitMass: F1*molarMass1 + (1-F1)*molarMass2}
-	c.DPn, c.DPw = a.Mn/c.UnitMass, a.Mw/c.UnitMass
-	c.Units1, c.Units2 = F1*c.DPn, (1-F1)*c.DPn
-	return c, nil
 }

@@ -1,14 +1,12 @@
 package molarmass
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"math"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
+
+	"copoly/copoly"
 )
 
 func TestAveragesByHand(t *testing.T) {

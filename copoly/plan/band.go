@@ -1,13 +1,11 @@
 package plan
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+
+	"copoly/copoly"
 )
 
 // additions are a plan's schedule as the chemist carries it out: per row, the polymer formed

@@ -1,13 +1,11 @@
 package plan
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"fmt"
 	"math"
 	"sort"
+
+	"copoly/copoly"
 )
 
 // Plan modes, for [Input.Mode].
@@ -45,7 +43,7 @@ type Input struct {
 	// fraction); 0 means 0.02. It sets the batch's stopping conversion and the number of shots.
 	Tolerance float64
 	// StopConversion is the overall molar conversion at which a batch is stopped; 0 means the
-	// largest conversion whose product stays within Tolerance ([copoly.Terminal.ConversionLimit]).
+	// largest conversion whose product stays within Tolerance ([copoly.Batch.ConversionLimit]).
 	StopConversion float64
 	// FinalConversion is the overall molar conversion of all the monomer charged and fed at the
 	// end of a semi-batch or shot plan; it sets the size of the initial charge. 0 means 0.95.
@@ -66,14 +64,33 @@ type Input struct {
 	// no time axis.
 	RateConstant, HalfLife float64
 	TimeTable              [][2]float64
-	// Safety: Heat1 and Heat2 are the heats of polymerization −ΔHp in kJ/mol (0: not known);
-	// BatchMass is the mass of the reactor contents in g for the adiabatic temperature rise (0:
-	// the monomer and polymer of the plan alone, a bulk process); HeatCapacity in J/(g·K), 0
+	// Safety: Heat1 and Heat2 are the heats of polymerization −ΔHp of M1 and M2 in kJ/mol, 0
+	// when not known; nil takes the heat of the built-in monomer Monomer1 or Monomer2 names, if
+	// any. BatchMass is the mass of the reactor contents in g for the adiabatic temperature rise
+	// (0: the monomer and polymer of the plan alone, a bulk process); HeatCapacity in J/(g·K), 0
 	// means 2.0; RiseLimit the adiabatic rise in K above which the plan is flagged, 0 means 50.
-	Heat1, Heat2, BatchMass, HeatCapacity, RiseLimit float64
+	Heat1, Heat2                       *float64
+	BatchMass, HeatCapacity, RiseLimit float64
 	// Density1 and Density2 are the liquid densities of the monomers in g/mL for the volumes of
-	// the charge; 0 means not known (or not a liquid): no volume.
+	// the charge; 0 takes the density of the built-in monomer Monomer1 or Monomer2 names when it
+	// is a liquid, and otherwise means not known (or not a liquid): no volume.
 	Density1, Density2 float64
+	// Monomer1 and Monomer2 name the monomers as the built-in list does ([copoly.Monomers]);
+	// "" names none. A built-in monomer lends its process data ([copoly.PropertiesOf]): its heat
+	// of polymerization when Heat1 or Heat2 is nil, its density when Density1 or Density2 is 0,
+	// and its hazard classes ([Safety.Hazards]). A name not in the list adds a note saying that
+	// nothing was taken for it.
+	Monomer1, Monomer2 string
+	// Region, when it has points, is the joint confidence region of the ratios, a closed polygon
+	// of (r1, r2) points as [copoly/copoly/fit.LeastSquares] traces it: [Make] then adds the band
+	// of the plan over it ([Recipe.Band], see [BandOf]) from Samples pairs (0 means 500) drawn
+	// with the seed Seed.
+	Region  [][2]float64
+	Samples int
+	Seed    uint64
+
+	// heat1, heat2 are the heats used, set by Make from Heat1, Heat2 and the monomers named.
+	heat1, heat2 float64
 }
 
 // Row is one row of a plan's schedule. Masses are in g, cumulative since the start.
@@ -115,6 +132,14 @@ type Safety struct {
 	Flagged   bool
 	// BatchMass and HeatCapacity are the values used.
 	BatchMass, HeatCapacity float64
+	// Hazards lists the hazard classes of the built-in monomers the input names, M1 first.
+	Hazards []MonomerHazards
+}
+
+// MonomerHazards are the hazard classes of one monomer ([copoly.Properties.Hazards]).
+type MonomerHazards struct {
+	Monomer string
+	Hazards []string
 }
 
 // Recipe is a recipe and schedule: the charge, the schedule of additions and the figures of one plan.
@@ -141,7 +166,10 @@ type Recipe struct {
 	Safety       Safety
 	// RateConstant is the rate constant used for the time axis (1/min), NaN without one.
 	RateConstant float64
-	Notes        []string
+	// Band is the spread of the plan's outcome over the region of [Input.Region], or nil
+	// without one.
+	Band  *Band
+	Notes []string
 }
 
 func (in *Input) validate() error {
@@ -200,7 +228,7 @@ func (in *Input) validate() error {
 	for _, r := range []struct {
 		field string
 		v     float64
-	}{{"heat1", in.Heat1}, {"heat2", in.Heat2}, {"batchMass", in.BatchMass}, {"rateConstant", in.RateConstant}, {"halfLife", in.HalfLife}, {"feedF1", in.FeedF1}} {
+	}{{"heat1", orZero(in.Heat1)}, {"heat2", orZero(in.Heat2)}, {"batchMass", in.BatchMass}, {"rateConstant", in.RateConstant}, {"halfLife", in.HalfLife}, {"feedF1", in.FeedF1}} {
 		if err := copoly.CheckFinite(r.field, r.v); err != nil {
 			return err
 		}
@@ -211,7 +239,7 @@ func (in *Input) validate() error {
 	for _, h := range []struct {
 		field string
 		v     float64
-	}{{"heat1", in.Heat1}, {"heat2", in.Heat2}} {
+	}{{"heat1", orZero(in.Heat1)}, {"heat2", orZero(in.Heat2)}} {
 		if h.v > 1000 {
 			return &copoly.InputError{Field: h.field, Value: h.v, Reason: "a heat of polymerization is in kJ/mol, below 1000", Err: copoly.ErrOutOfRange}
 		}
@@ -298,6 +326,7 @@ func Make(in Input) (*Recipe, error) {
 	if err := in.validate(); err != nil {
 		return nil, err
 	}
+	hazards, notes := in.processData()
 	sol, err := in.Model.FeedFor(in.TargetF1)
 	if err != nil {
 		return nil, err
@@ -324,15 +353,43 @@ func Make(in Input) (*Recipe, error) {
 		return nil, err
 	}
 	in.finish(p)
+	p.Safety.Hazards = hazards
+	p.Notes = append(p.Notes, notes...)
+	if len(in.Region) > 0 {
+		samples := in.Samples
+		if samples == 0 {
+			samples = DefaultBandSamples
+		}
+		b, err := BandOf(in, p, in.Region, samples, in.Seed)
+		if err != nil {
+			return nil, err
+		}
+		p.Band = &b
+	}
 	return p, nil
+}
+
+// DefaultBandSamples is the number of (r1, r2) pairs of a band when [Input.Samples] is 0.
+const DefaultBandSamples = 500
+
+// orZero returns *v, or 0 for nil.
+func orZero(v *float64) float64 {
+	if v == nil {
+		return 0
+	}
+	return *v
 }
 
 // batchPlan fills p for a batch: charge at f1* and run to the stopping conversion.
 func (in *Input) batchPlan(p *Recipe) error {
 	m := in.Model
+	b, err := copoly.NewBatch(m, p.StartF1)
+	if err != nil {
+		return err
+	}
 	x := in.StopConversion
 	if x == 0 {
-		lim, err := m.ConversionLimit(p.StartF1, in.Tolerance)
+		lim, err := b.ConversionLimit(in.Tolerance)
 		if err != nil {
 			return err
 		}
@@ -345,7 +402,6 @@ func (in *Input) batchPlan(p *Recipe) error {
 	if x <= 0 {
 		return &copoly.InputError{Field: "stopConversion", Value: x, Reason: "the batch must run to some conversion", Err: copoly.ErrOutOfRange}
 	}
-	b, _ := copoly.NewBatch(m, p.StartF1)
 	if x > b.MaxConversion() {
 		return &copoly.InputError{Field: "stopConversion", Value: x, Reason: fmt.Sprintf("this batch stops at X = %.4g (a monomer that cannot add to its own radical is left)", b.MaxConversion()), Err: copoly.ErrOutOfRange}
 	}
@@ -354,7 +410,7 @@ func (in *Input) batchPlan(p *Recipe) error {
 	for i := range xs {
 		xs[i] = x * float64(i) / float64(in.Steps)
 	}
-	d, err := m.Drift(p.StartF1, xs)
+	d, err := b.Drift(xs)
 	if err != nil {
 		return err
 	}
@@ -375,7 +431,7 @@ func (in *Input) batchPlan(p *Recipe) error {
 	}
 	p.MaxDeviation = math.Max(p.MaxDeviation, math.Abs(d.Inst[0]-in.TargetF1))
 	p.ProductF1 = cum
-	h, err := m.CompositionDistribution(p.StartF1, x, 20, in.MolarMass1, in.MolarMass2)
+	h, err := b.Distribution(x, 20, in.MolarMass1, in.MolarMass2)
 	if err != nil {
 		return err
 	}
@@ -689,9 +745,9 @@ func (in *Input) finish(p *Recipe) {
 	if s.BatchMass == 0 {
 		s.BatchMass = at.Inventory + at.Polymer
 	}
-	if in.Heat1 > 0 && in.Heat2 > 0 {
+	if in.heat1 > 0 && in.heat2 > 0 {
 		n := at.Inventory / in.unitMass(at.Feed)
-		s.Heat = n * (at.Feed*in.Heat1 + (1-at.Feed)*in.Heat2) // kJ
+		s.Heat = n * (at.Feed*in.heat1 + (1-at.Feed)*in.heat2) // kJ
 		s.Rise = s.Heat * 1000 / (s.BatchMass * s.HeatCapacity)
 		s.Flagged = s.Rise > s.RiseLimit
 	}

@@ -1,10 +1,6 @@
 package plan
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
@@ -16,6 +12,8 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
+
+	"copoly/copoly"
 )
 
 // The semi-batch and shot plans are checked against an independent simulation of the reactor

@@ -1,15 +1,13 @@
 package plan
 
 import (
-	"copoly/copoly"
-)
-
-import (
 	"errors"
 	"fmt"
 	"math"
 	"strings"
 	"testing"
+
+	"copoly/copoly"
 )
 
 // stBA is styrene (M1)/n-butyl acrylate (M2) with the handbook pair 0.80/0.15 (Polymer Handbook
@@ -134,7 +132,8 @@ func TestPlanBatch(t *testing.T) {
 		t.Fatal(err)
 	}
 	checkMassBalance(t, in, p)
-	lim, _ := in.Model.ConversionLimit(p.StartF1, 0.02)
+	b, _ := copoly.NewBatch(in.Model, p.StartF1)
+	lim, _ := b.ConversionLimit(0.02)
 	if math.Abs(p.StopConversion-lim) > 1e-12 || math.Abs(p.ProductF1-0.5) > 0.02+1e-9 {
 		t.Errorf("stop %v (limit %v), product %v", p.StopConversion, lim, p.ProductF1)
 	}
@@ -179,7 +178,7 @@ func TestPlanShots(t *testing.T) {
 
 func TestPlanSafety(t *testing.T) {
 	in := stBA(ModeBatch)
-	in.Heat1, in.Heat2 = 70, 78 // kJ/mol, styrene and n-butyl acrylate (from memory of handbook tables)
+	in.Heat1, in.Heat2 = ptr(70), ptr(78) // kJ/mol, styrene and n-butyl acrylate (from memory of handbook tables)
 	in.BatchMass, in.HeatCapacity, in.RiseLimit = 5000, 2, 50
 	p, err := Make(in)
 	if err != nil {
@@ -191,7 +190,7 @@ func TestPlanSafety(t *testing.T) {
 	if math.Abs(s.InventoryMax-(p.Charge1+p.Charge2)) > 1e-9 || math.Abs(s.Rise-want) > 1e-9 || s.Flagged != (want > 50) {
 		t.Errorf("safety %+v, want rise %v", s, want)
 	}
-	in.Heat1 = 0
+	in.Heat1 = ptr(0)
 	p, _ = Make(in)
 	if !math.IsNaN(p.Safety.Rise) {
 		t.Errorf("no heat given, yet rise %v", p.Safety.Rise)
@@ -302,7 +301,7 @@ func TestPlanValidates(t *testing.T) {
 		{"feed", func(in *Input) { in.Feed = "drip" }, "feed"},
 		{"steps", func(in *Input) { in.Steps = MaxSteps + 1 }, "steps"},
 		{"time table order", func(in *Input) { in.TimeTable = [][2]float64{{0, 0}, {10, 0.3}, {5, 0.4}} }, "timeTable[2]"},
-		{"heat", func(in *Input) { in.Heat1 = -1 }, "heat1"},
+		{"heat", func(in *Input) { in.Heat1 = ptr(-1) }, "heat1"},
 		{"unreachable", func(in *Input) { in.Model = copoly.Terminal{R1: 0, R2: 0.5}; in.TargetF1 = 0.8 }, "targetF1"},
 	} {
 		in := stBA(ModeSemibatch)
@@ -335,8 +334,11 @@ func TestPlanShotsTooFewAndVolumes(t *testing.T) {
 	if math.Abs(p.Volume1-p.Charge1/0.9059) > 1e-12 || math.Abs(p.Volume2-p.Charge2/0.8986) > 1e-12 {
 		t.Errorf("volumes %v %v", p.Volume1, p.Volume2)
 	}
-	in.Heat2 = 2000
+	in.Heat2 = ptr(2000)
 	if _, err := Make(in); copoly.Field(err) != "heat2" {
 		t.Errorf("heat2 2000: %v", err)
 	}
 }
+
+// ptr returns a pointer to v, for the optional inputs of a plan.
+func ptr(v float64) *float64 { return &v }

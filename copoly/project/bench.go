@@ -1,10 +1,6 @@
 package project
 
 import (
-	"copoly/copoly/bench"
-)
-
-import (
 	"errors"
 	"fmt"
 	"maps"
@@ -13,6 +9,7 @@ import (
 	"strings"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
 )
 
 // Limits on the bench-data grid of a project. MaxCells and MaxCellLength are design choices of
@@ -187,4 +184,57 @@ func quoteAll(words []string) string {
 		q[i] = fmt.Sprintf("%q", w)
 	}
 	return strings.Join(q, ", ") + ` or ""`
+}
+
+// BenchRuns is a bench grid converted to runs ([Bench.Runs]).
+type BenchRuns struct {
+	// Columns holds the cell keys the grid's forms use, in display order ([bench.Table.Columns]).
+	Columns []string
+	// Runs, OK and Errors hold, per row, the run, whether the row gave one (a blank row gives
+	// none and no error) and the error of a bad row ([bench.Table.Runs]).
+	Runs   []copoly.Run
+	OK     []bool
+	Errors []error
+	// Warnings are the data warnings of the rows that converted ([copoly.CheckRuns]).
+	Warnings []copoly.RunWarning
+}
+
+// Runs checks the grid's structure ([CheckBench], errors named under field) and converts its
+// rows ([bench.Table.Runs]) with the monomer molar masses in g/mol, 0 when not given (a form
+// that weighs then reports the molar mass it needs); a molar mass given must pass
+// [copoly.CheckMolarMass] (errors naming "molarMass1", "molarMass2").
+func (b Bench) Runs(field string, molarMass1, molarMass2 float64) (*BenchRuns, error) {
+	if err := CheckBench(field, b); err != nil {
+		return nil, err
+	}
+	for i, m := range []float64{molarMass1, molarMass2} {
+		if m != 0 {
+			if err := copoly.CheckMolarMass(fmt.Sprintf("molarMass%d", i+1), m); err != nil {
+				return nil, err
+			}
+		}
+	}
+	t := b.Table()
+	r := &BenchRuns{Columns: t.Columns()}
+	r.Runs, r.OK, r.Errors, r.Warnings = t.Runs(molarMass1, molarMass2)
+	return r, nil
+}
+
+// Paste checks the grid's structure ([CheckBench], errors named under field) and returns it with
+// the rows of a pasted block appended ([bench.Table.Paste]). The grid b is not changed, and a
+// block that cannot be read, or whose rows a project could not keep (a cell or label too long),
+// gives an error naming "paste".
+func (b Bench) Paste(field, text string) (Bench, error) {
+	if err := CheckBench(field, b); err != nil {
+		return Bench{}, err
+	}
+	t := b.Table()
+	if err := t.Paste(text); err != nil {
+		return Bench{}, err
+	}
+	pasted := BenchOf(t)
+	if err := CheckBench(field, pasted); err != nil {
+		return Bench{}, &copoly.FieldError{Field: "paste", Reason: "the pasted rows cannot be kept: " + err.Error(), Err: err}
+	}
+	return pasted, nil
 }

@@ -1,11 +1,6 @@
 package project
 
 import (
-	"copoly/copoly/fit"
-	"copoly/copoly/molarmass"
-)
-
-import (
 	"errors"
 	"math"
 	"reflect"
@@ -13,6 +8,8 @@ import (
 	"testing"
 
 	"copoly/copoly"
+	"copoly/copoly/fit"
+	"copoly/copoly/molarmass"
 )
 
 // Tests of the sequences and chain-size panels' sections of a project: model, triads and

@@ -174,6 +174,14 @@ func Marshal(p Project) ([]byte, error) {
 	return buf.Bytes(), nil
 }
 
+// Export returns p as a project file ([Marshal]) and a file name to save it under ([Filename]).
+func Export(p Project) (data []byte, filename string, err error) {
+	if data, err = Marshal(p); err != nil {
+		return nil, "", err
+	}
+	return data, Filename(p.Name), nil
+}
+
 // Filename returns a file name for exporting a project called name: ASCII letters and digits
 // of the name in lower case, every other run of characters replaced by one "-", at most 80
 // characters, then ".copoly.json". An empty result becomes "copoly-project.copoly.json".

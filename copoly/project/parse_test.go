@@ -1,10 +1,6 @@
 package project
 
 import (
-	"copoly/copoly/bench"
-)
-
-import (
 	"bytes"
 	"errors"
 	"fmt"
@@ -14,6 +10,7 @@ import (
 	"testing"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
 )
 
 // minimal is a hand-written project file with every required key and nothing else; the keys
@@ -422,4 +419,19 @@ func FuzzProjectRoundTrip(f *testing.F) {
 			data = again
 		}
 	})
+}
+
+// TestExport: the file is Marshal's and the name Filename's; an invalid project gives
+// Marshal's error.
+func TestExport(t *testing.T) {
+	p := Demo()
+	data, name, err := Export(p)
+	want, _ := Marshal(p)
+	if err != nil || string(data) != string(want) || name != Filename(p.Name) {
+		t.Errorf("Export = %d bytes, %q, %v; want Marshal's %d bytes and %q", len(data), name, err, len(want), Filename(p.Name))
+	}
+	p.R1 = -1
+	if _, _, err := Export(p); copoly.Field(err) != "project.r1" {
+		t.Errorf("r1 = -1: error %v, want one naming project.r1", err)
+	}
 }

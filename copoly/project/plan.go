@@ -1,15 +1,12 @@
 package project
 
 import (
-	"copoly/copoly/plan"
-)
-
-import (
 	"fmt"
 	"math"
 	"slices"
 
 	"copoly/copoly"
+	"copoly/copoly/plan"
 )
 
 // MaxPlanWordLength is the longest text a Plan's Mode or Feed may hold, in characters; every

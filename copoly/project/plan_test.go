@@ -1,10 +1,6 @@
 package project
 
 import (
-	"copoly/copoly/plan"
-)
-
-import (
 	"errors"
 	"math"
 	"reflect"
@@ -12,6 +8,7 @@ import (
 	"testing"
 
 	"copoly/copoly"
+	"copoly/copoly/plan"
 )
 
 // The expected field names below are the keys of Project.plan in site/copoly.d.ts with the

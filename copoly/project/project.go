@@ -65,11 +65,6 @@
 package project
 
 import (
-	"copoly/copoly/bench"
-	"copoly/copoly/plan"
-)
-
-import (
 	"errors"
 	"fmt"
 	"math"
@@ -77,6 +72,8 @@ import (
 	"unicode/utf8"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
+	"copoly/copoly/plan"
 )
 
 // Format is the value of the "format" key of every project file.

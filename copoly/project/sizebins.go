@@ -1,13 +1,10 @@
 package project
 
 import (
-	"copoly/copoly/molarmass"
-)
-
-import (
 	"fmt"
 
 	"copoly/copoly"
+	"copoly/copoly/molarmass"
 )
 
 // MaxSizeBins is the largest number of rows of Project.SizeBins: copoly's own limit

@@ -1,10 +1,6 @@
 package project
 
 import (
-	"copoly/copoly/bench"
-)
-
-import (
 	"errors"
 	"io/fs"
 	"reflect"
@@ -17,6 +13,7 @@ import (
 	"github.com/hack-pad/hackpadfs/mem"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
 )
 
 // Times used as "now" in the tests; any fixed instants would do.

@@ -1,14 +1,11 @@
 package project
 
 import (
-	"copoly/copoly/fit"
-)
-
-import (
 	"fmt"
 	"math"
 
 	"copoly/copoly"
+	"copoly/copoly/fit"
 )
 
 // MaxTriadRows is the largest number of rows of Project.Triads: copoly's own limit
@@ -79,4 +76,17 @@ func CheckTriads(field string, rows []TriadRow) error {
 		}
 	}
 	return nil
+}
+
+// Discriminate checks the rows ([CheckTriads], errors named under field) and compares the
+// terminal and the penultimate model on them ([fit.Discriminate]).
+func Discriminate(field string, rows []TriadRow) (*fit.Discrimination, error) {
+	if err := CheckTriads(field, rows); err != nil {
+		return nil, err
+	}
+	runs := make([]fit.TriadRun, len(rows))
+	for i, r := range rows {
+		runs[i] = r.Run()
+	}
+	return fit.Discriminate(runs)
 }
