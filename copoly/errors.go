@@ -6,7 +6,7 @@ import (
 	"math"
 )
 
-// Sentinel errors wrapped by [InputError]; test for them with errors.Is.
+// Sentinel errors wrapped by [InputError] and [FieldError]; test for them with errors.Is.
 var (
 	// ErrNotFinite reports a NaN or infinite input.
 	ErrNotFinite = errors.New("copoly: value is not a finite number")
@@ -17,6 +17,13 @@ var (
 	// ErrUnreachable reports a target that no input can produce (for example a copolymer
 	// composition outside the range a pair of reactivity ratios can give).
 	ErrUnreachable = errors.New("copoly: target cannot be reached")
+	// ErrMissing reports a required input that is absent (or null).
+	ErrMissing = errors.New("copoly: value missing")
+	// ErrWrongType reports a value of the wrong type, such as text where a number belongs, or
+	// one that cannot be read.
+	ErrWrongType = errors.New("copoly: value has the wrong type")
+	// ErrTooLong reports a text above its length limit.
+	ErrTooLong = errors.New("copoly: text too long")
 )
 
 // InputError reports an invalid input value. Field names the input as the JavaScript API and

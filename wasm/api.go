@@ -3,6 +3,10 @@
 package main
 
 import (
+	"encoding/json"
+)
+
+import (
 	"fmt"
 	"syscall/js"
 
@@ -352,7 +356,7 @@ func library(js.Value) (any, error) {
 
 // demoProject: the invented demo scenario.
 func demoProject(js.Value) (any, error) {
-	return projectResult(project.Demo()), nil
+	return projectResult(project.Demo())
 }
 
 // checkProject: the project as validated, or the first invalid field.
@@ -361,7 +365,7 @@ func checkProject(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	return projectResult(p), nil
+	return projectResult(p)
 }
 
 // exportProject: the project file text and a file name to save it under (project.Export).
@@ -391,18 +395,18 @@ func importProject(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	return projectResult(p), nil
+	return projectResult(p)
 }
 
 // benchRuns: the runs of a bench table in mole fractions and molar conversion, with an error
 // for each bad row and the data warnings (project.Bench.Runs).
 func benchRuns(arg js.Value) (any, error) {
-	var in benchRunsIn
-	if err := decode(arg, &in, ""); err != nil {
+	b, err := readBench(arg)
+	if err != nil {
 		return nil, err
 	}
-	b, err := in.Bench.bench("bench")
-	if err != nil {
+	var in benchRunsIn
+	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
 	r, err := b.Runs("bench", orNumber(in.MolarMass1, 0), orNumber(in.MolarMass2, 0)) // 0: not given
@@ -435,21 +439,34 @@ func benchRuns(arg js.Value) (any, error) {
 // pasteBench: the bench table with the rows of a pasted block appended (project.Bench.Paste). A
 // block that cannot be read changes nothing: the error names the field "paste".
 func pasteBench(arg js.Value) (any, error) {
-	var in pasteBenchIn
-	if err := decode(arg, &in, ""); err != nil {
+	b, err := readBench(arg)
+	if err != nil {
 		return nil, err
 	}
-	b, err := in.Bench.bench("bench")
-	if err != nil {
+	var in pasteBenchIn
+	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
 	pasted, err := b.Paste("bench", in.Text)
 	if err != nil {
 		return nil, err
 	}
+	data, err := json.Marshal(pasted)
+	if err != nil {
+		return nil, err
+	}
 	out := object.New()
-	out.Set("bench", benchValue(pasted))
+	out.Set("bench", fromJSON(data))
 	return out, nil
+}
+
+// readBench reads the {bench} argument with the project file's reader (project.ParseBench).
+func readBench(arg js.Value) (project.Bench, error) {
+	data, err := readJSON(arg, "bench")
+	if err != nil {
+		return project.Bench{}, err
+	}
+	return project.ParseBench("bench", data)
 }
 
 // fit: every estimation method on the runs, with the recommended one and the warnings.
@@ -718,21 +735,32 @@ func qe(arg js.Value) (any, error) {
 	return qeOut{R1: q.R1, R2: q.R2, Q1: q.Monomer1.Q, E1: q.Monomer1.E, Q2: q.Monomer2.Q, E2: q.Monomer2.E, Source1: q.Monomer1.Source, Source2: q.Monomer2.Source}, nil
 }
 
-// readProject reads and validates the {project} argument.
+// readProject reads and validates the {project} argument, as JSON text, with project.Parse.
 func readProject(arg js.Value) (project.Project, error) {
-	var in projectIn
-	if err := decode(arg, &in, ""); err != nil {
-		return project.Project{}, err
-	}
-	p, err := in.Project.project()
+	data, err := readJSON(arg, "project")
 	if err != nil {
 		return project.Project{}, err
 	}
-	return p, nil
+	return project.Parse(data)
 }
 
-func projectResult(p project.Project) js.Value {
+// projectValue returns p as the Project of the d.ts: its file text (project.Marshal) read by
+// JSON.parse.
+func projectValue(p project.Project) (js.Value, error) {
+	data, err := project.Marshal(p)
+	if err != nil {
+		return js.Value{}, err
+	}
+	return fromJSON(data), nil
+}
+
+// projectResult is {project}.
+func projectResult(p project.Project) (any, error) {
+	v, err := projectValue(p)
+	if err != nil {
+		return nil, err
+	}
 	out := object.New()
-	out.Set("project", projectValue(p))
-	return out
+	out.Set("project", v)
+	return out, nil
 }

@@ -115,17 +115,17 @@ func resolved(v js.Value) js.Value { return promise.Call("resolve", v) }
 // whose argument is optional and was left out.
 func oneArgument(args []js.Value, policy argPolicy) (js.Value, error) {
 	if len(args) > 1 {
-		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: fmt.Sprintf("expected one object, got %d arguments", len(args)), Err: errWrongType}
+		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: fmt.Sprintf("expected one object, got %d arguments", len(args)), Err: copoly.ErrWrongType}
 	}
 	if len(args) == 0 || args[0].IsUndefined() {
 		if policy == argOptional {
 			return object.New(), nil
 		}
-		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: "expected one object with the inputs, got nothing", Err: errMissing}
+		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: "expected one object with the inputs, got nothing", Err: copoly.ErrMissing}
 	}
 	a := args[0]
 	if t, ok := typeOf(a); !ok || t != js.TypeObject || isArray(a) {
-		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: "expected one object with the inputs, got " + describe(a), Err: errWrongType}
+		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: "expected one object with the inputs, got " + describe(a), Err: copoly.ErrWrongType}
 	}
 	return a, nil
 }

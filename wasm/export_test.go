@@ -9,6 +9,7 @@ package main
 // The tests call the methods through syscall/js, as a page does.
 
 import (
+	"encoding/json"
 	"strings"
 	"syscall/js"
 	"testing"
@@ -191,4 +192,14 @@ func TestUnsupportedJSValues(t *testing.T) {
 	wantError(t, call(api, "composition", jsEval(`{r1: 1n, r2: 1, f1: [0.5]}`)), "r1", "must be a number")
 	wantError(t, call(api, "composition", jsEval(`{r1: 1, r2: 1, f1: [0.5, 2n]}`)), "f1[1]", "must be a number")
 	wantError(t, call(api, "composition", jsEval(`{r1: Symbol("r"), r2: 1, f1: [0.5]}`)), "r1", "a symbol")
+}
+
+// mustJSON returns v as JSON text, as encoding/json writes it.
+func mustJSON(t *testing.T, v any) string {
+	t.Helper()
+	b, err := json.Marshal(v)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return string(b)
 }

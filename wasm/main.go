@@ -67,8 +67,11 @@
 // # Files
 //
 // main.go registers the object; export.go holds the wrapper (argument check, recover, error
-// object, Promise); dto.go the JS-facing types and the reading of arguments; api.go the
-// methods; storage.go the IndexedDB wiring. The science is all in package copoly.
+// object, Promise); decode.go the reading of arguments into DTOs; dto.go the JS-facing types;
+// jsontext.go the crossing of projects and bench grids as JSON text (read by project.Parse and
+// project.ParseBench, the one schema of the project file, and written by project.Marshal);
+// api.go the methods; storage.go the IndexedDB wiring. The science is all in copoly and its
+// packages.
 package main
 
 import "syscall/js"

@@ -610,8 +610,8 @@ func TestLibraryMonomerData(t *testing.T) {
 }
 
 // TestProjectWithPlan round-trips a project with a plan section through checkProject,
-// exportProject, importProject and storage, checks the plan section's errors, and runs the demo
-// project's plan settings through plan as the page does.
+// exportProject, importProject and storage, and runs the demo project's plan settings through
+// plan as the page does.
 func TestProjectWithPlan(t *testing.T) {
 	api, _ := testAPI(t)
 	demo := demoArg(t, api)
@@ -620,7 +620,7 @@ func TestProjectWithPlan(t *testing.T) {
 	if pl.Type() != js.TypeObject {
 		t.Fatalf("demo project plan = %s, want an object", stringify(pl))
 	}
-	if got, want := stringify(pl), stringify(planValue(*dp)); got != want {
+	if got, want := stringify(pl), mustJSON(t, *dp); got != want {
 		t.Errorf("demo plan = %s, want %s", got, want)
 	}
 	// The demo plan through plan, as the page calls it.
@@ -662,36 +662,5 @@ func TestProjectWithPlan(t *testing.T) {
 	wantNoError(t, r)
 	if !r.Get("project").Get("plan").IsUndefined() {
 		t.Errorf("project without a plan gives plan %s, want it absent", stringify(r.Get("project").Get("plan")))
-	}
-
-	for _, c := range []struct{ name, edit, field, text string }{
-		{"plan a list", `a.project.plan = []`, "project.plan", "an object"},
-		{"mode unknown", `a.project.plan.mode = "fed-batch"`, "project.plan.mode", `"fed-batch"`},
-		{"mode too long", `a.project.plan.mode = "s".repeat(33)`, "project.plan.mode", "the limit is 32"},
-		{"feed a number", `a.project.plan.feed = 1`, "project.plan.feed", "must be text"},
-		{"target negative", `a.project.plan.targetF1 = -0.5`, "project.plan.targetF1", "negative"},
-		{"polymer mass NaN", `a.project.plan.polymerMass = NaN`, "project.plan.polymerMass", "finite"},
-		{"shots fractional", `a.project.plan.shots = 2.5`, "project.plan.shots", "whole number"},
-		{"shots negative", `a.project.plan.shots = -2`, "project.plan.shots", "negative"},
-		{"rise limit text", `a.project.plan.riseLimit = "50 K"`, "project.plan.riseLimit", "must be a number"},
-		{"rate law unknown", `a.project.plan.rateLaw = "halflife"`, "project.plan.rateLaw", `"halflife"`},
-		{"heat1 negative", `a.project.plan.heat1 = -70`, "project.plan.heat1", "negative"},
-		{"heat2 above 1000", `a.project.plan.heat2 = 1001`, "project.plan.heat2", "at most 1000"},
-		{"table a number", `a.project.plan.timeTable = 5`, "project.plan.timeTable", "list"},
-		{"table row short", `a.project.plan.timeTable[1] = [12.5]`, "project.plan.timeTable[1]", "time, conversion"},
-		{"table time text", `a.project.plan.timeTable[2][0] = "40 min"`, "project.plan.timeTable[2][0]", "must be a number"},
-		{"table time NaN", `a.project.plan.timeTable[0][0] = NaN`, "project.plan.timeTable[0][0]", "finite"},
-		{"table conversion falls", `a.project.plan.timeTable[2][1] = 0.01`, "project.plan.timeTable[2]", "cannot decrease"},
-		{"table times not increasing", `a.project.plan.timeTable[2][0] = 12.5`, "project.plan.timeTable[2]", "must increase"},
-		{"table conversion in percent", `a.project.plan.timeTable[2][1] = 30`, "project.plan.timeTable[2]", "between 0 and 1"},
-		{"table too long", `a.project.plan.timeTable = Array.from({length: 1001}, (_, i) => [i, 0.5])`, "project.plan.timeTable", "1000"},
-	} {
-		t.Run(c.name, func(t *testing.T) {
-			bad := edited(arg, c.edit)
-			for _, method := range []string{"checkProject", "exportProject"} {
-				wantError(t, call(api, method, bad), c.field, c.text)
-			}
-			wantError(t, await(t, call(api, "saveProject", bad)), c.field, c.text)
-		})
 	}
 }

@@ -202,7 +202,11 @@ func (s *storage) load(tab string, given *project.Draft) (any, error) {
 	if l.Project == nil {
 		out.Set("project", js.Null())
 	} else {
-		out.Set("project", projectValue(*l.Project))
+		v, err := projectValue(*l.Project)
+		if err != nil {
+			return nil, err
+		}
+		out.Set("project", v)
 	}
 	out.Set("storage", "indexeddb")
 	out.Set("revision", revisionValue(l.Revision))
@@ -240,8 +244,12 @@ func (s *storage) save(p project.Project, base project.Revision) (any, error) {
 		out.Set("savedAt", sv.Project.SavedAt)
 		out.Set("revision", revisionValue(sv.Revision))
 		if c := sv.Conflict; c != nil {
+			stored, err := projectValue(c.Stored)
+			if err != nil {
+				return nil, err
+			}
 			other := object.New()
-			other.Set("project", projectValue(c.Stored))
+			other.Set("project", stored)
 			other.Set("revision", revisionValue(c.Revision))
 			out.Set("conflict", other)
 			out.Set("kept", keptValue(c.Copy))
@@ -289,7 +297,9 @@ func (s *storage) keptCopy(name string) (any, error) {
 		js.CopyBytesToJS(bytes, data)
 		out.Set("bytes", bytes)
 		if p, err := project.Parse(data); err == nil {
-			out.Set("project", projectValue(p))
+			if v, err := projectValue(p); err == nil {
+				out.Set("project", v)
+			}
 		}
 		return out, nil
 	})

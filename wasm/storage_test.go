@@ -78,6 +78,16 @@ func TestProjects(t *testing.T) {
 		{"name too long", "p.name = 'x'.repeat(201)", "project.name", "the limit is 200"},
 		{"notes not text", "p.notes = 5", "project.notes", "must be text"},
 		{"invented not boolean", "p.invented = 'yes'", "project.invented", "true or false"},
+		// What JSON would lose or refuse is reported by field before the text is made.
+		{"r1 infinite", "p.r1 = Infinity", "project.r1", "+Inf"},
+		{"a cell NaN", "p.bench.rows[0].cells.F1 = NaN", "project.bench.rows[0].cells.F1", "NaN"},
+		{"name a function", "p.name = () => 'x'", "project.name", "a function cannot be kept in a project file"},
+		{"notes a symbol", "p.notes = Symbol('n')", "project.notes", "a symbol"},
+		{"level a BigInt", "p.level = 1n", "project.level", "unsupported kind"},
+		{"a model that refers to itself", "p.model.self = p.model", "project.model" + strings.Repeat(".self", 63), "nested more than 64 levels"},
+		{"a getter that throws", "Object.defineProperty(p, 'notes', {get() { throw new Error('no notes') }, enumerable: true})", "project.notes", "no notes"},
+		{"a text too long for any file", "p.ratioSource = 'x'.repeat(2 ** 21)", "project.ratioSource", "2097152 characters"},
+		{"a grid too large for a file", "p.bench.rows = Array.from({length: 1000}, () => ({label: 'x'.repeat(200), cells: Object.fromEntries(['f10', 'F1', 'sF', 'sf', 'conversion'].map((k) => [k, '9'.repeat(200)]))}))", "project.bench.rows", "holds 1000 entries"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			arg := jsEval(`((d) => { const p = structuredClone(d.project); ` + c.edit + `; return {project: p}; })`).Invoke(demo)

@@ -1,6 +1,10 @@
 package project
 
 import (
+	"unicode/utf8"
+)
+
+import (
 	"errors"
 	"fmt"
 	"maps"
@@ -44,7 +48,7 @@ type Bench struct {
 	Element      string     `json:"element"`
 	Carrier      int        `json:"carrier"`
 	ElementCount float64    `json:"elementCount"`
-	Rows         []BenchRow `json:"rows"`
+	Rows         []BenchRow `json:"rows" project:"required"`
 }
 
 // BenchRow is one row of a Bench: a label and the text of each cell, keyed by column
@@ -147,6 +151,9 @@ func CheckBench(field string, b Bench) error {
 			return &copoly.InputError{Field: row + ".cells", Value: float64(n), Reason: fmt.Sprintf("at most %d cells in a row", MaxCells), Err: copoly.ErrTooMany}
 		}
 		for _, key := range slices.Sorted(maps.Keys(r.Cells)) {
+			if n := utf8.RuneCountInString(key); n > MaxCellLength {
+				return &copoly.FieldError{Field: row + ".cells", Reason: fmt.Sprintf("has a key %d characters long (%q); the limit is %d", n, abbreviate(key), MaxCellLength), Err: ErrTooLong}
+			}
 			if !cellKeys[key] {
 				return &copoly.FieldError{Field: row + ".cells", Reason: fmt.Sprintf("has a cell keyed %q, which is not a column of the bench table", key), Err: ErrNotAllowed}
 			}
@@ -158,15 +165,16 @@ func CheckBench(field string, b Bench) error {
 	return nil
 }
 
-// checkJCR reports the first point of a joint confidence region that is not a pair of finite
-// ratios ≥ 0, or more than MaxJCRPoints points.
+// checkJCR reports the first ratio of a joint confidence region that is not finite and ≥ 0,
+// naming it field[i][j] (as plan.BandOf and the plan's time table name theirs), or more than
+// MaxJCRPoints points.
 func checkJCR(field string, jcr [][2]float64) error {
 	if n := len(jcr); n > MaxJCRPoints {
 		return &copoly.InputError{Field: field, Value: float64(n), Reason: fmt.Sprintf("at most %d points", MaxJCRPoints), Err: copoly.ErrTooMany}
 	}
 	for i, p := range jcr {
 		for j, v := range p {
-			f := fmt.Sprintf("%s[%d]", field, i)
+			f := fmt.Sprintf("%s[%d][%d]", field, i, j)
 			if math.IsNaN(v) || math.IsInf(v, 0) {
 				return &copoly.InputError{Field: f, Value: v, Reason: fmt.Sprintf("r%d of the point must be a finite number", j+1), Err: copoly.ErrNotFinite}
 			}

@@ -138,10 +138,10 @@ func TestParsePanels(t *testing.T) {
 	}{
 		{"model a list", `"model":[]`, "project.model", ErrWrongType, "an object"},
 		{"model kind unknown", `"model":{"kind":"ultimate"}`, "project.model.kind", ErrNotAllowed, `"ultimate"`},
-		{"model without kind", `"model":{"r11":1}`, "project.model.kind", ErrNotAllowed, `""`},
+		{"model without kind", `"model":{"r11":1}`, "project.model.kind", ErrMissing, "is missing"},
 		{"model ratio text", `"model":{"kind":"implicit","s1":"1.2"}`, "project.model.s1", ErrWrongType, "a number"},
 		{"triads an object", `"triads":{"f10":0.5}`, "project.triads", ErrWrongType, "a list"},
-		{"triad value text", `"triads":[{"f10":0.5,"A112":"0,4"}]`, "project.triads.A112", ErrWrongType, "a number"},
+		{"triad value text", `"triads":[{"f10":0.5,"A112":"0,4"}]`, "project.triads[0].A112", ErrWrongType, `must be a number, not the text "0,4"`},
 		{"triad value out of range", `"triads":[{"f10":0.5},{"f10":0.5,"A112":1.4}]`, "project.triads[1].A112", copoly.ErrOutOfRange, "not measured"},
 		{"size bin negative", `"sizeBins":[{"low":-5,"high":10}]`, "project.sizeBins[0].low", copoly.ErrOutOfRange, "negative"},
 		{"size bins a number", `"sizeBins":3`, "project.sizeBins", ErrWrongType, "a list"},

@@ -45,7 +45,7 @@ type Plan struct {
 	HalfLife     float64 `json:"halfLife,omitempty"`
 	// TimeTable is a measured conversion–time table, rows [time in min, conversion], as in
 	// plan.Input; nil when none.
-	TimeTable [][2]float64 `json:"timeTable,omitempty"`
+	TimeTable [][2]float64 `json:"timeTable,omitempty" pair:"time, conversion"`
 	// Heat1 and Heat2 are the user's heats of polymerization −ΔHp of M1 and M2 in kJ/mol,
 	// in place of the library's (0: not given).
 	Heat1 float64 `json:"heat1,omitempty"`

@@ -158,7 +158,7 @@ func TestParsePlan(t *testing.T) {
 		text              string
 	}{
 		{"not an object", `[1]`, "project.plan", ErrWrongType, "an object"},
-		{"mode a number", `{"mode":1}`, "project.plan.mode", ErrWrongType, "text in quotes"},
+		{"mode a number", `{"mode":1}`, "project.plan.mode", ErrWrongType, "must be text, not the number 1"},
 		{"mode unknown", `{"mode":"fast"}`, "project.plan.mode", ErrNotAllowed, `"fast"`},
 		{"shots fractional", `{"shots":2.5}`, "project.plan.shots", ErrWrongType, "whole number"},
 		{"shots negative", `{"shots":-1}`, "project.plan.shots", copoly.ErrOutOfRange, "negative"},

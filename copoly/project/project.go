@@ -99,12 +99,13 @@ var (
 	ErrNotProject = errors.New("project: not a copoly project file")
 	// ErrNewerVersion reports a project file written by a newer copoly.
 	ErrNewerVersion = errors.New("project: made by a newer copoly")
-	// ErrMissing reports a required key that is absent or null.
-	ErrMissing = errors.New("project: required value missing")
-	// ErrWrongType reports a value of the wrong JSON type, such as text where a number belongs.
-	ErrWrongType = errors.New("project: value has the wrong type")
-	// ErrTooLong reports a text field above its length limit.
-	ErrTooLong = errors.New("project: text too long")
+	// ErrMissing reports a required key that is absent or null; it is copoly.ErrMissing.
+	ErrMissing = copoly.ErrMissing
+	// ErrWrongType reports a value of the wrong JSON type, such as text where a number belongs;
+	// it is copoly.ErrWrongType.
+	ErrWrongType = copoly.ErrWrongType
+	// ErrTooLong reports a text field above its length limit; it is copoly.ErrTooLong.
+	ErrTooLong = copoly.ErrTooLong
 	// ErrDamaged reports stored projects that can no longer be read.
 	ErrDamaged = errors.New("project: stored project damaged")
 )
@@ -123,20 +124,20 @@ type Project struct {
 	Format   string  `json:"format"`  // always Format
 	Version  int     `json:"version"` // always Version when written by this package
 	Name     string  `json:"name"`
-	Monomer1 Monomer `json:"monomer1"`
-	Monomer2 Monomer `json:"monomer2"`
+	Monomer1 Monomer `json:"monomer1" project:"required"`
+	Monomer2 Monomer `json:"monomer2" project:"required"`
 	// R1 and R2 are the terminal-model reactivity ratios, r1 = k11/k12 and r2 = k22/k21.
-	R1 float64 `json:"r1"`
-	R2 float64 `json:"r2"`
+	R1 float64 `json:"r1" project:"required"`
+	R2 float64 `json:"r2" project:"required"`
 	// RatioSource says where R1 and R2 come from (free text).
 	RatioSource string `json:"ratioSource"`
 	// F10 is the initial mole fraction of monomer 1 in the feed, 0 < F10 < 1.
-	F10 float64 `json:"f10"`
+	F10 float64 `json:"f10" project:"required"`
 	// Conversion is the last overall molar conversion of the drift view, 0 < Conversion ≤ 1.
-	Conversion float64 `json:"conversion"`
+	Conversion float64 `json:"conversion" project:"required"`
 	// Tolerance is the ± tolerance on the cumulative copolymer composition (mole fraction) that
 	// sets the conversion limit, 0 < Tolerance ≤ 0.5.
-	Tolerance float64 `json:"tolerance"`
+	Tolerance float64 `json:"tolerance" project:"required"`
 	Notes     string  `json:"notes"`
 	// Invented is true for the built-in demo scenario, whose lab and runs do not exist.
 	Invented bool `json:"invented,omitempty"`
@@ -149,7 +150,7 @@ type Project struct {
 	Level float64 `json:"level,omitempty"`
 	// JCR is the joint confidence region of R1 and R2 as a closed polygon of (r1, r2) points,
 	// when the ratios in use came from a fit; at most MaxJCRPoints points, each finite and ≥ 0.
-	JCR [][2]float64 `json:"jcr,omitempty"`
+	JCR [][2]float64 `json:"jcr,omitempty" pair:"r1, r2"`
 	// Model is the model of the sequences panel, or nil when none was chosen.
 	Model *Model `json:"model,omitempty"`
 	// Triads are the measured triad fractions as entered, at most MaxTriadRows rows, or nil

@@ -16,8 +16,8 @@ const MaxSizeBins = molarmass.MaxAverageRows
 // one entry of the sizeBins of the JavaScript API. Every number must be finite and ≥ 0; whether
 // the table makes a distribution is for molarmass.BinAverages to say.
 type SizeBin struct {
-	Low            float64 `json:"low"`
-	High           float64 `json:"high"`
+	Low            float64 `json:"low" project:"required"`
+	High           float64 `json:"high" project:"required"`
 	NumberFraction float64 `json:"numberFraction,omitempty"`
 	WeightFraction float64 `json:"weightFraction,omitempty"`
 }

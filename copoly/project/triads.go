@@ -23,7 +23,7 @@ const NotMeasured = -1
 // not made; the values are kept as typed, so the family sums are not checked here.
 type TriadRow struct {
 	// F10 is the mole fraction of M1 in the feed, in [0, 1].
-	F10 float64 `json:"f10"`
+	F10 float64 `json:"f10" project:"required"`
 	// F1 is the mole fraction of M1 in the copolymer; A… are the triad fractions. Each is in
 	// [0, 1], NotMeasured, or nil.
 	F1   *float64 `json:"F1,omitempty"`
