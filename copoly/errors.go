@@ -6,24 +6,25 @@ import (
 	"math"
 )
 
-// Sentinel errors wrapped by [InputError] and [FieldError]; test for them with errors.Is.
+// Sentinel errors wrapped by [InputError] and [FieldError]; test for them with errors.Is. Each
+// carries its code ([Code]).
 var (
 	// ErrNotFinite reports a NaN or infinite input.
-	ErrNotFinite = errors.New("copoly: value is not a finite number")
+	ErrNotFinite = NewSentinel(CodeNotANumber, "copoly: value is not a finite number")
 	// ErrOutOfRange reports a finite input outside its valid domain.
-	ErrOutOfRange = errors.New("copoly: value out of range")
+	ErrOutOfRange = NewSentinel(CodeOutOfRange, "copoly: value out of range")
 	// ErrTooMany reports an input array or count above the documented limit.
-	ErrTooMany = errors.New("copoly: too many values")
+	ErrTooMany = NewSentinel(CodeTooMany, "copoly: too many values")
 	// ErrUnreachable reports a target that no input can produce (for example a copolymer
 	// composition outside the range a pair of reactivity ratios can give).
-	ErrUnreachable = errors.New("copoly: target cannot be reached")
+	ErrUnreachable = NewSentinel(CodeUnreachable, "copoly: target cannot be reached")
 	// ErrMissing reports a required input that is absent (or null).
-	ErrMissing = errors.New("copoly: value missing")
+	ErrMissing = NewSentinel(CodeMissing, "copoly: value missing")
 	// ErrWrongType reports a value of the wrong type, such as text where a number belongs, or
 	// one that cannot be read.
-	ErrWrongType = errors.New("copoly: value has the wrong type")
+	ErrWrongType = NewSentinel(CodeWrongType, "copoly: value has the wrong type")
 	// ErrTooLong reports a text above its length limit.
-	ErrTooLong = errors.New("copoly: text too long")
+	ErrTooLong = NewSentinel(CodeTooLong, "copoly: text too long")
 )
 
 // InputError reports an invalid input value. Field names the input as the JavaScript API and

@@ -29,6 +29,9 @@ type RunWarning struct {
 	Row     int
 	Field   string
 	Message string
+	// Code says what is wrong in a word: CodeMassBalance, CodeDuplicate, CodeNoInformation or
+	// CodeFewFeeds (see [Code]), or CodeHighConversion for [copoly/copoly/fit.LinearMethodWarnings].
+	Code string
 }
 
 // massBalanceTolerance is the slack allowed in the mass-balance checks of [CheckRuns], for
@@ -62,12 +65,12 @@ const MinFeeds = 3
 // add [copoly/copoly/fit.LinearMethodWarnings].
 func CheckRuns(runs []Run) []RunWarning {
 	var w []RunWarning
-	add := func(i int, field, format string, args ...any) {
+	add := func(code string, i int, field, format string, args ...any) {
 		f := fmt.Sprintf("runs[%d]", i)
 		if field != "" {
 			f += "." + field
 		}
-		w = append(w, RunWarning{Row: i, Field: f, Message: fmt.Sprintf("row %d: ", i+1) + fmt.Sprintf(format, args...)})
+		w = append(w, RunWarning{Row: i, Field: f, Message: fmt.Sprintf("row %d: ", i+1) + fmt.Sprintf(format, args...), Code: code})
 	}
 	seen := map[[3]float64]int{}
 	var feeds []float64
@@ -78,36 +81,36 @@ func CheckRuns(runs []Run) []RunWarning {
 		x := r.Conversion
 		if x > 0 {
 			if r.F1*x > r.F10+massBalanceTolerance {
-				add(i, "F1", "F1·X = %.4g·%.4g = %.4g is more than f10 = %.4g: the copolymer would hold more M1 than was charged; check F1, X and the feed",
+				add(CodeMassBalance, i, "F1", "F1·X = %.4g·%.4g = %.4g is more than f10 = %.4g: the copolymer would hold more M1 than was charged; check F1, X and the feed",
 					r.F1, x, r.F1*x, r.F10)
 			}
 			if (1-r.F1)*x > 1-r.F10+massBalanceTolerance {
-				add(i, "F1", "(1 − F1)·X = %.4g·%.4g = %.4g is more than 1 − f10 = %.4g: the copolymer would hold more M2 than was charged; check F1, X and the feed",
+				add(CodeMassBalance, i, "F1", "(1 − F1)·X = %.4g·%.4g = %.4g is more than 1 − f10 = %.4g: the copolymer would hold more M2 than was charged; check F1, X and the feed",
 					1-r.F1, x, (1-r.F1)*x, 1-r.F10)
 			}
 		}
 		key := [3]float64{r.F10, r.Conversion, r.F1}
 		if j, ok := seen[key]; ok {
-			add(i, "", "repeats row %d (same f10, X and F1): a copied row counts twice in a fit; a true replicate rarely matches to every digit", j+1)
+			add(CodeDuplicate, i, "", "repeats row %d (same f10, X and F1): a copied row counts twice in a fit; a true replicate rarely matches to every digit", j+1)
 		} else {
 			seen[key] = i
 		}
 		switch {
 		case r.F10 == 0 || r.F10 == 1:
-			add(i, "f10", "the feed holds only M%d (f10 = %g): a homopolymerization tells nothing about the reactivity ratios", 2-int(r.F10), r.F10)
+			add(CodeNoInformation, i, "f10", "the feed holds only M%d (f10 = %g): a homopolymerization tells nothing about the reactivity ratios", 2-int(r.F10), r.F10)
 		default:
 			feeds = append(feeds, r.F10)
 		}
 		if r.F10 > 0 && r.F10 < 1 {
 			switch r.F1 {
 			case 0:
-				add(i, "F1", "F1 = 0: no M1 was found in the copolymer, which only r2 → ∞ would give; such a point bounds r2 but does not estimate it (M1 may be below the detection limit)")
+				add(CodeNoInformation, i, "F1", "F1 = 0: no M1 was found in the copolymer, which only r2 → ∞ would give; such a point bounds r2 but does not estimate it (M1 may be below the detection limit)")
 			case 1:
-				add(i, "F1", "F1 = 1: no M2 was found in the copolymer, which only r1 → ∞ would give; such a point bounds r1 but does not estimate it (M2 may be below the detection limit)")
+				add(CodeNoInformation, i, "F1", "F1 = 1: no M2 was found in the copolymer, which only r1 → ∞ would give; such a point bounds r1 but does not estimate it (M2 may be below the detection limit)")
 			}
 		}
 		if x == 1 {
-			add(i, "conversion", "X = 1: at full conversion the copolymer has the composition of the feed whatever the reactivity ratios")
+			add(CodeNoInformation, i, "conversion", "X = 1: at full conversion the copolymer has the composition of the feed whatever the reactivity ratios")
 		}
 	}
 	if d := distinctFeeds(feeds); d < MinFeeds {
@@ -115,7 +118,7 @@ func CheckRuns(runs []Run) []RunWarning {
 		if d == 1 {
 			feeds = "feed"
 		}
-		w = append(w, RunWarning{Row: -1, Field: "runs", Message: fmt.Sprintf(
+		w = append(w, RunWarning{Row: -1, Field: "runs", Code: CodeFewFeeds, Message: fmt.Sprintf(
 			"the table has %d %s of both monomers: at least %d copolymerizations from different initial feeds are needed to estimate r1 and r2 with a check of the fit (IUPAC recommendation, Autzen et al., Polym. Chem. 2024)",
 			d, feeds, MinFeeds)})
 	}

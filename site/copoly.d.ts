@@ -19,7 +19,29 @@
 export interface CopolyError {
   error: string;   // a sentence for the user, e.g. "r1 = -0.2: a reactivity ratio cannot be negative"
   field?: string;  // the input field at fault, e.g. "r1", "f1[3]", "conversion[0]", "project.monomer1.molarMass"
+  code: ErrorCode; // what is wrong, in a word, e.g. "out-of-range"
+  reason: string;  // the sentence without the field and value, e.g. "a reactivity ratio cannot be negative"
+  value?: number;  // the offending number, when there is one, e.g. -0.2 (may be NaN or ±Infinity)
+  row?: number;    // the 0-based row of a bench table or of a fit's runs the field lies in, e.g. 3 for "runs[3].f10"
 }
+
+// Codes of errors and warnings (copoly.Codes in Go, copoly/codes.go, defines them once):
+//   input:   not-a-number (NaN, ±Infinity or text that is not a number), out-of-range, too-many,
+//            too-long, unreachable, missing, wrong-type, not-allowed (a word not accepted),
+//            not-a-table (pasted text that cannot be read)
+//   project and storage: not-a-project, newer-version, damaged, no-copy, storage, not-stored,
+//            storage-full, unavailable, busy
+//   internal: a fault of copoly, not of the input (a recovered panic)
+//   warnings of bench data: mass-balance, duplicate, no-information, few-feeds
+//   warnings of fit: high-conversion, open-region, at-bound, partly-weighted, scatter, trend,
+//            no-uncertainties, not-shown; a method that could not run has its error's code
+export type ErrorCode =
+  | "not-a-number" | "out-of-range" | "too-many" | "too-long" | "unreachable" | "missing" | "wrong-type"
+  | "not-allowed" | "not-a-table" | "not-a-project" | "newer-version" | "damaged" | "no-copy" | "storage"
+  | "not-stored" | "storage-full" | "unavailable" | "busy" | "internal"
+  | "mass-balance" | "duplicate" | "no-information" | "few-feeds"
+  | "high-conversion" | "open-region" | "at-bound" | "partly-weighted" | "scatter" | "trend"
+  | "no-uncertainties" | "not-shown";
 
 // Limits. Every list, count and text has a maximum, far above real use, checked before any work
 // (and a text's length before it is copied into the module); above it the result is a
@@ -164,7 +186,7 @@ export interface BenchTable {
 // One run in mole fractions and molar conversion (conversion 0 or absent = low conversion).
 export interface Run { f10: number; conversion?: number; F1: number; sF?: number; sX?: number; sf?: number }
 
-export interface RunWarning { row: number; field: string; message: string }   // row −1: the whole table
+export interface RunWarning { row: number; field: string; message: string; code: ErrorCode }   // row −1: the whole table
 
 export interface BenchResult {
   columns: string[];                 // cell keys this table's forms use, in display order
@@ -222,7 +244,7 @@ export interface FitResult {
   recommended: "nonlinear" | "evm";
   swappedFinemanRoss?: { r1: number; r2: number };   // Fineman–Ross with M1/M2 swapped (label dependence)
   trends: { feed: { slope: number; pValue: number; flagged: boolean }; conversion: { slope: number; pValue: number; flagged: boolean } };
-  warnings: { method: string; row: number; field: string; message: string }[];  // a method absent from `methods` has its reason here
+  warnings: { method: string; row: number; field: string; message: string; code: ErrorCode }[];  // a method absent from `methods` has its reason here
 }
 
 export interface NextRunsResult {

@@ -426,7 +426,7 @@ func benchRuns(arg js.Value) (any, error) {
 	}
 	ws := make([]runWarningOut, len(r.Warnings))
 	for i, w := range r.Warnings {
-		ws[i] = runWarningOut{Row: w.Row, Field: w.Field, Message: w.Message}
+		ws[i] = runWarningOut{Row: w.Row, Field: w.Field, Message: w.Message, Code: w.Code}
 	}
 	out := object.New()
 	out.Set("columns", toJS(r.Columns))
@@ -498,10 +498,10 @@ func fitMethod(arg js.Value) (any, error) {
 func fitValue(e *fit.Estimates, curves bool) js.Value {
 	warnings := make([]warningOut, len(e.Warnings))
 	for i, w := range e.Warnings {
-		warnings[i] = warningOut{Method: w.Method, Row: w.Row, Field: w.Field, Message: w.Message}
+		warnings[i] = warningOut{Method: w.Method, Row: w.Row, Field: w.Field, Message: w.Message, Code: w.Code}
 	}
 	notFinite := func(method, path string) {
-		warnings = append(warnings, warningOut{Method: method, Row: -1, Message: fmt.Sprintf("%s gave a value that is not a finite number (%s); it is not shown", method, path)})
+		warnings = append(warnings, warningOut{Method: method, Row: -1, Code: copoly.CodeNotShown, Message: fmt.Sprintf("%s gave a value that is not a finite number (%s); it is not shown", method, path)})
 	}
 	methods := object.New()
 	add := func(name string, dto any, drop ...string) {

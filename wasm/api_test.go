@@ -296,7 +296,7 @@ func TestLibrary(t *testing.T) {
 	}
 }
 
-// TestInputErrors checks that bad input gives {error, field} with the field named as in
+// TestInputErrors checks that bad input gives an error object with the field named as in
 // site/copoly.d.ts. The limits in the expected messages are copoly's constants (MaxPoints,
 // MaxBins, MaxRunLength, MaxChains, MaxChainLength) and the bridge's whole-number seed range.
 func TestInputErrors(t *testing.T) {

@@ -5,7 +5,7 @@ package main
 // The bad-input sweep. Every method of the copoly object is called with a table of bad inputs
 // (wrong JS types, null and absent values, NaN and infinities, values out of range, huge arrays
 // and counts, texts of ten million characters, deep and cyclic junk, arguments that are not an
-// object) and must answer each with a plain {error, field} object whose field is the input as
+// object) and must answer each with a plain {error, field, code, reason, value?, row?} object whose field is the input as
 // the caller wrote it and whose message names that field and the bad value, without throwing.
 // After the sweep the module must still answer a valid call correctly, and the Go heap must
 // hold no more than before, give or take a generous margin. Nothing here is timed.
@@ -536,7 +536,8 @@ var sweepJS = jsEval(`{
 	},
 	isError(v) {
 		return v !== null && typeof v === "object" && Object.getPrototypeOf(v) === Object.prototype &&
-			Object.keys(v).sort().join() === "error,field" && typeof v.error === "string" && typeof v.field === "string";
+			["code,error,field,reason", "code,error,field,reason,value", "code,error,field,reason,row", "code,error,field,reason,row,value"]
+				.includes(Object.keys(v).sort().join()) && typeof v.error === "string" && typeof v.field === "string";
 	},
 	at(v, path) {
 		for (const k of path.match(/[^.[\]]+/g)) v = v == null ? undefined : v[k];
@@ -580,12 +581,12 @@ func (s *sweep) call(t *testing.T, m sweepMethod, name string, args ...any) js.V
 	return v
 }
 
-// wantBad checks that v is a plain {error, field} for field whose message names the field and
-// holds text.
+// wantBad checks that v is a plain {error, field, code, reason, value?, row?} for field whose
+// message names the field and holds text, with its parts (wantParts).
 func wantBad(t *testing.T, v js.Value, field, text string) {
 	t.Helper()
 	if !sweepJS.Call("isError", v).Bool() {
-		t.Fatalf("got %.300s, want a plain {error, field} object for %s", stringify(v), field)
+		t.Fatalf("got %.300s, want a plain {error, field, code, reason, value?, row?} object for %s", stringify(v), field)
 	}
 	msg, got := v.Get("error").String(), v.Get("field").String()
 	if got != field {
@@ -594,6 +595,7 @@ func wantBad(t *testing.T, v js.Value, field, text string) {
 	if msg == "" || !strings.Contains(msg, field) || !strings.Contains(msg, text) {
 		t.Errorf("error %.300q does not name the field %q and the value (%q)", msg, field, text)
 	}
+	wantParts(t, v)
 }
 
 func TestBadInputSweep(t *testing.T) {

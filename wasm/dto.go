@@ -449,6 +449,7 @@ type runWarningOut struct {
 	Row     int    `js:"row"`
 	Field   string `js:"field"`
 	Message string `js:"message"`
+	Code    string `js:"code"`
 }
 
 // pasteBenchIn is the argument of pasteBench without its bench (readBench).
@@ -604,6 +605,7 @@ type warningOut struct {
 	Row     int    `js:"row"`
 	Field   string `js:"field"`
 	Message string `js:"message"`
+	Code    string `js:"code"`
 }
 
 type nextRunsIn struct {

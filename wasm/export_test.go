@@ -10,12 +10,16 @@ package main
 
 import (
 	"encoding/json"
+	"fmt"
+	"slices"
 	"strings"
 	"syscall/js"
 	"testing"
 	"time"
 
 	"github.com/hack-pad/hackpadfs/mem"
+
+	"copoly/copoly"
 )
 
 // testAPI returns a copoly object whose storage is a fresh in-memory file system.
@@ -74,6 +78,28 @@ func wantError(t *testing.T, v js.Value, field, text string) {
 	}
 	if msg := v.Get("error").String(); !strings.Contains(msg, text) {
 		t.Errorf("error = %q, want it to contain %q", msg, text)
+	}
+	wantParts(t, v)
+}
+
+// wantParts checks the parts of a CopolyError beside its message: a code of copoly.Codes(),
+// "internal" only for an error naming no field (a panic recovered), the reason that ends the
+// message, the value (when there is one) that the
+// message names, and the row (when there is one) that the field names.
+func wantParts(t *testing.T, v js.Value) {
+	t.Helper()
+	msg, field := v.Get("error").String(), v.Get("field").String()
+	if code := v.Get("code"); code.Type() != js.TypeString || (code.String() == copoly.CodeInternal && field != "") || !slices.Contains(copoly.Codes(), code.String()) {
+		t.Errorf("code = %s, want a code of copoly.Codes() (error %q)", stringify(code), msg)
+	}
+	if r := v.Get("reason"); r.Type() != js.TypeString || r.String() == "" || !strings.HasSuffix(msg, r.String()) {
+		t.Errorf("reason = %s, want the end of the message %q", stringify(r), msg)
+	}
+	if x := v.Get("value"); !x.IsUndefined() && (x.Type() != js.TypeNumber || !strings.HasPrefix(msg, field+" = ")) {
+		t.Errorf("value = %s, want a number the message %q names after %q", stringify(x), msg, field)
+	}
+	if r := v.Get("row"); !r.IsUndefined() && (r.Type() != js.TypeNumber || !strings.Contains(field, fmt.Sprintf("[%d]", r.Int()))) {
+		t.Errorf("row = %s, want the row the field %q names", stringify(r), field)
 	}
 }
 

@@ -91,6 +91,11 @@ func TestBenchRuns(t *testing.T) {
 	if got := r.Get("warnings").Length(); got != len(warnings) {
 		t.Errorf("%d warnings, want %d", got, len(warnings))
 	}
+	for i, w := range warnings {
+		if got := r.Get("warnings").Index(i).Get("code").String(); got != w.Code {
+			t.Errorf("warnings[%d].code = %q, want %q", i, got, w.Code)
+		}
+	}
 
 	// A bad cell and a blank row: null runs, an error naming the cell for the first only.
 	bad := edited(arg, `a.bench.rows[1].cells.F1 = "0,4x"; a.bench.rows[2] = {label: "", cells: {}}`)
@@ -100,6 +105,10 @@ func TestBenchRuns(t *testing.T) {
 		t.Errorf("runs = %s, want null at 1 and 2 only", stringify(r.Get("runs")))
 	}
 	wantError(t, r.Get("errors").Index(1), "runs[1].F1", "")
+	// A cell's error names its row and says, in a code, that the text is not a number.
+	if e := r.Get("errors").Index(1); e.Get("row").Int() != 1 || e.Get("code").String() != copoly.CodeNotANumber {
+		t.Errorf("errors[1] = %s, want row 1 and code %s", stringify(e), copoly.CodeNotANumber)
+	}
 	if !r.Get("errors").Index(2).IsNull() {
 		t.Errorf("errors[2] for a blank row = %s, want null", stringify(r.Get("errors").Index(2)))
 	}
@@ -395,7 +404,7 @@ func TestFit(t *testing.T) {
 	}
 	for i, w := range e.Warnings {
 		g := ws.Index(i)
-		if g.Get("method").String() != w.Method || g.Get("row").Int() != w.Row || g.Get("field").String() != w.Field || g.Get("message").String() != w.Message {
+		if g.Get("method").String() != w.Method || g.Get("row").Int() != w.Row || g.Get("field").String() != w.Field || g.Get("message").String() != w.Message || g.Get("code").String() != w.Code {
 			t.Errorf("warnings[%d] = %s, want %+v", i, stringify(g), w)
 		}
 	}

@@ -50,11 +50,12 @@
 // basis "mass"), the runLengths and batch of sequence, and Stockmayer's distribution of chains.
 //
 // Every method takes one plain object (optional for library, demoProject and loadProject) and
-// returns one plain object. Bad input never throws: the result is then {error, field}, where
-// field names the input at fault ("r1", "f1[3]", "runs[2].F1", "bench.rows[3].cells.f10",
-// "timeTable[2]", "jcr[5][0]", "project.monomer1.molarMass", "project.plan.mode", "arguments").
-// A Go panic inside a method is recovered and reported the same way with an "internal error"
-// message, so the module keeps answering. The storage methods return Promises that always
+// returns one plain object. Bad input never throws: the result is then {error, field, code,
+// reason, value?, row?} (copoly.PartsOf), where field names the input at fault ("r1", "f1[3]",
+// "runs[2].F1", "bench.rows[3].cells.f10", "timeTable[2]", "jcr[5][0]",
+// "project.monomer1.molarMass", "project.plan.mode", "arguments") and code says what is wrong in
+// a word (copoly.Codes). A Go panic inside a method is recovered and reported the same way with
+// an "internal error" message and the code "internal", so the module keeps answering. The storage methods return Promises that always
 // resolve, never reject.
 //
 // # Storage

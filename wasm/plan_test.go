@@ -440,7 +440,7 @@ func TestPlanBand(t *testing.T) {
 	}
 }
 
-// TestPlanErrors checks that bad plan input gives {error, field} naming the input as in
+// TestPlanErrors checks that bad plan input gives an error object naming the input as in
 // site/copoly.d.ts. The limits are copoly's constants (MaxPlanSteps, MaxShots, MaxTimeRows,
 // MaxBandSamples) and project.MaxJCRPoints.
 func TestPlanErrors(t *testing.T) {

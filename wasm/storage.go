@@ -48,11 +48,17 @@ const (
 	notStoredMessage = "the browser did not keep what was written; its storage for this page may be full"
 )
 
-// errNoIndexedDB reports a JS environment without IndexedDB; it will not appear later.
-var errNoIndexedDB = errors.New("this JavaScript environment has no IndexedDB")
-
-// errBusy reports that an earlier storage call of this page did not finish in time.
-var errBusy = errors.New("storage busy")
+// Sentinels of the storage errors, with their codes (copoly.Code).
+var (
+	// errNoIndexedDB reports a JS environment without IndexedDB; it will not appear later.
+	errNoIndexedDB = copoly.NewSentinel(copoly.CodeUnavailable, "this JavaScript environment has no IndexedDB")
+	// errBusy reports that an earlier storage call of this page did not finish in time.
+	errBusy = copoly.NewSentinel(copoly.CodeBusy, "storage busy")
+	// errUnavailable is wrapped by the error of a call that needs storage when it cannot open.
+	errUnavailable = copoly.NewSentinel(copoly.CodeUnavailable, "browser storage unavailable")
+	// errStorageFull is wrapped by the error of a write the browser refused for lack of room.
+	errStorageFull = copoly.NewSentinel(copoly.CodeStorageFull, "browser storage full")
+)
 
 // storage serialises the storage calls of one page and opens the file system on first use.
 type storage struct {
@@ -156,7 +162,7 @@ func (s *storage) store() (project.Store, error) {
 
 // unavailable is the error of a call that needs storage when there is none.
 func unavailable(err error) error {
-	return &copoly.FieldError{Field: "storage", Reason: "browser storage is unavailable, nothing was stored; export the project to a file to keep it (" + err.Error() + ")", Err: err}
+	return &copoly.FieldError{Field: "storage", Reason: "browser storage is unavailable, nothing was stored; export the project to a file to keep it (" + err.Error() + ")", Err: errors.Join(err, errUnavailable)}
 }
 
 // plain returns err with a reason a chemist can read when the browser refused a write for lack
@@ -166,15 +172,15 @@ func plain(err error) error {
 	if err == nil || copoly.Field(err) != "storage" {
 		return err
 	}
-	reason := fullMessage
+	reason, wrapped := fullMessage, errors.Join(errStorageFull, err)
 	switch {
 	case strings.Contains(strings.ToLower(err.Error()), "quota"):
 	case errors.Is(err, project.ErrNotStored):
-		reason = notStoredMessage
+		reason, wrapped = notStoredMessage, err
 	default:
 		return err
 	}
-	return &copoly.FieldError{Field: "storage", Reason: reason + " (" + strings.TrimPrefix(err.Error(), "storage: ") + ")", Err: err}
+	return &copoly.FieldError{Field: "storage", Reason: reason + " (" + strings.TrimPrefix(err.Error(), "storage: ") + ")", Err: wrapped}
 }
 
 // load is the job of loadProject: a StorageLoad, or an error when storage fails while reading.

@@ -15,9 +15,9 @@ import (
 // Sentinel errors of the table reader.
 var (
 	// ErrNotTable reports text that cannot be read as a table (empty, or broken CSV quoting).
-	ErrNotTable = errors.New("copoly: not a readable table")
+	ErrNotTable = copoly.NewSentinel(copoly.CodeNotATable, "copoly: not a readable table")
 	// ErrNotNumber reports a cell that is not a number [ParseNumber] accepts.
-	ErrNotNumber = errors.New("copoly: not a number")
+	ErrNotNumber = copoly.NewSentinel(copoly.CodeNotANumber, "copoly: not a number")
 )
 
 // Limits of [ParseBlock].

@@ -30,6 +30,11 @@ type Warning struct {
 	// Field names the input at fault when there is one ("runs[2].F1").
 	Field   string
 	Message string
+	// Code says what is wrong in a word (see [copoly.Code]): that of a run warning
+	// ([copoly.RunWarning]), of the error of a method that could not run, or one of
+	// CodeHighConversion, CodeOpenRegion, CodeAtBound, CodePartlyWeighted, CodeScatter,
+	// CodeTrend and CodeNoUncertainties.
+	Code string
 }
 
 // Trend is a straight-line fit of the residuals against one variable.
@@ -76,17 +81,17 @@ func Estimate(runs []copoly.Run, level float64) (*Estimates, error) {
 		return nil, err
 	}
 	e := &Estimates{Recommended: MethodNonlinear}
-	warn := func(method string, row int, field, msg string) {
-		e.Warnings = append(e.Warnings, Warning{Method: method, Row: row, Field: field, Message: msg})
+	warn := func(code, method string, row int, field, msg string) {
+		e.Warnings = append(e.Warnings, Warning{Method: method, Row: row, Field: field, Message: msg, Code: code})
 	}
 	for _, w := range copoly.CheckRuns(runs) {
-		warn("", w.Row, w.Field, w.Message)
+		warn(w.Code, "", w.Row, w.Field, w.Message)
 	}
 	var starts [][2]float64
 	linear := func(name string, f func([]copoly.Run) (Linear, error)) *Linear {
 		l, err := f(runs)
 		if err != nil {
-			warn(name, -1, copoly.Field(err), err.Error())
+			warn(copoly.Code(err), name, -1, copoly.Field(err), err.Error())
 			return nil
 		}
 		starts = append(starts, [2]float64{math.Max(l.R1, 1e-3), math.Max(l.R2, 1e-3)})
@@ -97,9 +102,9 @@ func Estimate(runs []copoly.Run, level float64) (*Estimates, error) {
 	e.KelenTudos = linear(MethodKelenTudos, KelenTudos)
 	e.ExtendedKelenTudos = linear(MethodExtendedKelenTudos, ExtendedKelenTudos)
 	if high := LinearMethodWarnings(runs); len(high) > 0 {
-		warn(MethodLinear, -1, "", fmt.Sprintf("%d of %d runs are above %.0f %% conversion, where the low-conversion methods (Fineman–Ross, inverted Fineman–Ross, Kelen–Tüdős) are biased by composition drift; rely on the integrated fit", len(high), len(runs), 100*LinearConversionLimit))
+		warn(copoly.CodeHighConversion, MethodLinear, -1, "", fmt.Sprintf("%d of %d runs are above %.0f %% conversion, where the low-conversion methods (Fineman–Ross, inverted Fineman–Ross, Kelen–Tüdős) are biased by composition drift; rely on the integrated fit", len(high), len(runs), 100*LinearConversionLimit))
 		for _, w := range high {
-			warn(MethodLinear, w.Row, w.Field, w.Message)
+			warn(w.Code, MethodLinear, w.Row, w.Field, w.Message)
 		}
 	}
 	if e.FinemanRoss != nil {
@@ -115,7 +120,7 @@ func Estimate(runs []copoly.Run, level float64) (*Estimates, error) {
 	if r1, r2, curves, err := MayoLewisIntersection(runs); err == nil {
 		e.MayoLewis = &Intersection{R1: r1, R2: r2, Curves: curves}
 	} else {
-		warn(MethodMayoLewis, -1, copoly.Field(err), err.Error())
+		warn(copoly.Code(err), MethodMayoLewis, -1, copoly.Field(err), err.Error())
 	}
 
 	nl, err := LeastSquares(runs, NonlinearOptions{Level: level, Starts: starts})
@@ -124,10 +129,10 @@ func Estimate(runs []copoly.Run, level float64) (*Estimates, error) {
 	}
 	e.Nonlinear = nl
 	if nl.Region.Open {
-		warn(MethodNonlinear, -1, "", "the joint confidence region is open: the data do not bound the ratios in every direction; add runs at the suggested feeds")
+		warn(copoly.CodeOpenRegion, MethodNonlinear, -1, "", "the joint confidence region is open: the data do not bound the ratios in every direction; add runs at the suggested feeds")
 	}
 	if nl.AtBound != "" {
-		warn(MethodNonlinear, -1, "", nl.AtBound+" sits at its bound 0: the best fit wants a negative ratio, which is not physical; check the data")
+		warn(copoly.CodeAtBound, MethodNonlinear, -1, "", nl.AtBound+" sits at its bound 0: the best fit wants a negative ratio, which is not physical; check the data")
 	}
 	someSigma := false
 	for _, r := range runs {
@@ -136,14 +141,14 @@ func Estimate(runs []copoly.Run, level float64) (*Estimates, error) {
 		}
 	}
 	if someSigma && !nl.Weighted {
-		warn(MethodNonlinear, -1, "", "uncertainties of F1 are given for some runs only: the fit is unweighted")
+		warn(copoly.CodePartlyWeighted, MethodNonlinear, -1, "", "uncertainties of F1 are given for some runs only: the fit is unweighted")
 	}
 	if nl.Weighted && nl.DoF > 0 {
 		switch {
 		case nl.PValue < 0.05:
-			warn(MethodNonlinear, -1, "", fmt.Sprintf("χ²/dof = %.2f (p = %.3g): the scatter is larger than the stated uncertainties; the model or the uncertainties are in doubt", nl.ReducedChi2, nl.PValue))
+			warn(copoly.CodeScatter, MethodNonlinear, -1, "", fmt.Sprintf("χ²/dof = %.2f (p = %.3g): the scatter is larger than the stated uncertainties; the model or the uncertainties are in doubt", nl.ReducedChi2, nl.PValue))
 		case nl.PValue > 0.95:
-			warn(MethodNonlinear, -1, "", fmt.Sprintf("χ²/dof = %.2f (p = %.3g): the scatter is smaller than the stated uncertainties; they may be overestimated", nl.ReducedChi2, nl.PValue))
+			warn(copoly.CodeScatter, MethodNonlinear, -1, "", fmt.Sprintf("χ²/dof = %.2f (p = %.3g): the scatter is smaller than the stated uncertainties; they may be overestimated", nl.ReducedChi2, nl.PValue))
 		}
 	}
 	feeds, convs := make([]float64, len(runs)), make([]float64, len(runs))
@@ -153,10 +158,10 @@ func Estimate(runs []copoly.Run, level float64) (*Estimates, error) {
 	e.TrendFeed = trend(feeds, nl.Residuals)
 	e.TrendConversion = trend(convs, nl.Residuals)
 	if e.TrendFeed.Flagged {
-		warn(MethodNonlinear, -1, "", fmt.Sprintf("the residuals trend with the feed (p = %.3g): a calibration error in F1 or a deviation from the terminal model", e.TrendFeed.PValue))
+		warn(copoly.CodeTrend, MethodNonlinear, -1, "", fmt.Sprintf("the residuals trend with the feed (p = %.3g): a calibration error in F1 or a deviation from the terminal model", e.TrendFeed.PValue))
 	}
 	if e.TrendConversion.Flagged {
-		warn(MethodNonlinear, -1, "", fmt.Sprintf("the residuals trend with conversion (p = %.3g): a systematic error in the conversion (for example residual monomer in the weighed polymer)", e.TrendConversion.PValue))
+		warn(copoly.CodeTrend, MethodNonlinear, -1, "", fmt.Sprintf("the residuals trend with conversion (p = %.3g): a systematic error in the conversion (for example residual monomer in the weighed polymer)", e.TrendConversion.PValue))
 	}
 
 	all := true
@@ -168,13 +173,13 @@ func Estimate(runs []copoly.Run, level float64) (*Estimates, error) {
 	if all {
 		ev, err := ErrorsInVariables(runs, nl.R1, nl.R2, level)
 		if err != nil {
-			warn(MethodEVM, -1, copoly.Field(err), err.Error())
+			warn(copoly.Code(err), MethodEVM, -1, copoly.Field(err), err.Error())
 		} else {
 			e.EVM = ev
 			e.Recommended = MethodEVM
 		}
 	} else {
-		warn(MethodEVM, -1, "", "error-in-variables needs the uncertainties of f10, X and F1 for every run")
+		warn(copoly.CodeNoUncertainties, MethodEVM, -1, "", "error-in-variables needs the uncertainties of f10, X and F1 for every run")
 	}
 	return e, nil
 }

@@ -1,6 +1,7 @@
 package fit
 
 import (
+	"slices"
 	"testing"
 
 	"copoly/copoly"
@@ -20,8 +21,11 @@ func TestEstimateRunsEveryMethod(t *testing.T) {
 	}
 	var linearFlag, evmNote bool
 	for _, w := range e.Warnings {
-		linearFlag = linearFlag || (w.Method == MethodLinear && w.Row == -1)
-		evmNote = evmNote || w.Method == MethodEVM
+		linearFlag = linearFlag || (w.Method == MethodLinear && w.Row == -1 && w.Code == copoly.CodeHighConversion)
+		evmNote = evmNote || (w.Method == MethodEVM && w.Code == copoly.CodeNoUncertainties)
+		if !slices.Contains(copoly.Codes(), w.Code) {
+			t.Errorf("warning %+v has a code not in copoly.Codes()", w)
+		}
 	}
 	if !linearFlag || !evmNote {
 		t.Errorf("warnings %v: want the high-conversion flag of the linear methods and why EVM did not run", e.Warnings)

@@ -354,7 +354,7 @@ func LinearMethodWarnings(runs []copoly.Run) []copoly.RunWarning {
 	var w []copoly.RunWarning
 	for i, r := range runs {
 		if r.Conversion > LinearConversionLimit {
-			w = append(w, copoly.RunWarning{Row: i, Field: fmt.Sprintf("runs[%d].conversion", i), Message: fmt.Sprintf(
+			w = append(w, copoly.RunWarning{Row: i, Field: fmt.Sprintf("runs[%d].conversion", i), Code: copoly.CodeHighConversion, Message: fmt.Sprintf(
 				"row %d: X = %.3g is above %g (%g %%): the linear methods assume the feed did not drift; use the integrated model for this row",
 				i+1, r.Conversion, LinearConversionLimit, 100*LinearConversionLimit)})
 		}

@@ -5,7 +5,6 @@ import (
 )
 
 import (
-	"errors"
 	"fmt"
 	"maps"
 	"math"
@@ -29,7 +28,7 @@ const (
 
 // ErrNotAllowed reports a word that is not among those a field accepts, such as an unknown
 // entry form or cell key.
-var ErrNotAllowed = errors.New("project: value not among those allowed")
+var ErrNotAllowed = copoly.NewSentinel(copoly.CodeNotAllowed, "project: value not among those allowed")
 
 // Bench is the bench-data grid of a project: [bench.Table] with the keys of the project
 // file and of the BenchTable of the JavaScript API. Cells are kept as typed, so a cell that is

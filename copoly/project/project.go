@@ -65,7 +65,6 @@
 package project
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"time"
@@ -96,9 +95,9 @@ const (
 // Sentinel errors wrapped by the errors of this package; test for them with errors.Is.
 var (
 	// ErrNotProject reports data that is not a copoly project file at all.
-	ErrNotProject = errors.New("project: not a copoly project file")
+	ErrNotProject = copoly.NewSentinel(copoly.CodeNotAProject, "project: not a copoly project file")
 	// ErrNewerVersion reports a project file written by a newer copoly.
-	ErrNewerVersion = errors.New("project: made by a newer copoly")
+	ErrNewerVersion = copoly.NewSentinel(copoly.CodeNewerVersion, "project: made by a newer copoly")
 	// ErrMissing reports a required key that is absent or null; it is copoly.ErrMissing.
 	ErrMissing = copoly.ErrMissing
 	// ErrWrongType reports a value of the wrong JSON type, such as text where a number belongs;
@@ -107,7 +106,7 @@ var (
 	// ErrTooLong reports a text field above its length limit; it is copoly.ErrTooLong.
 	ErrTooLong = copoly.ErrTooLong
 	// ErrDamaged reports stored projects that can no longer be read.
-	ErrDamaged = errors.New("project: stored project damaged")
+	ErrDamaged = copoly.NewSentinel(copoly.CodeDamaged, "project: stored project damaged")
 )
 
 // Monomer names one monomer of a project.

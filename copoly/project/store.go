@@ -415,7 +415,11 @@ func (s Store) tidy(now time.Time, top listing) {
 
 // ErrNotStored reports a write that the file system reported done but that did not read back
 // (see writeFile); in a browser the likely cause is a full storage.
-var ErrNotStored = errors.New("project: what was written did not read back")
+var ErrNotStored = copoly.NewSentinel(copoly.CodeNotStored, "project: what was written did not read back")
+
+// ErrStorage is wrapped, with the error of the file system, by every error of a failed read or
+// write of the store.
+var ErrStorage = copoly.NewSentinel(copoly.CodeStorage, "project: storage failed")
 
 // writeFile writes data to name through a temporary file renamed into place, so that name holds
 // either its old content or data, never a part of data, and reads it back.
@@ -482,5 +486,5 @@ func dirNames(fsys hackpadfs.FS, dir string) ([]string, error) {
 }
 
 func storageError(what string, err error) error {
-	return &copoly.FieldError{Field: "storage", Reason: what + " (" + err.Error() + ")", Err: err}
+	return &copoly.FieldError{Field: "storage", Reason: what + " (" + err.Error() + ")", Err: errors.Join(err, ErrStorage)}
 }

@@ -21,7 +21,7 @@ const (
 )
 
 // ErrNoKept reports a kept copy that does not exist (or a name no kept copy can have).
-var ErrNoKept = errors.New("project: no such kept copy")
+var ErrNoKept = copoly.NewSentinel(copoly.CodeNoCopy, "project: no such kept copy")
 
 // Kept is one copy set aside in KeptDir. Damaged copies are never replaced; a page's conflict
 // copy is replaced by that page's next refused save. Only DropKept removes either.
