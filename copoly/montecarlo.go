@@ -35,10 +35,13 @@ type ChainOptions struct {
 	Bins int
 }
 
-// Limits of [SimulateChains]: chains, and units grown in all (which bounds the time of a call).
+// Limits of [SimulateChains]: chains, units grown in all (which bounds the time of a call), and
+// the number-average degree of polymerization of a most-probable distribution (also of
+// [Terminal.Stockmayer]).
 const (
 	MaxSimChains = 100000
 	MaxSimUnits  = 20_000_000
+	MaxDPn       = 100000
 )
 
 // ChainStats are the results of [SimulateChains].
@@ -130,8 +133,8 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 	if err := CheckFinite("dpn", opt.DPn); err != nil {
 		return nil, err
 	}
-	if opt.DPn != 0 && (opt.DPn < 1 || opt.DPn > 1e5) {
-		return nil, &InputError{Field: "dpn", Value: opt.DPn, Reason: "a number-average degree of polymerization must lie between 1 and 100000", Err: ErrOutOfRange}
+	if opt.DPn != 0 && (opt.DPn < 1 || opt.DPn > MaxDPn) {
+		return nil, &InputError{Field: "dpn", Value: opt.DPn, Reason: fmt.Sprintf("a number-average degree of polymerization must lie between 1 and %d", MaxDPn), Err: ErrOutOfRange}
 	}
 	if opt.DPn == 0 && (opt.Length < 1 || opt.Length > MaxChainLength) {
 		return nil, &InputError{Field: "length", Value: float64(opt.Length), Reason: fmt.Sprintf("give a chain length between 1 and %d, or a dpn", MaxChainLength), Err: ErrOutOfRange}
@@ -358,8 +361,8 @@ func (m Terminal) Stockmayer(f1, dpn float64, edges []float64) ([]float64, error
 	if err := CheckFraction("f1", f1); err != nil {
 		return nil, err
 	}
-	if !(dpn >= 1 && dpn <= 1e5) {
-		return nil, &InputError{Field: "dpn", Value: dpn, Reason: "between 1 and 100000", Err: ErrOutOfRange}
+	if !(dpn >= 1 && dpn <= MaxDPn) {
+		return nil, &InputError{Field: "dpn", Value: dpn, Reason: fmt.Sprintf("between 1 and %d", MaxDPn), Err: ErrOutOfRange}
 	}
 	if len(edges) < 2 || len(edges) > MaxBins+1 {
 		return nil, &InputError{Field: "edges", Value: float64(len(edges)), Reason: fmt.Sprintf("between 2 and %d bin edges", MaxBins+1), Err: ErrOutOfRange}

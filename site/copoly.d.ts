@@ -64,6 +64,24 @@ export type ErrorCode =
 //                                              (20 hazards each)
 //   one-word options (model, mode, basis, feed, kinds) 32 characters
 // fit skips the Mayo–Lewis intersection method, with a warning, above 200 runs with a conversion.
+// Every limit is also in limits(), by the names of Limits below, from one Go table
+// (copoly/project/limits.go): read them from there rather than copying the numbers.
+
+export interface Limits {
+  points: number; massConversions: number; designConversions: number;   // values in a list
+  runs: number; minRuns: number; intersectionRuns: number;              // runs of fit, nextRuns, bench tables
+  benchRows: number; cells: number; cellLength: number; labelLength: number;   // the bench grid
+  pasteBytes: number; pasteRows: number; pasteColumns: number;          // pasteBench text, a table file
+  triads: number; sizeBins: number; jcr: number; timeTable: number;     // rows and points
+  bins: number; runLength: number; seed: number;                        // counts
+  sampleChains: number; chainLength: number; simChains: number; simUnits: number; dpn: number;
+  planSteps: number; shots: number; bandSamples: number; bandWork: number;
+  fileBytes: number; nameLength: number; sourceLength: number; notesBytes: number; savedAtLength: number;
+  wordLength: number; userMonomers: number; hazards: number; hazardLength: number;   // a project
+  draftFields: number; draftBytes: number; idLength: number; keptNameLength: number;  // storage
+  linearConversion: number;     // fit warns above this conversion that the linear methods are biased (0.10)
+  triadSumTolerance: number;    // how far from 1 a family of measured triads may sum (0.01)
+}
 
 export interface Classification {
   kind: "ideal" | "alternating" | "strongly-alternating" | "block" | "homopolymer-mixture";
@@ -426,6 +444,8 @@ export interface Copoly {
   }): PlanResult | CopolyError;
   starvedFeed(a: { r1: number; r2: number; targetF1: number; feedRate: number; rateConstant: number; molarMass1: number; molarMass2: number }): { inventory: number; f1: number } | CopolyError;
   qe(a: { monomer1: string; monomer2: string }): { r1: number; r2: number; q1: number; e1: number; q2: number; e2: number; source1: string; source2: string } | CopolyError;  // screening estimate
+  limits(a?: {}): Limits;       // every limit of the inputs, as the Go code applies them
+  parseNumber(a: { text: string; field?: string }): { value: number } | CopolyError;  // a number as typed: "0,35", "−0.5", "1,5e3", "35 %" (= 0.35); errors name field (default "number")
   loadProject(a?: { tab?: string;              // the page's name for its draft
     draft?: { savedAt: string; basedOn?: Revision; fields: { [input: string]: string } } }  // the page's own copy of its draft (the later one wins); one that does not read is ignored
   ): Promise<StorageLoad | CopolyError>;

@@ -3,6 +3,10 @@
 package main
 
 import (
+	"copoly/copoly/bench"
+)
+
+import (
 	"encoding/json"
 )
 
@@ -37,7 +41,6 @@ const (
 	defaultSimSamples  = 12   // chains of a simulation returned as strings
 	defaultChainBins   = 30   // bins of a simulation's histogram
 	defaultSeed        = 1
-	maxSeed            = 1<<53 - 1 // the largest whole number a JS number holds exactly
 )
 
 // newAPI returns the copoly object with every method bound to st for storage.
@@ -68,6 +71,8 @@ func newAPI(st *storage) js.Value {
 		{"plan", argRequired, planMethod},
 		{"starvedFeed", argRequired, starvedFeed},
 		{"qe", argRequired, qe},
+		{"limits", argOptional, limitsMethod},
+		{"parseNumber", argRequired, parseNumber},
 	} {
 		api.Set(m.name, wrap(m.name, m.policy, m.fn))
 	}
@@ -198,7 +203,7 @@ func chains(arg js.Value) (any, error) {
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	seed, err := intIn("seed", in.Seed, defaultSeed, 0, maxSeed)
+	seed, err := intIn("seed", in.Seed, defaultSeed, 0, project.MaxSeed)
 	if err != nil {
 		return nil, err
 	}
@@ -687,7 +692,7 @@ func (in planIn) planInput() (plan.Input, error) {
 	if err != nil {
 		return plan.Input{}, err
 	}
-	seed, err := intIn("seed", in.Seed, defaultSeed, 0, maxSeed)
+	seed, err := intIn("seed", in.Seed, defaultSeed, 0, project.MaxSeed)
 	if err != nil {
 		return plan.Input{}, err
 	}
@@ -762,5 +767,31 @@ func projectResult(p project.Project) (any, error) {
 	}
 	out := object.New()
 	out.Set("project", v)
+	return out, nil
+}
+
+// limitsMethod (limits): every limit of the inputs, by name (project.Limits): one object the
+// page sizes its inputs and messages from.
+func limitsMethod(js.Value) (any, error) {
+	out := object.New()
+	for _, l := range project.Limits() {
+		out.Set(l.Name, l.Value)
+	}
+	return out, nil
+}
+
+// parseNumber: a number as a person types it or a spreadsheet writes it (bench.ParseCell: a
+// decimal comma, a Unicode minus, "35 %"), with errors naming field ("number" when not given).
+func parseNumber(arg js.Value) (any, error) {
+	var in parseNumberIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	v, err := bench.ParseCell(orText(in.Field, "number"), in.Text)
+	if err != nil {
+		return nil, err
+	}
+	out := object.New()
+	out.Set("value", v)
 	return out, nil
 }

@@ -279,7 +279,7 @@ func otherModels(rest string) []sweepBase {
 	}
 }
 
-// sweepMethods are the 21 methods of site/copoly.d.ts with valid arguments and their fields.
+// sweepMethods are the 27 methods of site/copoly.d.ts with valid arguments and their fields.
 // The fit and triad arguments are made by fitRuns and triadSet (fit_test.go,
 // discriminate_test.go); "project" is the demo project with every optional part filled in.
 func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
@@ -484,6 +484,15 @@ func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 			{path: "monomer1", kind: kText, extra: []badValue{{expr: `"unobtainium"`, text: `"unobtainium"`}}},
 			{path: "monomer2", kind: kText, extra: []badValue{{expr: `""`, text: `""`}}},
 		}}}},
+		{name: "limits", optional: true},
+		{name: "parseNumber", first: "text", bases: []sweepBase{{arg: `{text: "0,35", field: "runs[0].f10"}`, fields: []sweepField{
+			{path: "text", kind: kText, extra: []badValue{
+				{expr: `"abc"`, field: "runs[0].f10", text: `"abc"`},
+				{expr: `"1,234.5"`, field: "runs[0].f10", text: "both a comma and a point"},
+				{expr: `"x".repeat(401)`, text: "401"},
+			}},
+			{path: "field", kind: kText, optional: true},
+		}}}},
 		{name: "loadProject", async: true, optional: true, bases: []sweepBase{{arg: `{tab: "sweep-tab"}`, fields: []sweepField{
 			{path: "tab", kind: kText, optional: true},
 		}}}},
@@ -642,7 +651,7 @@ func TestBadInputSweep(t *testing.T) {
 			got = append(got, k)
 		}
 	}
-	if len(names) != 25 || !reflect.DeepEqual(got, names) {
+	if len(names) != 27 || !reflect.DeepEqual(got, names) {
 		t.Fatalf("the sweep covers %d methods %v; the copoly object has %v", len(names), names, got)
 	}
 
@@ -843,7 +852,7 @@ func (s *sweep) sweepField(t *testing.T, m sweepMethod, base js.Value, f sweepFi
 func TestDecodeLimits(t *testing.T) {
 	types := map[string]reflect.Type{}
 	for _, v := range []any{modelIn{}, compositionIn{}, feedIn{}, driftIn{}, sequenceIn{}, chainsIn{}, discriminateIn{},
-		averagesIn{}, importIn{}, benchRunsIn{}, pasteBenchIn{}, fitIn{}, nextRunsIn{}, planIn{}, starvedFeedIn{}, qeIn{}} {
+		averagesIn{}, importIn{}, benchRunsIn{}, pasteBenchIn{}, fitIn{}, nextRunsIn{}, planIn{}, starvedFeedIn{}, qeIn{}, parseNumberIn{}} {
 		types[reflect.TypeOf(v).Name()] = reflect.TypeOf(v)
 	}
 	decoded := regexp.MustCompile(`var in (\w+)\n\s*if err := decode\(`)

@@ -13,8 +13,6 @@ import (
 	"github.com/norunners/vert"
 
 	"copoly/copoly"
-	"copoly/copoly/bench"
-	"copoly/copoly/plan"
 	"copoly/copoly/project"
 )
 
@@ -88,31 +86,24 @@ func snapshot(v js.Value, t reflect.Type, prefix string) (js.Value, error) {
 	return snap, nil
 }
 
-// limits are the largest sizes of the inputs that carry a limit:"name" tag: entries of a list,
-// keys of a map, or UTF-16 code units of a text (checked before the text is copied into Go).
-var limits = map[string]int{
-	"runs":      bench.MaxRuns,
-	"jcr":       project.MaxJCRPoints,
-	"timeTable": plan.MaxTimeRows,
-	"text":      bench.MaxBlockBytes,
-
-	"triads":   project.MaxTriadRows,      // = fit.MaxTriadRuns
-	"sizeBins": project.MaxSizeBins,       // = molarmass.MaxAverageRows
-	"word":     project.MaxPlanWordLength, // a one-word option such as "model"
-
-	// Texts whose limit copoly counts in characters (runes) or UTF-8 bytes: the bridge counts
-	// UTF-16 code units, of which a rune takes at most two and at most as many as its UTF-8
-	// bytes, so these never refuse a text copoly would accept. copoly then applies its own
-	// limit, with its own message.
-	"name":  2 * project.MaxNameLength,
-	"notes": project.MaxNotesBytes,
-	"json":  project.MaxFileBytes,
-
-	// Storage (storage.go): the name of a page or writer, of a kept copy, and the inputs of a draft.
-	"id":          64, // project.CheckID's limit
-	"keptName":    100,
-	"draftFields": project.MaxDraftFields,
-}
+// limits are the largest sizes of the inputs that carry a limit:"nameLength" tag, by the name of the
+// limit in project.Limits (the table copoly.limits() returns): entries of a list, keys of a map,
+// or UTF-16 code units of a text (checked before the text is copied into Go). A limit copoly
+// counts in characters (runes) is doubled here: a rune takes at most two code units, so the
+// bridge never refuses a text copoly would accept, and copoly then applies its own limit, with
+// its own message. A limit in UTF-8 bytes, or on a text whose every valid value is ASCII, needs
+// no change (a code unit takes at least a byte; an ASCII character is one code unit).
+var limits = func() map[string]int {
+	m := map[string]int{}
+	for _, l := range project.Limits() {
+		n := int(l.Value)
+		if l.Unit == project.UnitCharacters {
+			n *= 2
+		}
+		m[l.Name] = n
+	}
+	return m
+}()
 
 // limitOf returns the limit named by the struct tag key of sf, 0 when there is no such tag, and
 // panics on a name that is not in limits (a bridge bug).

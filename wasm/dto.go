@@ -19,7 +19,7 @@ import (
 // plain js:"camelCase" tags and built-in kinds only (vert cannot convert named number types or
 // fixed-size arrays). Inputs are read by decode: a field whose Go type is a pointer is optional
 // (nil when absent), a field tagged copoly:"optional" may be absent and then keeps its zero
-// value, every other field is required. A list, a text or a map may carry a limit:"name" tag
+// value, every other field is required. A list, a text or a map may carry a limit:"nameLength" tag
 // naming its largest size in limits; a list of numbers without one holds at most
 // copoly.MaxPoints.
 
@@ -28,7 +28,7 @@ import (
 type modelIn struct {
 	R1    *float64 `js:"r1"` // read first, as before there were other models
 	R2    *float64 `js:"r2"`
-	Model *string  `js:"model" limit:"word"`
+	Model *string  `js:"model" limit:"wordLength"`
 	R11   *float64 `js:"r11"`
 	R21   *float64 `js:"r21"`
 	R22   *float64 `js:"r22"`
@@ -118,7 +118,7 @@ type feedOut struct {
 type driftIn struct {
 	F10        float64   `js:"f10"`
 	Conversion []float64 `js:"conversion"`
-	Basis      *string   `js:"basis" limit:"word"`
+	Basis      *string   `js:"basis" limit:"wordLength"`
 	MolarMass1 *float64  `js:"molarMass1"`
 	MolarMass2 *float64  `js:"molarMass2"`
 	Tolerance  *float64  `js:"tolerance"`
@@ -454,7 +454,7 @@ type runWarningOut struct {
 
 // pasteBenchIn is the argument of pasteBench without its bench (readBench).
 type pasteBenchIn struct {
-	Text string `js:"text" limit:"text"`
+	Text string `js:"text" limit:"pasteBytes"`
 }
 
 type fitIn struct {
@@ -629,8 +629,8 @@ type nextRunsOut struct {
 }
 
 type qeIn struct {
-	Monomer1 string `js:"monomer1" limit:"name"`
-	Monomer2 string `js:"monomer2" limit:"name"`
+	Monomer1 string `js:"monomer1" limit:"nameLength"`
+	Monomer2 string `js:"monomer2" limit:"nameLength"`
 }
 
 type qeOut struct {
@@ -654,13 +654,13 @@ type planIn struct {
 	MolarMass1      float64     `js:"molarMass1"`
 	MolarMass2      float64     `js:"molarMass2"`
 	PolymerMass     float64     `js:"polymerMass"`
-	Mode            string      `js:"mode" limit:"word"`
-	Monomer1        *string     `js:"monomer1" limit:"name"`
-	Monomer2        *string     `js:"monomer2" limit:"name"`
+	Mode            string      `js:"mode" limit:"wordLength"`
+	Monomer1        *string     `js:"monomer1" limit:"nameLength"`
+	Monomer2        *string     `js:"monomer2" limit:"nameLength"`
 	Tolerance       *float64    `js:"tolerance"`
 	StopConversion  *float64    `js:"stopConversion"`
 	FinalConversion *float64    `js:"finalConversion"`
-	Feed            *string     `js:"feed" limit:"word"`
+	Feed            *string     `js:"feed" limit:"wordLength"`
 	FeedF1          *float64    `js:"feedF1"`
 	Shots           *float64    `js:"shots"`
 	Steps           *float64    `js:"steps"`
@@ -804,6 +804,13 @@ func planDTO(p *plan.Recipe) planOut {
 	return out
 }
 
+// parseNumberIn is the argument of parseNumber: the text of a number and the field to name in an
+// error.
+type parseNumberIn struct {
+	Text  string  `js:"text" limit:"cellLength"`
+	Field *string `js:"field" limit:"cellLength"`
+}
+
 type starvedFeedIn struct {
 	R1           float64 `js:"r1"`
 	R2           float64 `js:"r2"`
@@ -835,9 +842,12 @@ func orNumber(v *float64, def float64) float64 {
 	return *v
 }
 
-// orText returns *v, or "" when v is nil (absent).
-func orText(v *string) string {
+// orText returns *v, or def (or "") when v is nil (absent).
+func orText(v *string, def ...string) string {
 	if v == nil {
+		if len(def) > 0 {
+			return def[0]
+		}
 		return ""
 	}
 	return *v
@@ -906,5 +916,5 @@ func nonFinite(v any) string {
 
 // importIn is the argument of importProject: the text of a project file.
 type importIn struct {
-	JSON string `js:"json" limit:"json"`
+	JSON string `js:"json" limit:"fileBytes"`
 }

@@ -36,6 +36,8 @@
 //	             riseLimit?, jcr?, samples?, seed?})
 //	copoly.starvedFeed({r1, r2, targetF1, feedRate, rateConstant, molarMass1, molarMass2})
 //	copoly.qe({monomer1, monomer2})
+//	copoly.limits()                 every limit of the inputs, by name (project.Limits)
+//	copoly.parseNumber({text, field?}) → {value}
 //	copoly.loadProject({tab?, draft?})          → Promise
 //	copoly.saveProject({project, basedOn?})     → Promise
 //	copoly.saveDraft({tab, fields, basedOn?})   → Promise
@@ -46,17 +48,17 @@
 // where ...model is {r1, r2} (the terminal model, also with model: "terminal"),
 // {model: "penultimate", r11, r21, r22, r12} or {model: "implicit", r1, r2, s1, s2}. Some
 // results are worked out for the terminal model only and are null or absent for the others: the
-// azeotrope and classification of composition, the limit and distribution of drift (and its
-// basis "mass"), the runLengths and batch of sequence, and Stockmayer's distribution of chains.
+// azeotrope and classification of composition, the runLengths and batch of sequence, and
+// Stockmayer's distribution of chains (the limit and distribution of drift are any model's).
 //
-// Every method takes one plain object (optional for library, demoProject and loadProject) and
-// returns one plain object. Bad input never throws: the result is then {error, field, code,
-// reason, value?, row?} (copoly.PartsOf), where field names the input at fault ("r1", "f1[3]",
-// "runs[2].F1", "bench.rows[3].cells.f10", "timeTable[2]", "jcr[5][0]",
-// "project.monomer1.molarMass", "project.plan.mode", "arguments") and code says what is wrong in
-// a word (copoly.Codes). A Go panic inside a method is recovered and reported the same way with
-// an "internal error" message and the code "internal", so the module keeps answering. The storage methods return Promises that always
-// resolve, never reject.
+// Every method takes one plain object (optional for library, demoProject, limits and
+// loadProject) and returns one plain object. Bad input never throws: the result is then
+// {error, field, code, reason, value?, row?} (copoly.PartsOf), where field names the input at
+// fault ("r1", "f1[3]", "runs[2].F1", "bench.rows[3].cells.f10", "timeTable[2]", "jcr[5][0]",
+// "project.monomer1.molarMass", "project.plan.mode", "arguments") and code says what is wrong
+// in a word (copoly.Codes). A Go panic inside a method is recovered and reported the same way
+// with an "internal error" message and the code "internal", so the module keeps answering. The
+// storage methods return Promises that always resolve, never reject.
 //
 // # Storage
 //

@@ -432,30 +432,30 @@ func keptArg(arg js.Value, job func(name string) (any, error)) (asyncJob, error)
 type (
 	revisionDTO struct {
 		N      float64 `js:"n"`
-		Writer string  `js:"writer" copoly:"optional" limit:"id"`
+		Writer string  `js:"writer" copoly:"optional" limit:"idLength"`
 	}
 	baseIn struct {
 		BasedOn *revisionDTO `js:"basedOn"`
 	}
 	tabIn struct {
-		Tab *string `js:"tab" limit:"id"`
+		Tab *string `js:"tab" limit:"idLength"`
 	}
 	draftCopyIn struct {
 		Draft *struct {
-			SavedAt string            `js:"savedAt" limit:"id"`
+			SavedAt string            `js:"savedAt" limit:"idLength"`
 			BasedOn *revisionDTO      `js:"basedOn"`
-			Fields  map[string]string `js:"fields" limit:"draftFields" each:"notes"`
+			Fields  map[string]string `js:"fields" limit:"draftFields" each:"notesBytes"`
 		} `js:"draft"`
 	}
 	draftTabIn struct {
-		Tab string `js:"tab" limit:"id"`
+		Tab string `js:"tab" limit:"idLength"`
 	}
 	draftIn struct {
-		Tab    string            `js:"tab" limit:"id"`
-		Fields map[string]string `js:"fields" limit:"draftFields" each:"notes"`
+		Tab    string            `js:"tab" limit:"idLength"`
+		Fields map[string]string `js:"fields" limit:"draftFields" each:"notesBytes"`
 	}
 	keptIn struct {
-		Name string `js:"name" limit:"keptName"`
+		Name string `js:"name" limit:"keptNameLength"`
 	}
 )
 

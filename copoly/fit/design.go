@@ -49,6 +49,9 @@ func mayoLewisSensitivity(m copoly.Terminal, f1 float64) (d1, d2 float64) {
 // no source).
 var DesignConversions = []float64{0.05, 0.15, 0.3, 0.45, 0.6}
 
+// MaxDesignConversions is the most stopping conversions [NextRuns] takes.
+const MaxDesignConversions = 20
+
 // NextRuns returns the experimental design for the current estimate (r1, r2) given the runs made
 // so far (which may be empty): the Tidwell–Mortimer feeds, the exact D-optimal pair, a middle
 // feed, and the two next runs over a grid of feeds (0.02 to 0.98) and the conversions given (nil
@@ -70,8 +73,8 @@ func NextRuns(r1, r2 float64, made []copoly.Run, conversions []float64) (Design,
 	if conversions == nil {
 		conversions = DesignConversions
 	}
-	if len(conversions) == 0 || len(conversions) > 20 {
-		return Design{}, &copoly.InputError{Field: "conversions", Value: float64(len(conversions)), Reason: "give between 1 and 20 stopping conversions", Err: copoly.ErrOutOfRange}
+	if len(conversions) == 0 || len(conversions) > MaxDesignConversions {
+		return Design{}, &copoly.InputError{Field: "conversions", Value: float64(len(conversions)), Reason: fmt.Sprintf("give between 1 and %d stopping conversions", MaxDesignConversions), Err: copoly.ErrOutOfRange}
 	}
 	for i, x := range conversions {
 		if err := copoly.CheckConversion(fmt.Sprintf("conversions[%d]", i), x); err != nil {

@@ -338,12 +338,16 @@ func effectiveWeights(runs []copoly.Run, r1, r2 float64, sigma []float64) []floa
 	return w
 }
 
+// MinRuns is the fewest runs [LeastSquares], [ErrorsInVariables] and [Estimate] take: two
+// ratios and a degree of freedom to check the fit.
+const MinRuns = 3
+
 // checkRunsForFit validates runs for the integrated-model estimators.
 func checkRunsForFit(runs []copoly.Run) error {
 	if len(runs) > 1000 {
 		return &copoly.InputError{Field: "runs", Value: float64(len(runs)), Reason: "at most 1000 runs", Err: copoly.ErrTooMany}
 	}
-	if len(runs) < 3 {
+	if len(runs) < MinRuns {
 		return &copoly.InputError{Field: "runs", Value: float64(len(runs)), Reason: "at least three runs are needed to estimate two ratios with any check of fit", Err: copoly.ErrOutOfRange}
 	}
 	feeds := map[float64]bool{}

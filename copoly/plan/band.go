@@ -110,8 +110,10 @@ type Band struct {
 // times schedule rows: MaxBandWork allows the most samples with the default 200 steps, or the
 // default 500 samples with the most steps, but not both (a minute and more in the browser).
 const (
-	MaxBandSamples = 5000
-	MaxBandWork    = 2_000_000 // samples × schedule rows
+	// MaxRegionPoints bounds the polygon of the region.
+	MaxRegionPoints = 4096
+	MaxBandSamples  = 5000
+	MaxBandWork     = 2_000_000 // samples × schedule rows
 )
 
 // bandTestBudget bounds the work of drawing [BandOf]'s samples: the number of tries times the
@@ -132,8 +134,8 @@ func BandOf(in Input, p *Recipe, region [][2]float64, samples int, seed uint64) 
 	if err := in.validate(); err != nil {
 		return Band{}, err
 	}
-	if len(region) < 3 || len(region) > 4096 {
-		return Band{}, &copoly.InputError{Field: "jcr", Value: float64(len(region)), Reason: "a region needs between 3 and 4096 boundary points", Err: copoly.ErrOutOfRange}
+	if len(region) < 3 || len(region) > MaxRegionPoints {
+		return Band{}, &copoly.InputError{Field: "jcr", Value: float64(len(region)), Reason: fmt.Sprintf("a region needs between 3 and %d boundary points", MaxRegionPoints), Err: copoly.ErrOutOfRange}
 	}
 	lo1, hi1, lo2, hi2 := math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
 	for i, q := range region {

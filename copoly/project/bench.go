@@ -1,6 +1,10 @@
 package project
 
 import (
+	"copoly/copoly/plan"
+)
+
+import (
 	"unicode/utf8"
 )
 
@@ -23,7 +27,7 @@ const (
 	MaxCells       = 64                   // cells in one row
 	MaxCellLength  = 200                  // characters in one cell, and in Bench.Element
 	MaxLabelLength = bench.MaxLabelLength // characters in a row label
-	MaxJCRPoints   = 4096                 // points of Project.JCR
+	MaxJCRPoints   = plan.MaxRegionPoints // points of Project.JCR
 )
 
 // ErrNotAllowed reports a word that is not among those a field accepts, such as an unknown

@@ -74,6 +74,10 @@ func keptBefore(a, b Kept) bool {
 	return a.Name < b.Name
 }
 
+// MaxKeptNameLength bounds the name of a kept copy a caller may give: longer than any the store
+// makes (a kind, "-", a name of at most MaxIDLength characters and ".json" take at most 79).
+const MaxKeptNameLength = 100
+
 // ReadKept returns the kept copy called name and its bytes. A name that is not a kept copy
 // gives an error wrapping ErrNoKept, with field "name".
 func (s Store) ReadKept(name string) (Kept, []byte, error) {

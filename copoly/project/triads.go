@@ -12,6 +12,11 @@ import (
 // (fit.MaxTriadRuns), so that every table a project holds can be compared.
 const MaxTriadRows = fit.MaxTriadRuns
 
+// TriadSumTolerance is how far from 1 a family of measured triad fractions (A111 + A112 +
+// A212, or A222 + A221 + A121) may sum before the page points it out: 0.01 (common practice, no
+// source).
+const TriadSumTolerance = 0.01
+
 // NotMeasured is the value that marks a measurement of a TriadRow as not made, as an
 // alternative to leaving it out (fit.TriadRun reads any value below 0 so).
 const NotMeasured = -1
