@@ -1,22 +1,16 @@
 package project
 
 import (
-	"copoly/copoly/plan"
-)
-
-import (
-	"unicode/utf8"
-)
-
-import (
 	"fmt"
 	"maps"
 	"math"
 	"slices"
 	"strings"
+	"unicode/utf8"
 
 	"copoly/copoly"
 	"copoly/copoly/bench"
+	"copoly/copoly/plan"
 )
 
 // Limits on the bench-data grid of a project. MaxCells and MaxCellLength are design choices of

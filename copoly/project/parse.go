@@ -1,13 +1,10 @@
 package project
 
 import (
-	"math"
-)
-
-import (
 	"bytes"
 	"encoding/json"
 	"fmt"
+	"math"
 	"reflect"
 	"strings"
 

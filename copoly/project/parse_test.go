@@ -1,11 +1,8 @@
 package project
 
 import (
-	"encoding/json"
-)
-
-import (
 	"bytes"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
