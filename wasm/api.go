@@ -3,18 +3,12 @@
 package main
 
 import (
-	"copoly/copoly/bench"
-)
-
-import (
 	"encoding/json"
-)
-
-import (
 	"fmt"
 	"syscall/js"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
 	"copoly/copoly/fit"
 	"copoly/copoly/molarmass"
 	"copoly/copoly/plan"
@@ -630,9 +624,15 @@ func planMethod(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
+	return planValue(p)
+}
+
+// planValue converts a plan to the PlanResult of the d.ts, or refuses one holding a number that
+// is not finite where the d.ts promises one.
+func planValue(p *plan.Recipe) (js.Value, error) {
 	out := planDTO(p)
 	if path := nonFinite(out); path != "" {
-		return nil, fmt.Errorf("copoly: the plan holds a value that is not a finite number (%s); it is not shown", path)
+		return js.Value{}, fmt.Errorf("copoly: the plan holds a value that is not a finite number (%s); it is not shown", path)
 	}
 	v := toJS(out)
 	if out.Band == nil {

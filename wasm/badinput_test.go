@@ -280,8 +280,7 @@ func otherModels(rest string) []sweepBase {
 }
 
 // sweepMethods are the 27 methods of site/copoly.d.ts with valid arguments and their fields.
-// The fit and triad arguments are made by fitRuns and triadSet (fit_test.go,
-// discriminate_test.go); "project" is the demo project with every optional part filled in.
+// The fit and triad arguments are made by fitRuns and triadSet (results_test.go); "project" is the demo project with every optional part filled in.
 func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 	projectArg := `{project: project}`
 	return []sweepMethod{
