@@ -129,7 +129,7 @@ setup:
 ## Go 1.26's fuzzing coordinator can end a run with "context deadline exceeded" at the very end
 ## of -fuzztime without any failing input (golang/go#75804); that alone is reported, not failed.
 FUZZTIME ?= 30s
-FUZZ_PACKAGES := ./copoly/ ./copoly/project/ ./copoly/multi/
+FUZZ_PACKAGES := ./copoly/bench/ ./copoly/project/ ./copoly/multi/
 .PHONY: fuzz
 fuzz:
 	@set -e; for pkg in $(FUZZ_PACKAGES); do \

@@ -6,21 +6,13 @@ import (
 )
 
 // ConversionLimit returns the largest overall molar conversion X up to which the cumulative
-// copolymer composition F̄1 of a batch started from f10 stays within ±tolerance of the
-// composition of the first polymer, F1(f10). It returns 1 (or the largest reachable conversion,
-// see [Terminal.Drift]) when the batch never leaves the band. F̄1 moves monotonically with X, so
-// the limit is found by bisection to 1e-10.
-func (m Terminal) ConversionLimit(f10, tolerance float64) (float64, error) {
-	return ConversionLimitOf(m, f10, tolerance)
-}
-
-// ConversionLimitOf is [Terminal.ConversionLimit] for any model (see [DriftOf]).
-func ConversionLimitOf(model Model, f10, tolerance float64) (float64, error) {
-	b, err := newModelBatch(model, f10)
-	if err != nil {
-		return 0, err
-	}
-	if err := checkFinite("tolerance", tolerance); err != nil {
+// copolymer composition F̄1 of the batch stays within ±tolerance of the composition of the
+// first polymer, F1(f10). It returns 1 (or [Batch.MaxConversion]) when the batch never leaves
+// the band. F̄1 moves monotonically with X, so the limit is found by bisection to 1e-10. A
+// tolerance that is not above 0 and at most 0.5 gives an [*InputError] naming "tolerance".
+func (b *Batch) ConversionLimit(tolerance float64) (float64, error) {
+	f10 := b.f10
+	if err := CheckFinite("tolerance", tolerance); err != nil {
 		return 0, err
 	}
 	if tolerance <= 0 || tolerance > 0.5 {
@@ -68,38 +60,34 @@ type Histogram struct {
 	Basis string
 }
 
-// MaxBins is the largest number of bins [Terminal.CompositionDistribution] accepts.
+// MaxBins is the largest number of bins [Batch.Distribution] accepts.
 const MaxBins = 200
 
 // distributionSteps is the number of conversion slices the batch is cut into for
-// [Terminal.CompositionDistribution]; each slice is assigned the instantaneous composition at its
+// [Batch.Distribution]; each slice is assigned the instantaneous composition at its
 // midpoint (the midpoint rule, error O(1/n²)).
 const distributionSteps = 4000
 
-// CompositionDistribution returns the composition distribution of all the polymer made in a batch
-// from feed f10 up to conversion: each conversion slice dX makes polymer of the instantaneous
-// composition F1(f1(X)), in an amount dX (moles of units), or dX·(F1·M1 + (1 − F1)·M2) by mass
-// when both molar masses are given (molarMass1 = molarMass2 = 0 selects the mole basis).
-// The bins span the compositions made, widened to at least 0.01 around them when the batch does
-// not drift. Chain-to-chain scatter about the instantaneous composition (Stockmayer) is not
-// included: the histogram shows drift only.
-func (m Terminal) CompositionDistribution(f10, conversion float64, bins int, molarMass1, molarMass2 float64) (Histogram, error) {
-	return CompositionDistributionOf(m, f10, conversion, bins, molarMass1, molarMass2)
+// Distribution returns the composition distribution of all the polymer made in the batch up to
+// conversion: each conversion slice dX makes polymer of the instantaneous composition
+// F1(f1(X)), in an amount dX (moles of units), or dX·(F1·M1 + (1 − F1)·M2) by mass when both
+// molar masses are given (molarMass1 = molarMass2 = 0 selects the mole basis). The bins span the
+// compositions made, widened to at least 0.01 around them when the batch does not drift.
+// Chain-to-chain scatter about the instantaneous composition (Stockmayer) is not included: the
+// histogram shows drift only. Errors name "conversion", "bins", "molarMass1" or "molarMass2".
+func (b *Batch) Distribution(conversion float64, bins int, molarMass1, molarMass2 float64) (Histogram, error) {
+	return b.distribution("conversion", conversion, bins, molarMass1, molarMass2)
 }
 
-// CompositionDistributionOf is [Terminal.CompositionDistribution] for any model (see [DriftOf]).
-func CompositionDistributionOf(model Model, f10, conversion float64, bins int, molarMass1, molarMass2 float64) (Histogram, error) {
-	b, err := newModelBatch(model, f10)
-	if err != nil {
-		return Histogram{}, err
-	}
-	if err := CheckConversion("conversion", conversion); err != nil {
+// distribution is Distribution with errors about the conversion naming field.
+func (b *Batch) distribution(field string, conversion float64, bins int, molarMass1, molarMass2 float64) (Histogram, error) {
+	if err := CheckConversion(field, conversion); err != nil {
 		return Histogram{}, err
 	}
 	if conversion == 0 {
-		return Histogram{}, &InputError{Field: "conversion", Value: 0, Reason: "no polymer is made at zero conversion", Err: ErrOutOfRange}
+		return Histogram{}, &InputError{Field: field, Value: 0, Reason: "no polymer is made at zero conversion", Err: ErrOutOfRange}
 	}
-	if err := b.checkConversions([]float64{conversion}); err != nil {
+	if err := b.checkConversion(field, conversion); err != nil {
 		return Histogram{}, err
 	}
 	if bins < 1 || bins > MaxBins {
@@ -133,6 +121,11 @@ func CompositionDistributionOf(model Model, f10, conversion float64, bins int, m
 	}
 	return binned(comp, w, bins, basis), nil
 }
+
+// HistogramOf returns the histogram of the values v with weights w over bins equal bins spanning
+// their range (see binned); basis names what the weights count, as in [Histogram]. v and w must
+// have the same length, at least one value and a positive total weight; bins must be at least 1.
+func HistogramOf(v, w []float64, bins int, basis string) Histogram { return binned(v, w, bins, basis) }
 
 // binned returns the histogram of the values v with weights w over bins equal bins spanning
 // their range, widened to at least 0.01 around them (and kept inside [0, 1]) when they are
@@ -175,52 +168,32 @@ func binned(v, w []float64, bins int, basis string) Histogram {
 //	Xw = [M1 (f10 − (1 − X) f1) + M2 (f20 − (1 − X) f2)] / (M1 f10 + M2 f20)
 //
 // The numerator is the mass of polymer per mole of monomer charged, from the monomer balance of
-// each monomer. The inputs are not validated; see [Terminal.MolarConversion] for the inverse.
+// each monomer. The inputs are not validated; see [Batch.MolarConversions] for the inverse.
 func MassConversion(conversion, f10, f1, molarMass1, molarMass2 float64) float64 {
 	x := conversion
 	poly := molarMass1*(f10-(1-x)*f1) + molarMass2*((1-f10)-(1-x)*(1-f1))
 	return poly / (molarMass1*f10 + molarMass2*(1-f10))
 }
 
-// MolarConversion returns the overall molar conversion X of a batch from feed f10 at which the
-// mass conversion (see [MassConversion]) equals massConversion. The mass conversion rises
-// monotonically with X, so X is found by bisection to 1e-12. The drift f1(X) comes from
-// [Terminal.Drift].
-func (m Terminal) MolarConversion(massConversion, f10, molarMass1, molarMass2 float64) (float64, error) {
-	return MolarConversionOf(m, massConversion, f10, molarMass1, molarMass2)
-}
-
-// MolarConversionOf is [Terminal.MolarConversion] for any model (see [DriftOf]).
-func MolarConversionOf(model Model, massConversion, f10, molarMass1, molarMass2 float64) (float64, error) {
-	b, err := newModelBatch(model, f10)
-	if err != nil {
-		return 0, err
-	}
-	if err := CheckMolarMass("molarMass1", molarMass1); err != nil {
-		return 0, err
-	}
-	if err := CheckMolarMass("molarMass2", molarMass2); err != nil {
-		return 0, err
-	}
-	return b.molarConversion("massConversion", massConversion, molarMass1, molarMass2)
-}
-
-// MaxMassConversions is the most mass conversions [MolarConversionsOf] converts in one call.
+// MaxMassConversions is the most mass conversions [Batch.MolarConversions] converts in one call.
 // Each takes a bisection over the drift (about 40 evaluations of the unreacted feed), so the
 // limit keeps a call well under a second in the browser; a plotted curve needs a few hundred.
 const MaxMassConversions = 1000
 
-// MolarConversionsOf converts each mass conversion of massConversions as [MolarConversionOf]
-// does, with one batch for all of them. An invalid value gives an error naming
-// "massConversion[i]"; more than [MaxMassConversions] values an error naming "massConversion"
-// wrapping [ErrTooMany].
-func MolarConversionsOf(model Model, massConversions []float64, f10, molarMass1, molarMass2 float64) ([]float64, error) {
+// MolarConversions returns the overall molar conversion X of the batch at which the mass
+// conversion (see [MassConversion]) equals each value of massConversion. The mass conversion
+// rises monotonically with X, so each X is found by bisection to 1e-12 over the drift. An invalid
+// value gives an [*InputError] naming "massConversion[i]", more than [MaxMassConversions] values
+// one naming "massConversion" wrapping [ErrTooMany], and a missing or invalid molar mass one
+// naming "molarMass1" or "molarMass2".
+func (b *Batch) MolarConversions(massConversion []float64, molarMass1, molarMass2 float64) ([]float64, error) {
+	return b.molarConversions("massConversion", massConversion, molarMass1, molarMass2)
+}
+
+// molarConversions is MolarConversions with errors naming field[i] and field.
+func (b *Batch) molarConversions(field string, massConversions []float64, molarMass1, molarMass2 float64) ([]float64, error) {
 	if n := len(massConversions); n > MaxMassConversions {
-		return nil, &InputError{Field: "massConversion", Value: float64(n), Reason: fmt.Sprintf("at most %d mass conversions per call", MaxMassConversions), Err: ErrTooMany}
-	}
-	b, err := newModelBatch(model, f10)
-	if err != nil {
-		return nil, err
+		return nil, &InputError{Field: field, Value: float64(n), Reason: fmt.Sprintf("at most %d mass conversions per call", MaxMassConversions), Err: ErrTooMany}
 	}
 	if err := CheckMolarMass("molarMass1", molarMass1); err != nil {
 		return nil, err
@@ -230,15 +203,16 @@ func MolarConversionsOf(model Model, massConversions []float64, f10, molarMass1,
 	}
 	out := make([]float64, len(massConversions))
 	for i, w := range massConversions {
-		if out[i], err = b.molarConversion(fmt.Sprintf("massConversion[%d]", i), w, molarMass1, molarMass2); err != nil {
+		var err error
+		if out[i], err = b.molarConversion(fmt.Sprintf("%s[%d]", field, i), w, molarMass1, molarMass2); err != nil {
 			return nil, err
 		}
 	}
 	return out, nil
 }
 
-// molarConversion is MolarConversionOf on the batch b, with errors naming field.
-func (b *batch) molarConversion(field string, massConversion, molarMass1, molarMass2 float64) (float64, error) {
+// molarConversion converts one mass conversion, with errors naming field.
+func (b *Batch) molarConversion(field string, massConversion, molarMass1, molarMass2 float64) (float64, error) {
 	if err := CheckConversion(field, massConversion); err != nil {
 		return 0, err
 	}

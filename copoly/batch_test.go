@@ -9,6 +9,40 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
+// conversionLimit, distribution, molarConversion and molarConversions call the methods of the
+// batch of m from f10, as the tests below use them.
+func conversionLimit(m Model, f10, tolerance float64) (float64, error) {
+	b, err := NewBatch(m, f10)
+	if err != nil {
+		return 0, err
+	}
+	return b.ConversionLimit(tolerance)
+}
+
+func distribution(m Model, f10, x float64, bins int, mm1, mm2 float64) (Histogram, error) {
+	b, err := NewBatch(m, f10)
+	if err != nil {
+		return Histogram{}, err
+	}
+	return b.Distribution(x, bins, mm1, mm2)
+}
+
+func molarConversions(m Model, w []float64, f10, mm1, mm2 float64) ([]float64, error) {
+	b, err := NewBatch(m, f10)
+	if err != nil {
+		return nil, err
+	}
+	return b.MolarConversions(w, mm1, mm2)
+}
+
+func molarConversion(m Model, w, f10, mm1, mm2 float64) (float64, error) {
+	x, err := molarConversions(m, []float64{w}, f10, mm1, mm2)
+	if err != nil {
+		return 0, err
+	}
+	return x[0], nil
+}
+
 func TestConversionLimit(t *testing.T) {
 	for _, tc := range []struct {
 		m        Terminal
@@ -20,7 +54,7 @@ func TestConversionLimit(t *testing.T) {
 		{Terminal{26, 0.03}, 0.5, 0.05},   // MMA/VAc, Polymer Handbook table
 		{Terminal{1, 0.5}, 0.5, 0.01},     // singular for Meyer–Lowry: Skeist ODE
 	} {
-		lim, err := tc.m.ConversionLimit(tc.f10, tc.tol)
+		lim, err := conversionLimit(tc.m, tc.f10, tc.tol)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -40,15 +74,15 @@ func TestConversionLimit(t *testing.T) {
 		}
 	}
 	// No drift: the band is never left.
-	if lim, err := (Terminal{1, 1}).ConversionLimit(0.3, 0.01); err != nil || lim != 1 {
+	if lim, err := conversionLimit(Terminal{1, 1}, 0.3, 0.01); err != nil || lim != 1 {
 		t.Errorf("ideal r = 1: limit %v, %v; want 1", lim, err)
 	}
 	// A wide band that is never left also gives 1.
-	if lim, err := (Terminal{0.52, 0.46}).ConversionLimit(0.5, 0.3); err != nil || lim != 1 {
+	if lim, err := conversionLimit(Terminal{0.52, 0.46}, 0.5, 0.3); err != nil || lim != 1 {
 		t.Errorf("wide band: limit %v, %v; want 1", lim, err)
 	}
 	for _, bad := range []float64{0, -0.1, 0.6, math.NaN()} {
-		if _, err := (Terminal{1, 2}).ConversionLimit(0.5, bad); Field(err) != "tolerance" {
+		if _, err := conversionLimit(Terminal{1, 2}, 0.5, bad); Field(err) != "tolerance" {
 			t.Errorf("ConversionLimit(tolerance %v) error %v, want field tolerance", bad, err)
 		}
 	}
@@ -65,7 +99,7 @@ func TestCompositionDistribution(t *testing.T) {
 		{Terminal{1, 0.5}, 0.5, 0.8, 0, 0},
 		{Terminal{0.40, 0.04}, 0.6153846153846154, 0.5, 0, 0}, // azeotrope: one narrow peak
 	} {
-		h, err := tc.m.CompositionDistribution(tc.f10, tc.x, MaxBins, tc.mm1, tc.mm2)
+		h, err := distribution(tc.m, tc.f10, tc.x, MaxBins, tc.mm1, tc.mm2)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -96,10 +130,10 @@ func TestCompositionDistribution(t *testing.T) {
 			t.Errorf("basis %q", h.Basis)
 		}
 	}
-	if _, err := (Terminal{1, 2}).CompositionDistribution(0.5, 0.5, 0, 0, 0); Field(err) != "bins" {
+	if _, err := distribution(Terminal{1, 2}, 0.5, 0.5, 0, 0, 0); Field(err) != "bins" {
 		t.Errorf("bins 0: error %v, want field bins", err)
 	}
-	if _, err := (Terminal{1, 2}).CompositionDistribution(0.5, 0.5, 10, 100, -3); Field(err) != "molarMass2" {
+	if _, err := distribution(Terminal{1, 2}, 0.5, 0.5, 10, 100, -3); Field(err) != "molarMass2" {
 		t.Errorf("negative molar mass: error %v, want field molarMass2", err)
 	}
 }
@@ -119,42 +153,42 @@ func TestMassConversion(t *testing.T) {
 		for _, x := range []float64{0.01, 0.2, 0.5, 0.9} {
 			d, _ := m.Drift(0.4, []float64{x})
 			w := MassConversion(x, 0.4, d.Feed[0], 104.152, 53.064)
-			got, err := m.MolarConversion(w, 0.4, 104.152, 53.064)
+			got, err := molarConversion(m, w, 0.4, 104.152, 53.064)
 			if err != nil || math.Abs(got-x) > 1e-10 {
 				t.Errorf("%v: MolarConversion(MassConversion(%g)) = %v, %v", m, x, got, err)
 			}
 		}
 	}
-	if _, err := (Terminal{1, 2}).MolarConversion(0.5, 0.5, 0, 50); Field(err) != "molarMass1" {
+	if _, err := molarConversion(Terminal{1, 2}, 0.5, 0.5, 0, 50); Field(err) != "molarMass1" {
 		t.Errorf("missing molar mass: error %v, want field molarMass1", err)
 	}
 }
 
-// TestMolarConversionsOf: the list form gives what MolarConversionOf gives value by value, for
+// TestMolarConversions: the list form gives what one value at a time gives, for
 // the terminal and the penultimate model, names a bad value by its index, and refuses more than
 // MaxMassConversions values before any work.
-func TestMolarConversionsOf(t *testing.T) {
+func TestMolarConversions(t *testing.T) {
 	w := []float64{0, 0.05, 0.3, 0.6}
 	for _, m := range []Model{Terminal{0.40, 0.04}, Penultimate{R11: 0.9, R21: 0.6, R22: 0.2, R12: 0.1}} {
-		got, err := MolarConversionsOf(m, w, 0.4, 104.152, 53.064)
+		got, err := molarConversions(m, w, 0.4, 104.152, 53.064)
 		if err != nil {
-			t.Fatalf("%v: MolarConversionsOf error %v", m, err)
+			t.Fatalf("%v: MolarConversions error %v", m, err)
 		}
 		for i, wi := range w {
-			want, err := MolarConversionOf(m, wi, 0.4, 104.152, 53.064)
+			want, err := molarConversion(m, wi, 0.4, 104.152, 53.064)
 			if err != nil || got[i] != want {
-				t.Errorf("%v: MolarConversionsOf[%d] = %v, MolarConversionOf(%v) = %v, %v", m, i, got[i], wi, want, err)
+				t.Errorf("%v: MolarConversions[%d] = %v, one value (%v) = %v, %v", m, i, got[i], wi, want, err)
 			}
 		}
 	}
 	m := Terminal{0.40, 0.04}
-	if _, err := MolarConversionsOf(m, []float64{0.1, 1.5}, 0.4, 104.152, 53.064); Field(err) != "massConversion[1]" || !errors.Is(err, ErrOutOfRange) {
-		t.Errorf("MolarConversionsOf(w[1] = 1.5) error %v, want one naming massConversion[1]", err)
+	if _, err := molarConversions(m, []float64{0.1, 1.5}, 0.4, 104.152, 53.064); Field(err) != "massConversion[1]" || !errors.Is(err, ErrOutOfRange) {
+		t.Errorf("MolarConversions(w[1] = 1.5) error %v, want one naming massConversion[1]", err)
 	}
-	if _, err := MolarConversionsOf(m, []float64{math.NaN()}, 0.4, 104.152, 53.064); Field(err) != "massConversion[0]" || !errors.Is(err, ErrNotFinite) {
-		t.Errorf("MolarConversionsOf(NaN) error %v, want one naming massConversion[0]", err)
+	if _, err := molarConversions(m, []float64{math.NaN()}, 0.4, 104.152, 53.064); Field(err) != "massConversion[0]" || !errors.Is(err, ErrNotFinite) {
+		t.Errorf("MolarConversions(NaN) error %v, want one naming massConversion[0]", err)
 	}
-	if _, err := MolarConversionsOf(m, make([]float64, MaxMassConversions+1), 0.4, 104.152, 53.064); Field(err) != "massConversion" || !errors.Is(err, ErrTooMany) {
-		t.Errorf("MolarConversionsOf(%d values) error %v, want ErrTooMany naming massConversion", MaxMassConversions+1, err)
+	if _, err := molarConversions(m, make([]float64, MaxMassConversions+1), 0.4, 104.152, 53.064); Field(err) != "massConversion" || !errors.Is(err, ErrTooMany) {
+		t.Errorf("MolarConversions(%d values) error %v, want ErrTooMany naming massConversion", MaxMassConversions+1, err)
 	}
 }

@@ -46,9 +46,13 @@ type Drift struct {
 	Exhausted *Exhaustion
 }
 
-// batch holds what every batch calculation needs about a pair and a starting feed: the direction
-// of drift and where it ends.
-type batch struct {
+// Batch is a batch copolymerization: a model and a starting feed f10, with what every batch
+// calculation needs, the direction of drift and where it ends. [NewBatch] makes one; its methods
+// give the drift ([Batch.Drift]), the conversion limit for a composition tolerance
+// ([Batch.ConversionLimit]), the composition distribution of the product
+// ([Batch.Distribution]), conversions by mass ([Batch.MolarConversions]) and the sequence
+// statistics of all the polymer made ([Batch.Sequence]), for any [Model].
+type Batch struct {
 	m   Terminal
 	f10 float64
 	// end is the composition the unreacted mixture moves towards: 0, 1 or the azeotrope.
@@ -68,17 +72,19 @@ type batch struct {
 }
 
 // inst returns the instantaneous composition of the batch's model at feed f.
-func (b *batch) inst(f float64) float64 {
+func (b *Batch) inst(f float64) float64 {
 	if b.model != nil {
 		return b.model.Instantaneous(f)
 	}
 	return b.m.Instantaneous(f)
 }
 
-// newModelBatch is newBatch for any model. For a model other than [Terminal] the batch is
+// NewBatch returns the batch of model started from feed f10, or an [*InputError] naming the
+// model's parameters or "f10". For a [Terminal] model the drift follows the Meyer–Lowry closed
+// form where it is well conditioned (see [Terminal.Drift]). For any other model the batch is
 // integrated numerically; the end point of the drift is the nearest fixed point f = F1(f) in
 // the direction of drift, found by scanning in steps of 0.001 and bisecting, or 0 or 1.
-func newModelBatch(model Model, f10 float64) (*batch, error) {
+func NewBatch(model Model, f10 float64) (*Batch, error) {
 	if t, ok := model.(Terminal); ok {
 		return newBatch(t, f10)
 	}
@@ -88,7 +94,7 @@ func newModelBatch(model Model, f10 float64) (*batch, error) {
 	if err := CheckFraction("f10", f10); err != nil {
 		return nil, err
 	}
-	b := &batch{model: model, f10: f10, xmax: 1}
+	b := &Batch{model: model, f10: f10, xmax: 1}
 	g := func(f float64) float64 { return f - model.Instantaneous(f) }
 	d := g(f10)
 	if d == 0 {
@@ -129,14 +135,15 @@ func newModelBatch(model Model, f10 float64) (*batch, error) {
 // closed form still agrees with the ODE to better than 1e-10 (see drift_test.go).
 const nearSingular = 1e-3
 
-func newBatch(m Terminal, f10 float64) (*batch, error) {
+// newBatch is NewBatch for the terminal model.
+func newBatch(m Terminal, f10 float64) (*Batch, error) {
 	if err := m.Validate(); err != nil {
 		return nil, err
 	}
 	if err := CheckFraction("f10", f10); err != nil {
 		return nil, err
 	}
-	b := &batch{m: m, f10: f10, xmax: 1}
+	b := &Batch{m: m, f10: f10, xmax: 1}
 	d := f10 - m.Instantaneous(f10)
 	switch {
 	case d == 0:
@@ -168,7 +175,7 @@ func newBatch(m Terminal, f10 float64) (*batch, error) {
 
 // setMeyerLowry sets the exponents α, β, γ and the singular point δ of the Meyer–Lowry form
 // (see meyerLowryLog).
-func (b *batch) setMeyerLowry() {
+func (b *Batch) setMeyerLowry() {
 	r1, r2 := b.m.R1, b.m.R2
 	b.alpha = r2 / (1 - r2)
 	b.beta = r1 / (1 - r1)
@@ -186,7 +193,7 @@ func (b *batch) setMeyerLowry() {
 //
 // References:
 //   - I. Skeist, J. Am. Chem. Soc. 1946, 68, 1781.
-func (b *batch) skeistLog(f float64) float64 {
+func (b *Batch) skeistLog(f float64) float64 {
 	s := 1.0
 	if b.f10 < b.end {
 		s = -1
@@ -232,7 +239,7 @@ func (b *batch) skeistLog(f float64) float64 {
 //
 // References:
 //   - V. E. Meyer, G. G. Lowry, J. Polym. Sci. A 1965, 3, 2843.
-func (b *batch) meyerLowryLog(s float64) float64 {
+func (b *Batch) meyerLowryLog(s float64) float64 {
 	f := b.end + (b.f10-b.end)*math.Exp(-s)
 	l1 := math.Log(f / b.f10)
 	l2 := math.Log((1 - f) / (1 - b.f10))
@@ -256,8 +263,28 @@ func (b *batch) meyerLowryLog(s float64) float64 {
 	return sum + b.gamma*l3
 }
 
+// Model returns the model of the batch.
+func (b *Batch) Model() Model {
+	if b.model != nil {
+		return b.model
+	}
+	return b.m
+}
+
+// MaxConversion returns the largest overall molar conversion the batch can reach: 1, or less when
+// the monomer left over cannot add to its own radical (r = 0; see [Terminal.Drift]).
+func (b *Batch) MaxConversion() float64 { return b.xmax }
+
+// FeedAt writes the unreacted feed f1 at each overall molar conversion of xs (ascending, each at
+// most [Batch.MaxConversion]) into dst, which must be as long as xs, and returns dst. The
+// conversions are not validated; [Batch.Drift] validates.
+func (b *Batch) FeedAt(dst, xs []float64) []float64 {
+	b.feedAt(dst, xs)
+	return dst
+}
+
 // feedAt returns f1 at each conversion in xs (ascending, each ≤ b.xmax) into dst.
-func (b *batch) feedAt(dst, xs []float64) {
+func (b *Batch) feedAt(dst, xs []float64) {
 	if b.still {
 		for i := range xs {
 			dst[i] = b.f10
@@ -274,7 +301,7 @@ func (b *batch) feedAt(dst, xs []float64) {
 }
 
 // closedFeed inverts the Meyer–Lowry form for f1 at conversion x (see closedFeedFrom).
-func (b *batch) closedFeed(x float64) float64 {
+func (b *Batch) closedFeed(x float64) float64 {
 	f, _ := b.closedFeedFrom(x, 0)
 	return f
 }
@@ -284,7 +311,7 @@ func (b *batch) closedFeed(x float64) float64 {
 // the iteration; when a step misbehaves (leaves s ≥ 0 or fails to shrink the residual) the
 // search falls back to a bracket with bisection. It also returns the solution s, to seed the next
 // call.
-func (b *batch) closedFeedFrom(x, s0 float64) (f, s float64) {
+func (b *Batch) closedFeedFrom(x, s0 float64) (f, s float64) {
 	if x == 0 {
 		return b.f10, 0
 	}
@@ -346,7 +373,7 @@ func (b *batch) closedFeedFrom(x, s0 float64) (f, s float64) {
 }
 
 // meyerLowryNewton returns meyerLowryLog(s) − target and its slope in s, sharing the work.
-func (b *batch) meyerLowryNewton(s, target float64) (v, d float64) {
+func (b *Batch) meyerLowryNewton(s, target float64) (v, d float64) {
 	e := math.Exp(-s)
 	dv := (b.f10 - b.end) * e // f − end
 	f := b.end + dv
@@ -382,7 +409,7 @@ func (b *batch) meyerLowryNewton(s, target float64) (v, d float64) {
 //
 // References:
 //   - I. Skeist, J. Am. Chem. Soc. 1946, 68, 1781.
-func (b *batch) odeFeed(dst, xs []float64) {
+func (b *Batch) odeFeed(dst, xs []float64) {
 	s := 1.0
 	if b.f10 < b.end {
 		s = -1
@@ -417,7 +444,7 @@ func (b *batch) odeFeed(dst, xs []float64) {
 //
 // clamped to [0, 1]. Below X = 1e-7 the balance loses precision and the mean of the first and
 // current instantaneous compositions is returned instead (exact to first order in X).
-func (b *batch) cumulative(x, f1 float64) float64 {
+func (b *Batch) cumulative(x, f1 float64) float64 {
 	if x < 1e-7 {
 		return 0.5 * (b.inst(b.f10) + b.inst(f1))
 	}
@@ -425,7 +452,7 @@ func (b *batch) cumulative(x, f1 float64) float64 {
 	return math.Min(1, math.Max(0, c))
 }
 
-func (b *batch) checkConversions(xs []float64) error {
+func (b *Batch) checkConversions(xs []float64) error {
 	if len(xs) > MaxPoints {
 		return &InputError{Field: "conversion", Value: float64(len(xs)), Reason: fmt.Sprintf("at most %d conversions per call", MaxPoints), Err: ErrTooMany}
 	}
@@ -440,9 +467,18 @@ func (b *batch) checkConversions(xs []float64) error {
 		if i > 0 && x < xs[i-1] {
 			return &InputError{Field: field, Value: x, Reason: fmt.Sprintf("conversions must not decrease (the one before is %g)", xs[i-1]), Err: ErrOutOfRange}
 		}
-		if x > b.xmax {
-			return &InputError{Field: field, Value: x, Reason: fmt.Sprintf("polymerization stops at X = %.4g: M%d is used up and the other monomer cannot add to its own radical (r = 0)", b.xmax, 1+int(b.end)), Err: ErrOutOfRange}
+		if err := b.checkConversion(field, x); err != nil {
+			return err
 		}
+	}
+	return nil
+}
+
+// checkConversion reports a conversion x (already in [0, 1]) past the end of the batch, naming
+// field.
+func (b *Batch) checkConversion(field string, x float64) error {
+	if x > b.xmax {
+		return &InputError{Field: field, Value: x, Reason: fmt.Sprintf("polymerization stops at X = %.4g: M%d is used up and the other monomer cannot add to its own radical (r = 0)", b.xmax, 1+int(b.end)), Err: ErrOutOfRange}
 	}
 	return nil
 }
@@ -462,25 +498,19 @@ func (b *batch) checkConversions(xs []float64) error {
 // References:
 //   - I. Skeist, J. Am. Chem. Soc. 1946, 68, 1781.
 //   - V. E. Meyer, G. G. Lowry, J. Polym. Sci. A 1965, 3, 2843.
+//
+// It is the shorthand for NewBatch(m, f10) and [Batch.Drift], which take any [Model].
 func (m Terminal) Drift(f10 float64, conversion []float64) (*Drift, error) {
 	b, err := newBatch(m, f10)
 	if err != nil {
 		return nil, err
 	}
-	return b.drift(conversion)
+	return b.Drift(conversion)
 }
 
-// DriftOf is [Terminal.Drift] for any model: for a [Penultimate] or [Implicit] model the
-// Skeist equation is integrated numerically (the Meyer–Lowry form is terminal only).
-func DriftOf(model Model, f10 float64, conversion []float64) (*Drift, error) {
-	b, err := newModelBatch(model, f10)
-	if err != nil {
-		return nil, err
-	}
-	return b.drift(conversion)
-}
-
-func (b *batch) drift(conversion []float64) (*Drift, error) {
+// Drift returns the composition of the batch at each overall molar conversion in conversion
+// (non-decreasing, each in [0, 1] and at most [Batch.MaxConversion]); see [Terminal.Drift].
+func (b *Batch) Drift(conversion []float64) (*Drift, error) {
 	if err := b.checkConversions(conversion); err != nil {
 		return nil, err
 	}
@@ -516,7 +546,7 @@ func (b *batch) drift(conversion []float64) (*Drift, error) {
 
 // exhaustion reports the conversion at which the monomer being used up falls below
 // ExhaustedFraction, when that happens at or before last.
-func (b *batch) exhaustion(last float64) *Exhaustion {
+func (b *Batch) exhaustion(last float64) *Exhaustion {
 	if b.still || (b.end != 0 && b.end != 1) {
 		return nil
 	}

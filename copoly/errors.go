@@ -6,17 +6,25 @@ import (
 	"math"
 )
 
-// Sentinel errors wrapped by [InputError]; test for them with errors.Is.
+// Sentinel errors wrapped by [InputError] and [FieldError]; test for them with errors.Is. Each
+// carries its code ([Code]).
 var (
 	// ErrNotFinite reports a NaN or infinite input.
-	ErrNotFinite = errors.New("copoly: value is not a finite number")
+	ErrNotFinite = NewSentinel(CodeNotANumber, "copoly: value is not a finite number")
 	// ErrOutOfRange reports a finite input outside its valid domain.
-	ErrOutOfRange = errors.New("copoly: value out of range")
+	ErrOutOfRange = NewSentinel(CodeOutOfRange, "copoly: value out of range")
 	// ErrTooMany reports an input array or count above the documented limit.
-	ErrTooMany = errors.New("copoly: too many values")
+	ErrTooMany = NewSentinel(CodeTooMany, "copoly: too many values")
 	// ErrUnreachable reports a target that no input can produce (for example a copolymer
 	// composition outside the range a pair of reactivity ratios can give).
-	ErrUnreachable = errors.New("copoly: target cannot be reached")
+	ErrUnreachable = NewSentinel(CodeUnreachable, "copoly: target cannot be reached")
+	// ErrMissing reports a required input that is absent (or null).
+	ErrMissing = NewSentinel(CodeMissing, "copoly: value missing")
+	// ErrWrongType reports a value of the wrong type, such as text where a number belongs, or
+	// one that cannot be read.
+	ErrWrongType = NewSentinel(CodeWrongType, "copoly: value has the wrong type")
+	// ErrTooLong reports a text above its length limit.
+	ErrTooLong = NewSentinel(CodeTooLong, "copoly: text too long")
 )
 
 // InputError reports an invalid input value. Field names the input as the JavaScript API and
@@ -64,8 +72,11 @@ func Field(err error) string {
 	return ""
 }
 
-// checkFinite returns an *InputError when v is NaN or infinite.
-func checkFinite(field string, v float64) error {
+// checkFinite is [CheckFinite], under the name the files written before it was exported use.
+func checkFinite(field string, v float64) error { return CheckFinite(field, v) }
+
+// CheckFinite returns an *InputError when v is NaN or infinite.
+func CheckFinite(field string, v float64) error {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return &InputError{Field: field, Value: v, Reason: "must be a finite number", Err: ErrNotFinite}
 	}
@@ -82,7 +93,7 @@ func CheckFraction(field string, v float64) error {
 
 // checkFractionError is the error of CheckFraction for a v outside its range.
 func checkFractionError(field string, v float64) error {
-	if err := checkFinite(field, v); err != nil {
+	if err := CheckFinite(field, v); err != nil {
 		return err
 	}
 	if v < 0 || v > 1 {
@@ -101,7 +112,7 @@ func CheckConversion(field string, v float64) error {
 
 // checkConversionError is the error of CheckConversion for a v outside its range.
 func checkConversionError(field string, v float64) error {
-	if err := checkFinite(field, v); err != nil {
+	if err := CheckFinite(field, v); err != nil {
 		return err
 	}
 	if v < 0 || v > 1 {
@@ -121,7 +132,7 @@ func CheckRatio(field string, v float64) error {
 
 // checkRatioError is the error of CheckRatio for a v outside its range.
 func checkRatioError(field string, v float64) error {
-	if err := checkFinite(field, v); err != nil {
+	if err := CheckFinite(field, v); err != nil {
 		return err
 	}
 	if v < 0 {
@@ -135,7 +146,7 @@ func checkRatioError(field string, v float64) error {
 
 // CheckMolarMass returns an *InputError unless v is a positive molar mass in g/mol below 10⁶.
 func CheckMolarMass(field string, v float64) error {
-	if err := checkFinite(field, v); err != nil {
+	if err := CheckFinite(field, v); err != nil {
 		return err
 	}
 	if v <= 0 || v >= 1e6 {

@@ -29,12 +29,19 @@ type ChainOptions struct {
 	// Samples is the number of chains returned as strings (default 12), each cut at
 	// SampleUnits units (default 200).
 	Samples, SampleUnits int
+	// Bins, when above 0, asks for the histogram of the chain compositions on that many bins
+	// ([ChainStats.Histogram]) and, for a [Terminal] model at a constant feed with a DPn,
+	// Stockmayer's distribution on the same bins ([Terminal.Stockmayer]).
+	Bins int
 }
 
-// Limits of [SimulateChains]: chains, and units grown in all (which bounds the time of a call).
+// Limits of [SimulateChains]: chains, units grown in all (which bounds the time of a call), and
+// the number-average degree of polymerization of a most-probable distribution (also of
+// [Terminal.Stockmayer]).
 const (
 	MaxSimChains = 100000
 	MaxSimUnits  = 20_000_000
+	MaxDPn       = 100000
 )
 
 // ChainStats are the results of [SimulateChains].
@@ -62,6 +69,12 @@ type ChainStats struct {
 	// distribution with p = 1 − 1/DPn, where F and P are the composition and the
 	// self-propagation probability of the other monomer. NaN with drift or another model.
 	ExpectedNonFunctional float64
+	// Composition is the histogram of the chain compositions, each chain weighted by its units,
+	// on [ChainOptions.Bins] bins; its Edges are nil when no bins were asked for.
+	Composition Histogram
+	// Stockmayer holds Stockmayer's weight fractions on the bins of Composition for a terminal
+	// model at a constant feed with a DPn; nil otherwise.
+	Stockmayer []float64
 }
 
 // chainStep holds the growth probabilities at one feed: the stationary dyad states (11, 12, 21,
@@ -117,11 +130,11 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 	if err := CheckConversion("conversion", opt.Conversion); err != nil {
 		return nil, err
 	}
-	if err := checkFinite("dpn", opt.DPn); err != nil {
+	if err := CheckFinite("dpn", opt.DPn); err != nil {
 		return nil, err
 	}
-	if opt.DPn != 0 && (opt.DPn < 1 || opt.DPn > 1e5) {
-		return nil, &InputError{Field: "dpn", Value: opt.DPn, Reason: "a number-average degree of polymerization must lie between 1 and 100000", Err: ErrOutOfRange}
+	if opt.DPn != 0 && (opt.DPn < 1 || opt.DPn > MaxDPn) {
+		return nil, &InputError{Field: "dpn", Value: opt.DPn, Reason: fmt.Sprintf("a number-average degree of polymerization must lie between 1 and %d", MaxDPn), Err: ErrOutOfRange}
 	}
 	if opt.DPn == 0 && (opt.Length < 1 || opt.Length > MaxChainLength) {
 		return nil, &InputError{Field: "length", Value: float64(opt.Length), Reason: fmt.Sprintf("give a chain length between 1 and %d, or a dpn", MaxChainLength), Err: ErrOutOfRange}
@@ -148,6 +161,9 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 	if opt.Samples < 0 || opt.Samples > 1000 || opt.SampleUnits < 1 || opt.SampleUnits > 10000 {
 		return nil, &InputError{Field: "samples", Value: float64(opt.Samples), Reason: "at most 1000 sample chains of at most 10000 units", Err: ErrOutOfRange}
 	}
+	if opt.Bins < 0 || opt.Bins > MaxBins {
+		return nil, &InputError{Field: "bins", Value: float64(opt.Bins), Reason: fmt.Sprintf("the number of bins must be between 1 and %d", MaxBins), Err: ErrOutOfRange}
+	}
 	var pm Penultimate
 	switch m := opt.Model.(type) {
 	case Terminal:
@@ -168,7 +184,7 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 		for i := range xs {
 			xs[i] = opt.Conversion * (float64(i) + 0.5) / grid
 		}
-		b, err := newModelBatch(opt.Model, opt.F10)
+		b, err := NewBatch(opt.Model, opt.F10)
 		if err != nil {
 			return nil, err
 		}
@@ -313,6 +329,18 @@ func SimulateChains(opt ChainOptions) (*ChainStats, error) {
 			}
 		}
 	}
+	if opt.Bins > 0 {
+		h, err := st.Histogram(opt.Bins)
+		if err != nil {
+			return nil, err
+		}
+		st.Composition = h
+		if t, ok := opt.Model.(Terminal); ok && opt.DPn > 0 && opt.Conversion == 0 {
+			if st.Stockmayer, err = t.Stockmayer(opt.F10, opt.DPn, h.Edges); err != nil {
+				return nil, err
+			}
+		}
+	}
 	return st, nil
 }
 
@@ -333,8 +361,8 @@ func (m Terminal) Stockmayer(f1, dpn float64, edges []float64) ([]float64, error
 	if err := CheckFraction("f1", f1); err != nil {
 		return nil, err
 	}
-	if !(dpn >= 1 && dpn <= 1e5) {
-		return nil, &InputError{Field: "dpn", Value: dpn, Reason: "between 1 and 100000", Err: ErrOutOfRange}
+	if !(dpn >= 1 && dpn <= MaxDPn) {
+		return nil, &InputError{Field: "dpn", Value: dpn, Reason: fmt.Sprintf("between 1 and %d", MaxDPn), Err: ErrOutOfRange}
 	}
 	if len(edges) < 2 || len(edges) > MaxBins+1 {
 		return nil, &InputError{Field: "edges", Value: float64(len(edges)), Reason: fmt.Sprintf("between 2 and %d bin edges", MaxBins+1), Err: ErrOutOfRange}

@@ -3,6 +3,8 @@ package copoly
 import (
 	"math"
 	"testing"
+
+	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // The Monte Carlo checks compare seeded simulations with analytic results within a stated number
@@ -178,5 +180,87 @@ func TestChainHistogram(t *testing.T) {
 	}
 	if _, err := st.Histogram(0); Field(err) != "bins" {
 		t.Errorf("bins 0: %v", err)
+	}
+}
+
+// TestSimulateChainsPoissonLimit: for r1 = r2 = 1 the units are independent, so the functional
+// units per chain of fixed length n are binomial(n, F2); for a small share F2 of long chains the
+// binomial tends to Poisson(n·F2) (the Poisson limit of the binomial). Each simulated fraction
+// of chains with k functional units must lie within 5 binomial standard errors of the Poisson
+// probability plus |binomial − Poisson| at that k; both probabilities are computed here with
+// gonum's distuv (an independent implementation); at n = 200, F2 = 0.02 the gap between them is
+// at most 2e-3, near the mode (each k is logged with -v).
+func TestSimulateChainsPoissonLimit(t *testing.T) {
+	// n = 200 and F2 = 0.02 are the case asked for (λ = n·F2 = 4); 50 000 chains give standard
+	// errors near 2e-3 at the mode (chosen for this test, common practice, no source).
+	const n, count, f2 = 200, 50000, 0.02
+	st, err := SimulateChains(ChainOptions{Model: Terminal{1, 1}, F10: 1 - f2, Length: n, Count: count, Seed: 11, Functional: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	total := 0
+	for _, c := range st.FunctionalCounts {
+		total += c
+	}
+	if total != count {
+		t.Fatalf("functional counts add up to %d chains, want %d", total, count)
+	}
+	pois := distuv.Poisson{Lambda: n * f2}
+	bin := distuv.Binomial{N: n, P: f2}
+	for k := 0; k <= 8; k++ {
+		got := 0.0 // a k no chain reached counts as fraction 0 and is still compared
+		if k < len(st.FunctionalCounts) {
+			got = float64(st.FunctionalCounts[k]) / count
+		}
+		pp, pb := pois.Prob(float64(k)), bin.Prob(float64(k))
+		se := math.Sqrt(pp * (1 - pp) / count)
+		tol := 5*se + math.Abs(pb-pp)
+		t.Logf("k=%d simulated %.5f Poisson %.5f binomial %.5f |sim−Poisson| %.5f tolerance %.5f (5 SE %.5f + gap %.5f)",
+			k, got, pp, pb, math.Abs(got-pp), tol, 5*se, math.Abs(pb-pp))
+		if math.Abs(got-pp) > tol {
+			t.Errorf("chains with %d functional units: %.5f of %d, Poisson(%g) %.5f (binomial %.5f), beyond %.5f",
+				k, got, count, n*f2, pp, pb, tol)
+		}
+	}
+}
+
+// TestSimulateChainsBins: with Bins the statistics carry the histogram of the chains
+// ([ChainStats.Histogram]) and, for the terminal model at a constant feed with a DPn only,
+// Stockmayer's distribution on the same bins; without Bins neither.
+func TestSimulateChainsBins(t *testing.T) {
+	m := Terminal{0.80, 0.15}
+	for _, tc := range []struct {
+		opt        ChainOptions
+		stockmayer bool
+	}{
+		{ChainOptions{Model: m, F10: 0.5, DPn: 50, Count: 500, Seed: 3, Bins: 12}, true},
+		{ChainOptions{Model: m, F10: 0.5, Length: 50, Count: 500, Seed: 3, Bins: 12}, false},
+		{ChainOptions{Model: m, F10: 0.5, DPn: 50, Conversion: 0.5, Count: 500, Seed: 3, Bins: 12}, false},
+		{ChainOptions{Model: Penultimate{0.9, 0.6, 0.2, 0.1}, F10: 0.5, DPn: 50, Count: 500, Seed: 3, Bins: 12}, false},
+	} {
+		st, err := SimulateChains(tc.opt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		h, _ := st.Histogram(12)
+		if !sameFloats(st.Composition.Edges, h.Edges) || !sameFloats(st.Composition.Weights, h.Weights) {
+			t.Errorf("%+v: composition %+v, want Histogram(12) %+v", tc.opt, st.Composition, h)
+		}
+		if (st.Stockmayer != nil) != tc.stockmayer {
+			t.Fatalf("%+v: Stockmayer %v, want one: %v", tc.opt, st.Stockmayer, tc.stockmayer)
+		}
+		if tc.stockmayer {
+			want, _ := m.Stockmayer(0.5, 50, h.Edges)
+			if !sameFloats(st.Stockmayer, want) {
+				t.Errorf("Stockmayer %v, want %v", st.Stockmayer, want)
+			}
+		}
+	}
+	st, _ := SimulateChains(ChainOptions{Model: m, F10: 0.5, DPn: 50, Count: 10, Seed: 3})
+	if st.Composition.Edges != nil || st.Stockmayer != nil {
+		t.Errorf("without Bins: composition %+v, Stockmayer %v, want neither", st.Composition, st.Stockmayer)
+	}
+	if _, err := SimulateChains(ChainOptions{Model: m, F10: 0.5, DPn: 50, Count: 10, Seed: 3, Bins: MaxBins + 1}); Field(err) != "bins" {
+		t.Errorf("bins %d: error %v, want one naming bins", MaxBins+1, err)
 	}
 }

@@ -5,15 +5,6 @@ import (
 	"math"
 )
 
-// Model is a copolymerization model: it gives the instantaneous copolymer composition of a
-// feed. [Terminal], [Penultimate] and [Implicit] implement it.
-type Model interface {
-	// Validate reports invalid parameters as an [*InputError] naming them.
-	Validate() error
-	// Instantaneous returns F1 at feed f1 (0 ≤ f1 ≤ 1).
-	Instantaneous(f1 float64) float64
-}
-
 // Penultimate is the explicit penultimate model: the rate at which a chain adds a monomer depends
 // on the last two units at its radical end. With kijk the rate coefficient of a chain ending in
 // i j adding k, its monomer reactivity ratios are
@@ -198,6 +189,16 @@ func (m Implicit) Penultimate() Penultimate { return Penultimate{m.R1, m.R1, m.R
 // Instantaneous returns F1 at feed f1: the terminal Mayo–Lewis composition.
 func (m Implicit) Instantaneous(f1 float64) float64 { return Terminal{m.R1, m.R2}.Instantaneous(f1) }
 
+// Sequence returns the sequence statistics of the copolymer formed at feed f1: those of the
+// equivalent explicit model ([Implicit.Penultimate]), which are the terminal model's (the radical
+// reactivity ratios change the rate, not the chain).
+func (m Implicit) Sequence(f1 float64) (Sequence, error) {
+	if err := m.Validate(); err != nil {
+		return Sequence{}, err
+	}
+	return m.Penultimate().Sequence(f1)
+}
+
 // MeanPropagation returns the mean propagation rate coefficient k̄p at feed f1, in the units of
 // the homopropagation coefficients k111 and k222:
 //
@@ -219,7 +220,7 @@ func (m Implicit) MeanPropagation(f1, k111, k222 float64) (float64, error) {
 		field string
 		v     float64
 	}{{"k111", k111}, {"k222", k222}} {
-		if err := checkFinite(c.field, c.v); err != nil {
+		if err := CheckFinite(c.field, c.v); err != nil {
 			return 0, err
 		}
 		if c.v <= 0 {

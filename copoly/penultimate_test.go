@@ -109,7 +109,7 @@ func TestPenultimateReducesToTerminal(t *testing.T) {
 			}
 		}
 		xs := []float64{0.1, 0.5, 0.9}
-		da, err := DriftOf(pm, 0.3, xs)
+		da, err := drift(pm, 0.3, xs)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -164,13 +164,13 @@ func TestImplicitMeanPropagation(t *testing.T) {
 func TestBatchRoutinesOfAnyModel(t *testing.T) {
 	tm := Terminal{0.40, 0.04}
 	pm := Penultimate{0.40, 0.40, 0.04, 0.04}
-	a, _ := tm.ConversionLimit(0.3, 0.02)
-	b, err := ConversionLimitOf(pm, 0.3, 0.02)
+	a, _ := conversionLimit(tm, 0.3, 0.02)
+	b, err := conversionLimit(pm, 0.3, 0.02)
 	if err != nil || math.Abs(a-b) > 1e-8 {
 		t.Errorf("limit %v, %v (%v)", a, b, err)
 	}
-	h1, _ := tm.CompositionDistribution(0.3, 0.6, 20, 0, 0)
-	h2, err := CompositionDistributionOf(pm, 0.3, 0.6, 20, 0, 0)
+	h1, _ := distribution(tm, 0.3, 0.6, 20, 0, 0)
+	h2, err := distribution(pm, 0.3, 0.6, 20, 0, 0)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -179,9 +179,14 @@ func TestBatchRoutinesOfAnyModel(t *testing.T) {
 			t.Fatalf("distribution bin %d: %v vs %v", i, h1.Weights[i], h2.Weights[i])
 		}
 	}
-	x1, _ := tm.MolarConversion(0.4, 0.3, 104.152, 53.064)
-	x2, err := MolarConversionOf(pm, 0.4, 0.3, 104.152, 53.064)
+	x1, _ := molarConversion(tm, 0.4, 0.3, 104.152, 53.064)
+	x2, err := molarConversion(pm, 0.4, 0.3, 104.152, 53.064)
 	if err != nil || math.Abs(x1-x2) > 1e-9 {
 		t.Errorf("molar conversion %v, %v (%v)", x1, x2, err)
+	}
+	s1, _ := batchSequence(tm, 0.3, 0.6)
+	s2, err := batchSequence(pm, 0.3, 0.6)
+	if err != nil || math.Abs(s1.T112-s2.T112) > 1e-9 || math.Abs(s1.MeanLength1-s2.MeanLength1) > 1e-6 || math.Abs(s1.F1-s2.F1) > 1e-9 {
+		t.Errorf("batch sequence %+v,\n%+v (%v)", s1, s2, err)
 	}
 }

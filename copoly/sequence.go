@@ -99,32 +99,29 @@ func (m Terminal) sequence(f1 float64) Sequence {
 	return s
 }
 
-// batchSteps is the number of conversion slices over which [Terminal.BatchSequence] averages (the
+// batchSteps is the number of conversion slices over which [Batch.Sequence] averages (the
 // midpoint rule; the averaged fractions change by less than 1e-6 on doubling it for the cases in
 // sequence_test.go).
 const batchSteps = 2000
 
-// BatchSequence returns the sequence statistics of all the polymer made in a batch from feed f10
-// up to the overall molar conversion given, averaging over the composition drift (see
-// [Terminal.Drift]). Each conversion slice dX contributes dX monomer units with the statistics of
-// its instantaneous feed. Dyads, run number and F1 are averages per unit; monomer-centred triads
+// Sequence returns the sequence statistics of all the polymer made in the batch up to the overall
+// molar conversion given, averaging over the composition drift (see [Batch.Drift]) the statistics
+// of the model's chain ([Model.Sequence]). Each conversion slice dX contributes dX monomer units
+// with the statistics of its instantaneous feed. Dyads, run number and F1 are averages per unit; monomer-centred triads
 // are averaged per centre unit of their family (weights F1 dX and F2 dX); the mean run lengths
 // are total units over total runs, n̄1 = ∫F1 dX / ∫F1 P12 dX; P11… are the probabilities of the
 // averaged chain, P12 = 1/n̄1 and P21 = 1/n̄2; B = P12 + P21. Junctions between chains made at
-// different conversions are ignored (long chains).
-func (m Terminal) BatchSequence(f10, conversion float64) (Sequence, error) {
-	b, err := newBatch(m, f10)
-	if err != nil {
-		return Sequence{}, err
-	}
+// different conversions are ignored (long chains). A conversion outside [0, 1], or past
+// [Batch.MaxConversion], gives an [*InputError] naming "conversion".
+func (b *Batch) Sequence(conversion float64) (Sequence, error) {
 	if err := CheckConversion("conversion", conversion); err != nil {
 		return Sequence{}, err
 	}
-	if err := b.checkConversions([]float64{conversion}); err != nil {
+	if err := b.checkConversion("conversion", conversion); err != nil {
 		return Sequence{}, err
 	}
 	if conversion == 0 || b.still {
-		return m.sequence(f10), nil
+		return b.sequenceAt(b.f10), nil
 	}
 	xs := make([]float64, batchSteps)
 	for i := range xs {
@@ -135,7 +132,7 @@ func (m Terminal) BatchSequence(f10, conversion float64) (Sequence, error) {
 	var sum Sequence
 	var runs1, runs2 float64
 	for _, f := range feeds {
-		s := m.sequence(f)
+		s := b.sequenceAt(f)
 		F2 := 1 - s.F1
 		sum.F1 += s.F1
 		sum.D11 += s.D11
@@ -161,6 +158,17 @@ func (m Terminal) BatchSequence(f10, conversion float64) (Sequence, error) {
 	out.RunNumber = 100 * out.D12
 	out.Randomness = out.P12 + out.P21
 	return out, nil
+}
+
+// sequenceAt returns the statistics of the chain the batch's model makes at feed f (validated
+// with the batch; f is clamped into [0, 1] against rounding).
+func (b *Batch) sequenceAt(f float64) Sequence {
+	f = math.Min(1, math.Max(0, f))
+	if b.model == nil {
+		return b.m.sequence(f)
+	}
+	s, _ := b.model.Sequence(f)
+	return s
 }
 
 // RunLengths holds run-length (sequence-length) distributions.

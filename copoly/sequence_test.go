@@ -62,6 +62,23 @@ func TestSequenceLimits(t *testing.T) {
 	}
 }
 
+// drift and batchSequence call the methods of the batch of m from f10, as the tests use them.
+func drift(m Model, f10 float64, xs []float64) (*Drift, error) {
+	b, err := NewBatch(m, f10)
+	if err != nil {
+		return nil, err
+	}
+	return b.Drift(xs)
+}
+
+func batchSequence(m Model, f10, x float64) (Sequence, error) {
+	b, err := NewBatch(m, f10)
+	if err != nil {
+		return Sequence{}, err
+	}
+	return b.Sequence(x)
+}
+
 func TestBatchSequence(t *testing.T) {
 	for _, tc := range []struct {
 		m      Terminal
@@ -71,7 +88,7 @@ func TestBatchSequence(t *testing.T) {
 		{Terminal{1.88, 0.43}, 0.5, 0.9}, // MMA/n-BA, Polymer Handbook table
 		{Terminal{1, 0.5}, 0.4, 0.5},     // Skeist ODE path
 	} {
-		s, err := tc.m.BatchSequence(tc.f10, tc.x)
+		s, err := batchSequence(tc.m, tc.f10, tc.x)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -95,10 +112,10 @@ func TestBatchSequence(t *testing.T) {
 			t.Errorf("runs of M1 %v, of M2 %v, D12/2 %v", a, b, s.D12/2)
 		}
 		// Conversion → 0 gives the statistics at the feed.
-		s0, _ := tc.m.BatchSequence(tc.f10, 0)
+		s0, _ := batchSequence(tc.m, tc.f10, 0)
 		s1, _ := tc.m.Sequence(tc.f10)
 		if s0 != s1 {
-			t.Errorf("BatchSequence(X = 0) = %+v, want Sequence(f10) = %+v", s0, s1)
+			t.Errorf("Batch.Sequence(X = 0) = %+v, want Sequence(f10) = %+v", s0, s1)
 		}
 	}
 }
@@ -141,7 +158,7 @@ func TestRunLengths(t *testing.T) {
 //	I2  = ∫F1² dX = [c v²/2 − b v + (b²/c) ln(c v + b)] from v_e to 1
 //	I12 = ∫F1 F2 dX = I1 − I2
 //
-// The batch chain (BatchSequence's definitions) has P12 = ∫F1 P12 dX/∫F1 dX = I12/I1 and
+// The batch chain (Batch.Sequence's definitions) has P12 = ∫F1 P12 dX/∫F1 dX = I12/I1 and
 // P21 = I12/(X − I1), so the randomness index B = P12 + P21 = I12 (1/I1 + 1/(X − I1)), and the
 // run number, 100 times the averaged 12-dyad fraction D12 = 2 F1 P12 = 2 F1 F2, is
 // R = 200 I12/X (Harwood & Ritchey 1964). Each instant is Bernoullian (B = 1); the drift of the
@@ -157,7 +174,11 @@ func TestBatchSequenceIdealClosedForm(t *testing.T) {
 	wantB := i12 * (1/i1 + 1/(x-i1))
 	wantR := 200 * i12 / x
 
-	s, err := Terminal{2, 0.5}.BatchSequence(f10, x)
+	bt, err := NewBatch(Terminal{R1: 2, R2: 0.5}, f10)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := bt.Sequence(x)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -172,7 +193,7 @@ func TestBatchSequenceIdealClosedForm(t *testing.T) {
 		{"RunNumber", s.RunNumber, wantR},
 	} {
 		if !scalar.EqualWithinAbsOrRel(c.got, c.want, 1e-6, 1e-6) {
-			t.Errorf("Terminal{2, 0.5}.BatchSequence(%v, %v) %s = %.10g, closed form %.10g", f10, x, c.name, c.got, c.want)
+			t.Errorf("NewBatch(Terminal{2, 0.5}, %v).Sequence(%v) %s = %.10g, closed form %.10g", f10, x, c.name, c.got, c.want)
 		}
 	}
 	if !(wantB < 1-5e-3) {

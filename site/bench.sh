@@ -85,7 +85,7 @@ if grep -q '^Benchmark' "$OUT/native.txt" "$OUT/wasm.txt"; then
 	echo "node $(node --version 2>/dev/null || echo '(not found)') for js/wasm"
 	"$GO" run ./site/bench/sidebyside "$OUT/native.txt" "$OUT/wasm.txt"
 else
-	echo "no benchmarks in ./copoly/... yet (they belong in copoly/*_bench_test.go)"
+	echo "no benchmarks in ./copoly/... yet (they belong in each package's *_bench_test.go)"
 fi
 echo "raw outputs: $OUT/native.txt $OUT/wasm.txt"
 

@@ -19,7 +19,29 @@
 export interface CopolyError {
   error: string;   // a sentence for the user, e.g. "r1 = -0.2: a reactivity ratio cannot be negative"
   field?: string;  // the input field at fault, e.g. "r1", "f1[3]", "conversion[0]", "project.monomer1.molarMass"
+  code: ErrorCode; // what is wrong, in a word, e.g. "out-of-range"
+  reason: string;  // the sentence without the field and value, e.g. "a reactivity ratio cannot be negative"
+  value?: number;  // the offending number, when there is one, e.g. -0.2 (may be NaN or ±Infinity)
+  row?: number;    // the 0-based row of a bench table or of a fit's runs the field lies in, e.g. 3 for "runs[3].f10"
 }
+
+// Codes of errors and warnings (copoly.Codes in Go, copoly/codes.go, defines them once):
+//   input:   not-a-number (NaN, ±Infinity or text that is not a number), out-of-range, too-many,
+//            too-long, unreachable, missing, wrong-type, not-allowed (a word not accepted),
+//            not-a-table (pasted text that cannot be read)
+//   project and storage: not-a-project, newer-version, damaged, no-copy, storage, not-stored,
+//            storage-full, unavailable, busy
+//   internal: a fault of copoly, not of the input (a recovered panic)
+//   warnings of bench data: mass-balance, duplicate, no-information, few-feeds
+//   warnings of fit: high-conversion, open-region, at-bound, partly-weighted, scatter, trend,
+//            no-uncertainties, not-shown; a method that could not run has its error's code
+export type ErrorCode =
+  | "not-a-number" | "out-of-range" | "too-many" | "too-long" | "unreachable" | "missing" | "wrong-type"
+  | "not-allowed" | "not-a-table" | "not-a-project" | "newer-version" | "damaged" | "no-copy" | "storage"
+  | "not-stored" | "storage-full" | "unavailable" | "busy" | "internal"
+  | "mass-balance" | "duplicate" | "no-information" | "few-feeds"
+  | "high-conversion" | "open-region" | "at-bound" | "partly-weighted" | "scatter" | "trend"
+  | "no-uncertainties" | "not-shown";
 
 // Limits. Every list, count and text has a maximum, far above real use, checked before any work
 // (and a text's length before it is copied into the module); above it the result is a
@@ -42,6 +64,24 @@ export interface CopolyError {
 //                                              (20 hazards each)
 //   one-word options (model, mode, basis, feed, kinds) 32 characters
 // fit skips the Mayo–Lewis intersection method, with a warning, above 200 runs with a conversion.
+// Every limit is also in limits(), by the names of Limits below, from one Go table
+// (copoly/project/limits.go): read them from there rather than copying the numbers.
+
+export interface Limits {
+  points: number; massConversions: number; designConversions: number;   // values in a list
+  runs: number; minRuns: number; intersectionRuns: number;              // runs of fit, nextRuns, bench tables
+  benchRows: number; cells: number; cellLength: number; labelLength: number;   // the bench grid
+  pasteBytes: number; pasteRows: number; pasteColumns: number;          // pasteBench text, a table file
+  triads: number; sizeBins: number; jcr: number; timeTable: number;     // rows and points
+  bins: number; runLength: number; seed: number;                        // counts
+  sampleChains: number; chainLength: number; simChains: number; simUnits: number; dpn: number;
+  planSteps: number; shots: number; bandSamples: number; bandWork: number;
+  fileBytes: number; nameLength: number; sourceLength: number; notesBytes: number; savedAtLength: number;
+  wordLength: number; userMonomers: number; hazards: number; hazardLength: number;   // a project
+  draftFields: number; draftBytes: number; idLength: number; keptNameLength: number;  // storage
+  linearConversion: number;     // fit warns above this conversion that the linear methods are biased (0.10)
+  triadSumTolerance: number;    // how far from 1 a family of measured triads may sum (0.01)
+}
 
 export interface Classification {
   kind: "ideal" | "alternating" | "strongly-alternating" | "block" | "homopolymer-mixture";
@@ -176,7 +216,7 @@ export interface BenchTable {
 // One run in mole fractions and molar conversion (conversion 0 or absent = low conversion).
 export interface Run { f10: number; conversion?: number; F1: number; sF?: number; sX?: number; sf?: number }
 
-export interface RunWarning { row: number; field: string; message: string }   // row −1: the whole table
+export interface RunWarning { row: number; field: string; message: string; code: ErrorCode }   // row −1: the whole table
 
 export interface BenchResult {
   columns: string[];                 // cell keys this table's forms use, in display order
@@ -234,7 +274,7 @@ export interface FitResult {
   recommended: "nonlinear" | "evm";
   swappedFinemanRoss?: { r1: number; r2: number };   // Fineman–Ross with M1/M2 swapped (label dependence)
   trends: { feed: { slope: number; pValue: number; flagged: boolean }; conversion: { slope: number; pValue: number; flagged: boolean } };
-  warnings: { method: string; row: number; field: string; message: string }[];  // a method absent from `methods` has its reason here
+  warnings: { method: string; row: number; field: string; message: string; code: ErrorCode }[];  // a method absent from `methods` has its reason here
 }
 
 export interface NextRunsResult {
@@ -428,6 +468,8 @@ export interface Copoly {
   }): PlanResult | CopolyError;
   starvedFeed(a: { r1: number; r2: number; targetF1: number; feedRate: number; rateConstant: number; molarMass1: number; molarMass2: number }): { inventory: number; f1: number } | CopolyError;
   qe(a: { monomer1: string; monomer2: string }): { r1: number; r2: number; q1: number; e1: number; q2: number; e2: number; source1: string; source2: string } | CopolyError;  // screening estimate
+  limits(a?: {}): Limits;       // every limit of the inputs, as the Go code applies them
+  parseNumber(a: { text: string; field?: string }): { value: number } | CopolyError;  // a number as typed: "0,35", "−0.5", "1,5e3", "35 %" (= 0.35); errors name field (default "number")
   loadProject(a?: { tab?: string;              // the page's name for its draft
     draft?: { savedAt: string; basedOn?: Revision; fields: { [input: string]: string } } }  // the page's own copy of its draft (the later one wins); one that does not read is ignored
   ): Promise<StorageLoad | CopolyError>;

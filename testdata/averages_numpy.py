@@ -1,8 +1,9 @@
 #!/usr/bin/python3
 """Molar-mass averages computed by numpy from the textbook definitions, on a few distributions.
 
-This script makes testdata/averages_numpy.json, the fixture copoly/averages_numpy_test.go
-compares copoly.BinAverages and copoly.SliceAverages against. It is independent of copoly: the
+This script makes testdata/averages_numpy.json, the fixture
+copoly/molarmass/averages_numpy_test.go compares molarmass.BinAverages and
+molarmass.SliceAverages (package copoly/molarmass) against. It is independent of copoly: the
 sums are numpy's.
 
 Definitions

@@ -1,8 +1,8 @@
 #!/usr/bin/python3
 """Reference reactivity-ratio fits by scipy, for the copoly estimators.
 
-This script makes testdata/fit_scipy.json, which copoly/fit_scipy_test.go compares
-copoly.FitNonlinear, copoly.FinemanRoss and copoly.KelenTudos with. It is written from the
+This script makes testdata/fit_scipy.json, which copoly/fit/fit_scipy_test.go compares
+fit.LeastSquares, fit.FinemanRoss and fit.KelenTudos (package copoly/fit) with. It is written from the
 published equations and uses only numpy and scipy numerics; it shares no code with copoly.
 
 Model (terminal model, reactivity ratios r1 = k11/k12, r2 = k22/k21)
@@ -493,7 +493,7 @@ def make():
                    % (ds["name"], nl["r1"], nl["r2"], nl["s_min"], checks["starts_at_min"],
                       checks["slsqp_vs_profile"], dt))
     doc = {
-        "comment": "Reactivity-ratio fits by scipy for copoly/fit_scipy_test.go; see "
+        "comment": "Reactivity-ratio fits by scipy for copoly/fit/fit_scipy_test.go; see "
                    "testdata/README.md and the docstring of testdata/fit_scipy.py. Run columns: "
                    "f10, X (0 = instantaneous), F1, sF (0 = none).",
         "made_by": COMMAND,

@@ -1,8 +1,8 @@
 #!/usr/bin/python3
 """Simulation by scipy of a reactor following copoly's semi-batch and shot plans.
 
-This script makes testdata/plan_scipy.json, which copoly/plan_scipy_test.go compares copoly's
-plans (copoly.MakePlan) with. It reads the plans from testdata/plan_copoly.json (written by the
+This script makes testdata/plan_scipy.json, which copoly/plan/plan_scipy_test.go compares
+copoly's plans (plan.Make, package copoly/plan) with. It reads the plans from testdata/plan_copoly.json (written by the
 Go test TestPlanScipyWrite; copoly's own output) and takes from each only what a chemist would
 carry out: the initial charge (g), the time of every schedule row (min), the pump rates over
 each row (g/min) and the shots (time, g) for the run in time; the cumulative fed masses per
@@ -100,7 +100,7 @@ Usage
 
 After a change to copoly's plans, first rewrite plan_copoly.json:
 
-    cd copoly && COPOLY_WRITE_PLANS=../testdata/plan_copoly.json go test -run TestPlanScipyWrite .
+    cd copoly/plan && COPOLY_WRITE_PLANS=../../testdata/plan_copoly.json go test -run TestPlanScipyWrite .
 """
 
 import argparse
@@ -308,7 +308,7 @@ def make(plans_bytes):
                       "max_dev_between_rows": between, "rows": rows, "rows_by_polymer": byp})
     doc = {
         "comment": "Reactor balances integrated by scipy along copoly's plans in testdata/plan_copoly.json, "
-                   "for copoly/plan_scipy_test.go; see testdata/README.md and the docstring of "
+                   "for copoly/plan/plan_scipy_test.go; see testdata/README.md and the docstring of "
                    "testdata/plan_scipy.py.",
         "made_by": COMMAND,
         "python": platform.python_version(),

@@ -11,7 +11,7 @@ This script makes two files:
   reads them back (encoding "utf-8-sig", newline=""), each cell stripped of surrounding white
   space with str.strip(), as a JSON array of rows (the header row first).
 
-copoly's ParseTable must find the same cells (header and rows together). The cell texts are
+copoly's bench.ParseBlock must find the same cells (header and rows together). The cell texts are
 synthetic, made to exercise quoting; they are not measurements.
 
 Usage

@@ -3,20 +3,25 @@
 package main
 
 import (
+	"encoding/json"
 	"fmt"
-	"strings"
 	"syscall/js"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
+	"copoly/copoly/fit"
+	"copoly/copoly/molarmass"
+	"copoly/copoly/plan"
 	"copoly/copoly/project"
 )
 
 // The methods of the copoly object, one function each, in the order of site/copoly.d.ts. Each
-// reads its argument into a fresh DTO, applies defaults, calls copoly and converts the result.
-// Input checks that need science (ranges of ratios, feeds, conversions) are left to copoly; the
-// bridge only checks what the JS form of the input adds: presence, JS types, whole numbers,
-// the "basis" word, that molar masses come in pairs, and an explicit 0 where copoly would read
-// 0 as "use the default".
+// reads its argument into a fresh DTO, applies defaults, makes one call into copoly (or one of
+// its packages) and converts the result. Every check that needs science or the vocabulary of the
+// API (ranges, words such as "basis", molar masses that come in pairs, the process data of a
+// monomer named) is copoly's; the bridge only checks what the JS form of the input adds:
+// presence, JS types, whole numbers, and an explicit 0 where copoly would read 0 as "use the
+// default".
 
 // Defaults of the optional arguments (site/copoly.d.ts).
 const (
@@ -30,8 +35,6 @@ const (
 	defaultSimSamples  = 12   // chains of a simulation returned as strings
 	defaultChainBins   = 30   // bins of a simulation's histogram
 	defaultSeed        = 1
-	defaultBandSamples = 500
-	maxSeed            = 1<<53 - 1 // the largest whole number a JS number holds exactly
 )
 
 // newAPI returns the copoly object with every method bound to st for storage.
@@ -58,11 +61,13 @@ func newAPI(st *storage) js.Value {
 		{"importProject", argRequired, importProject},
 		{"benchRuns", argRequired, benchRuns},
 		{"pasteBench", argRequired, pasteBench},
-		{"fit", argRequired, fit},
+		{"fit", argRequired, fitMethod},
 		{"nextRuns", argRequired, nextRuns},
-		{"plan", argRequired, plan},
+		{"plan", argRequired, planMethod},
 		{"starvedFeed", argRequired, starvedFeed},
 		{"qe", argRequired, qe},
+		{"limits", argOptional, limitsMethod},
+		{"parseNumber", argRequired, parseNumber},
 	} {
 		api.Set(m.name, wrap(m.name, m.policy, m.fn))
 	}
@@ -71,7 +76,7 @@ func newAPI(st *storage) js.Value {
 }
 
 // composition: F1 for each feed by the model's composition equation; for the terminal model
-// also the azeotrope and the classification (null for the other models).
+// also the azeotrope and the classification (copoly.CompositionOf).
 func composition(arg js.Value) (any, error) {
 	m, _, err := readModel(arg)
 	if err != nil {
@@ -81,27 +86,14 @@ func composition(arg js.Value) (any, error) {
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	t, terminal := m.(copoly.Terminal)
-	if !terminal {
-		F1 := make([]float64, len(in.F1))
-		for i, f := range in.F1 {
-			if !(f >= 0 && f <= 1) { // also catches NaN; the field name is built only on error
-				return nil, copoly.CheckFraction(fmt.Sprintf("f1[%d]", i), f)
-			}
-			F1[i] = m.Instantaneous(f)
-		}
-		return compositionOut{F1: F1}, nil
-	}
-	F1, err := t.InstantaneousTo(make([]float64, 0, len(in.F1)), in.F1)
+	c, err := copoly.CompositionOf(m, in.F1)
 	if err != nil {
 		return nil, err
 	}
-	out := compositionOut{F1: orEmpty(F1)}
-	if az, ok := t.Azeotrope(); ok {
-		out.Azeotrope = &az
+	out := compositionOut{F1: orEmpty(c.F1), Azeotrope: finiteOrNil(c.Azeotrope)}
+	if k := c.Classification; k != nil {
+		out.Classification = &classificationOut{Kind: k.Kind, Product: k.Product, Text: k.Text}
 	}
-	c := t.Classify()
-	out.Classification = &classificationOut{Kind: c.Kind, Product: c.Product, Text: c.Text}
 	return out, nil
 }
 
@@ -122,10 +114,9 @@ func feedFor(arg js.Value) (any, error) {
 	return feedOut{Feeds: feeds, Note: s.Note, Range: []float64{s.Min, s.Max}}, nil
 }
 
-// drift: the batch drift at each conversion (copoly.DriftOf, any model), its conversion limit
-// for the tolerance (copoly.ConversionLimitOf), the composition distribution of the polymer made
-// up to the last conversion (copoly.CompositionDistributionOf), and conversions by mass
-// (copoly.MolarConversionOf) for any model.
+// drift: the batch followed to each conversion, with its conversion limit, the composition
+// distribution of the product and the conversions on the other basis (copoly.ProfileOf, any
+// model).
 func drift(arg js.Value) (any, error) {
 	m, _, err := readModel(arg)
 	if err != nil {
@@ -135,85 +126,35 @@ func drift(arg js.Value) (any, error) {
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	if len(in.Conversion) == 0 {
-		return nil, &copoly.FieldError{Field: "conversion", Reason: "give at least one conversion", Err: copoly.ErrOutOfRange}
-	}
-	basis := "molar"
-	if in.Basis != nil {
-		basis = *in.Basis
-	}
-	if basis != "molar" && basis != "mass" {
-		return nil, &copoly.FieldError{Field: "basis", Reason: fmt.Sprintf("is %q; it must be \"molar\" or \"mass\"", basis), Err: copoly.ErrOutOfRange}
-	}
-	mm1, mm2, masses, err := molarMasses(in.MolarMass1, in.MolarMass2)
-	if err != nil {
-		return nil, err
-	}
-	if basis == "mass" && !masses {
-		return nil, &copoly.FieldError{Field: "molarMass1", Reason: "is missing: a conversion by mass needs both molar masses", Err: copoly.ErrOutOfRange}
-	}
-	tolerance := defaultTolerance
-	if in.Tolerance != nil {
-		tolerance = *in.Tolerance
-	}
 	bins, err := intIn("bins", in.Bins, defaultBins, 1, copoly.MaxBins)
 	if err != nil {
 		return nil, err
 	}
-
-	conversion := in.Conversion
-	var conversionMass []float64
-	if basis == "mass" {
-		conversionMass = in.Conversion
-		if conversion, err = copoly.MolarConversionsOf(m, in.Conversion, in.F10, mm1, mm2); err != nil {
-			// "massConversion[3]" is the caller's "conversion[3]".
-			if f := copoly.Field(err); strings.HasPrefix(f, "massConversion") {
-				return nil, renameField(err, f, "conversion"+strings.TrimPrefix(f, "massConversion"))
-			}
-			return nil, err
-		}
-	}
-	d, err := copoly.DriftOf(m, in.F10, conversion)
+	p, err := copoly.ProfileOf(copoly.ProfileInput{Model: m, F10: in.F10, Conversion: in.Conversion,
+		Basis: orText(in.Basis), MolarMass1: in.MolarMass1, MolarMass2: in.MolarMass2,
+		Tolerance: orNumber(in.Tolerance, defaultTolerance), Bins: bins})
 	if err != nil {
 		return nil, err
 	}
 	out := driftOut{
-		Conversion: d.Conversion,
-		Feed:       d.Feed,
-		Inst:       d.Inst,
-		Cum:        d.Cum,
-		Method:     d.Method,
+		Conversion: p.Conversion, ConversionMass: p.ConversionMass,
+		Feed: p.Feed, Inst: p.Inst, Cum: p.Cum, Method: p.Method,
+		Limit:        &limitOut{Tolerance: p.Tolerance, Conversion: p.Limit},
+		Distribution: &histogramOut{Edges: p.Distribution.Edges, Weights: p.Distribution.Weights, Basis: p.Distribution.Basis},
 	}
-	limit, err := copoly.ConversionLimitOf(m, in.F10, tolerance)
-	if err != nil {
-		return nil, err
-	}
-	last := len(conversion) - 1
-	h, err := copoly.CompositionDistributionOf(m, in.F10, conversion[last], bins, mm1, mm2)
-	if err != nil {
-		return nil, renameField(err, "conversion", fmt.Sprintf("conversion[%d]", last))
-	}
-	out.Limit = &limitOut{Tolerance: tolerance, Conversion: limit}
-	out.Distribution = &histogramOut{Edges: h.Edges, Weights: h.Weights, Basis: h.Basis}
-	if basis == "molar" && masses {
-		conversionMass = make([]float64, len(conversion))
-		for i, x := range conversion {
-			conversionMass[i] = copoly.MassConversion(x, in.F10, d.Feed[i], mm1, mm2)
-		}
-	}
-	out.ConversionMass = conversionMass
-	if e := d.Exhausted; e != nil {
+	if e := p.Exhausted; e != nil {
 		out.Exhausted = &exhaustedOut{Monomer: e.Monomer, Conversion: e.Conversion}
 	}
 	v := toJS(out)
-	if conversionMass == nil {
+	if p.ConversionMass == nil {
 		v.Delete("conversionMass")
 	}
 	return v, nil
 }
 
 // sequence: sequence statistics at one feed by the model's Markov chain; for the terminal model
-// also the run lengths and, when a conversion is given, the batch average.
+// also the run lengths and, when a conversion is given, the batch average
+// (copoly.MicrostructureOf).
 func sequence(arg js.Value) (any, error) {
 	m, _, err := readModel(arg)
 	if err != nil {
@@ -227,33 +168,17 @@ func sequence(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	s, err := sequenceOf(m, in.F1)
+	ms, err := copoly.MicrostructureOf(copoly.MicrostructureInput{Model: m, F1: in.F1, MaxLength: maxLength,
+		Batch: in.Conversion != nil, Conversion: orNumber(in.Conversion, 0)})
 	if err != nil {
 		return nil, err
 	}
-	v := toJS(sequenceDTO(s))
-	t, terminal := m.(copoly.Terminal)
-	if !terminal {
-		if in.Conversion != nil {
-			// Not used, but a bad value is still an error rather than ignored.
-			if err := copoly.CheckConversion("conversion", *in.Conversion); err != nil {
-				return nil, err
-			}
-		}
-		return v, nil
+	v := toJS(sequenceDTO(ms.Sequence))
+	if rl := ms.RunLengths; rl != nil {
+		v.Set("runLengths", toJS(runLengthsOut{Length: rl.Length, Number1: rl.Number1, Weight1: rl.Weight1, Number2: rl.Number2, Weight2: rl.Weight2}))
 	}
-	rl, err := t.RunLengths(in.F1, maxLength)
-	if err != nil {
-		return nil, err
-	}
-	v.Set("runLengths", toJS(runLengthsOut{Length: rl.Length, Number1: rl.Number1, Weight1: rl.Weight1, Number2: rl.Number2, Weight2: rl.Weight2}))
-	if in.Conversion != nil {
-		b, err := t.BatchSequence(in.F1, *in.Conversion)
-		if err != nil {
-			err = renameField(err, "f10", "f1")
-			return nil, renameField(err, "conversion[0]", "conversion")
-		}
-		batch := toJS(sequenceDTO(b))
+	if ms.Batch != nil {
+		batch := toJS(sequenceDTO(*ms.Batch))
 		batch.Set("conversion", *in.Conversion)
 		v.Set("batch", batch)
 	}
@@ -261,10 +186,9 @@ func sequence(arg js.Value) (any, error) {
 }
 
 // chains: without any simulation option (dpn, conversion, functional, model), sample chains of
-// the terminal model grown at a constant feed (copoly.Terminal.Chains); with one, a Monte Carlo
-// simulation (copoly.SimulateChains) with the composition of every chain, its histogram and,
-// for the terminal model at a constant feed with a dpn, Stockmayer's distribution on the same
-// bins.
+// the terminal model grown at a constant feed; with one, a Monte Carlo simulation with the
+// composition of every chain, its histogram and, for the terminal model at a constant feed with
+// a dpn, Stockmayer's distribution on the same bins (copoly.SimulateChains either way).
 func chains(arg js.Value) (any, error) {
 	m, named, err := readModel(arg)
 	if err != nil {
@@ -274,7 +198,7 @@ func chains(arg js.Value) (any, error) {
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	seed, err := intIn("seed", in.Seed, defaultSeed, 0, maxSeed)
+	seed, err := intIn("seed", in.Seed, defaultSeed, 0, project.MaxSeed)
 	if err != nil {
 		return nil, err
 	}
@@ -282,49 +206,38 @@ func chains(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	if !named && in.DPn == nil && in.Conversion == nil && in.Functional == nil {
-		count, err := intIn("count", in.Count, defaultChainCount, 1, copoly.MaxChains)
-		if err != nil {
+	opt := copoly.ChainOptions{Model: m, F10: in.F10, Seed: uint64(seed)}
+	samplesOnly := !named && in.DPn == nil && in.Conversion == nil && in.Functional == nil
+	if samplesOnly {
+		if opt.Count, err = intIn("count", in.Count, defaultChainCount, 1, copoly.MaxChains); err != nil {
 			return nil, err
 		}
-		length, err := intIn("length", in.Length, defaultChainLength, 1, copoly.MaxChainLength)
-		if err != nil {
+		if opt.Length, err = intIn("length", in.Length, defaultChainLength, 1, copoly.MaxChainLength); err != nil {
 			return nil, err
 		}
-		samples, err := m.(copoly.Terminal).Chains(in.F10, count, length, uint64(seed))
-		if err != nil {
+		opt.Samples, opt.SampleUnits = opt.Count, opt.Length
+	} else {
+		if opt.Count, err = intIn("count", in.Count, defaultSimCount, 1, copoly.MaxSimChains); err != nil {
 			return nil, err
 		}
-		return chainsOut{Samples: samples}, nil
-	}
-
-	opt := copoly.ChainOptions{Model: m, F10: in.F10, Seed: uint64(seed), Samples: defaultSimSamples}
-	if opt.Count, err = intIn("count", in.Count, defaultSimCount, 1, copoly.MaxSimChains); err != nil {
-		return nil, err
-	}
-	if opt.Length, err = intIn("length", in.Length, defaultSimLength, 1, copoly.MaxChainLength); err != nil {
-		return nil, err
-	}
-	if in.DPn != nil {
-		if *in.DPn == 0 {
+		if opt.Length, err = intIn("length", in.Length, defaultSimLength, 1, copoly.MaxChainLength); err != nil {
+			return nil, err
+		}
+		if in.DPn != nil && *in.DPn == 0 {
 			return nil, &copoly.InputError{Field: "dpn", Value: 0, Reason: "must be at least 1 (leave it out for chains of one length)", Err: copoly.ErrOutOfRange}
 		}
-		opt.DPn = *in.DPn
-	}
-	if in.Conversion != nil {
-		opt.Conversion = *in.Conversion // 0 is a constant feed, as in copoly
-	}
-	if opt.Functional, err = intIn("functional", in.Functional, 0, 1, 2); err != nil {
-		return nil, err
+		opt.DPn, opt.Conversion = orNumber(in.DPn, 0), orNumber(in.Conversion, 0) // conversion 0 is a constant feed
+		if opt.Functional, err = intIn("functional", in.Functional, 0, 1, 2); err != nil {
+			return nil, err
+		}
+		opt.Samples, opt.Bins = defaultSimSamples, bins
 	}
 	st, err := copoly.SimulateChains(opt)
 	if err != nil {
-		// A conversion past the end of the batch is named as the first of a list.
-		return nil, renameField(err, "conversion[0]", "conversion")
-	}
-	h, err := st.Histogram(bins)
-	if err != nil {
 		return nil, err
+	}
+	if samplesOnly {
+		return chainsOut{Samples: st.Samples}, nil
 	}
 	out := chainStatsOut{
 		Samples:               orNoTexts(st.Samples),
@@ -338,12 +251,8 @@ func chains(arg js.Value) (any, error) {
 		WeightMean:            st.WeightMean,
 		StockmayerVariance:    finiteOrNil(st.StockmayerVariance),
 		Units:                 st.Units,
-		Histogram:             chainHistogramOut{Edges: orEmpty(h.Edges), Weights: orEmpty(h.Weights)},
-	}
-	if t, ok := m.(copoly.Terminal); ok && opt.DPn > 0 && opt.Conversion == 0 {
-		if out.Stockmayer, err = t.Stockmayer(opt.F10, opt.DPn, h.Edges); err != nil {
-			return nil, err
-		}
+		Histogram:             chainHistogramOut{Edges: orEmpty(st.Composition.Edges), Weights: orEmpty(st.Composition.Weights)},
+		Stockmayer:            st.Stockmayer,
 	}
 	if path := nonFinite(out); path != "" {
 		return nil, fmt.Errorf("copoly: the simulation holds a value that is not a finite number (%s); it is not shown", path)
@@ -358,41 +267,20 @@ func chains(arg js.Value) (any, error) {
 }
 
 // discriminate: the terminal and the penultimate model fitted to measured compositions and
-// triads and compared (copoly.Discriminate), with each model's values at the runs' feeds.
+// triads and compared, with each model's values at the runs' feeds (project.Discriminate).
 func discriminate(arg js.Value) (any, error) {
 	var in discriminateIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
 	rows := triadRows(in.Runs)
-	if err := project.CheckTriads("runs", rows); err != nil {
-		return nil, err
-	}
-	runs := make([]copoly.TriadRun, len(rows))
-	for i, r := range rows {
-		runs[i] = r.Run()
-	}
-	d, err := copoly.Discriminate(runs)
+	d, err := project.Discriminate("runs", rows)
 	if err != nil {
 		return nil, err
 	}
-	tp, pp := d.Terminal.Params, d.Penultimate.Params
-	if len(tp) != 2 || len(pp) != 4 {
-		return nil, fmt.Errorf("copoly: the fits hold %d and %d parameters, not 2 and 4", len(tp), len(pp))
-	}
-	term := copoly.Terminal{R1: tp[0], R2: tp[1]}
-	pen := copoly.Penultimate{R11: pp[0], R21: pp[1], R22: pp[2], R12: pp[3]}
-	pred := predictedOut{Terminal: make([]triadRowOut, len(runs)), Penultimate: make([]triadRowOut, len(runs))}
-	for i, r := range runs {
-		st, err := term.Sequence(r.F10)
-		if err != nil {
-			return nil, err
-		}
-		sp, err := pen.Sequence(r.F10)
-		if err != nil {
-			return nil, err
-		}
-		pred.Terminal[i], pred.Penultimate[i] = triadRowOf(r.F10, st), triadRowOf(r.F10, sp)
+	pred := predictedOut{Terminal: make([]triadRowOut, len(rows)), Penultimate: make([]triadRowOut, len(rows))}
+	for i, r := range rows {
+		pred.Terminal[i], pred.Penultimate[i] = triadRowOf(r.F10, d.Predicted.Terminal[i]), triadRowOf(r.F10, d.Predicted.Penultimate[i])
 	}
 	out := discriminationOut{
 		Terminal:    modelFitDTO(d.Terminal),
@@ -410,47 +298,28 @@ func discriminate(arg js.Value) (any, error) {
 	return out, nil
 }
 
-// averages: the molar-mass averages of a binned distribution (copoly.BinAverages) or of
-// chromatogram slices (copoly.SliceAverages), and the degrees of polymerization
-// (copoly.SizeOf) when F1 and both molar masses are given. An empty list counts as not given.
+// averages: the molar-mass averages of a binned distribution or of chromatogram slices, and the
+// degrees of polymerization when F1 and both molar masses are given (molarmass.Summarize). An
+// empty list counts as not given.
 func averages(arg js.Value) (any, error) {
 	var in averagesIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	mm1, mm2, masses, err := molarMasses(in.MolarMass1, in.MolarMass2)
+	mi := molarmass.Input{F1: in.F1, MolarMass1: in.MolarMass1, MolarMass2: in.MolarMass2,
+		Bins: make([]molarmass.Bin, len(in.Bins)), Slices: make([]molarmass.Slice, len(in.Slices))}
+	for i, b := range in.Bins {
+		mi.Bins[i] = molarmass.Bin{Low: b.Low, High: b.High, Number: b.NumberFraction, Weight: b.WeightFraction}
+	}
+	for i, s := range in.Slices {
+		mi.Slices[i] = molarmass.Slice{Mass: s.Mass, Signal: s.Signal}
+	}
+	a, err := molarmass.Summarize(mi)
 	if err != nil {
 		return nil, err
 	}
-	var a copoly.Averages
-	switch {
-	case len(in.Bins) > 0 && len(in.Slices) > 0:
-		return nil, &copoly.FieldError{Field: "slices", Reason: "give bins or slices, not both", Err: copoly.ErrOutOfRange}
-	case len(in.Bins) > 0:
-		bins := make([]copoly.Bin, len(in.Bins))
-		for i, b := range sizeBins(in.Bins) {
-			bins[i] = b.Bin()
-		}
-		if a, err = copoly.BinAverages(bins); err != nil {
-			return nil, err
-		}
-	case len(in.Slices) > 0:
-		mass, signal := make([]float64, len(in.Slices)), make([]float64, len(in.Slices))
-		for i, s := range in.Slices {
-			mass[i], signal[i] = s.Mass, s.Signal
-		}
-		if a, err = copoly.SliceAverages(mass, signal); err != nil {
-			return nil, sliceField(err)
-		}
-	default:
-		return nil, &copoly.FieldError{Field: "bins", Reason: "is missing: give the molar-mass classes (bins) or the chromatogram slices (slices)", Err: errMissing}
-	}
 	out := averagesOut{Mn: a.Mn, Mw: a.Mw, Mz: a.Mz, Dispersity: a.Dispersity}
-	if in.F1 != nil && masses {
-		c, err := copoly.SizeOf(a, *in.F1, mm1, mm2)
-		if err != nil {
-			return nil, err
-		}
+	if c := a.Size; c != nil {
 		out.Size = &sizeOut{UnitMass: c.UnitMass, DPn: c.DPn, DPw: c.DPw, Units1: c.Units1, Units2: c.Units2}
 	}
 	if path := nonFinite(out); path != "" {
@@ -463,30 +332,13 @@ func averages(arg js.Value) (any, error) {
 	return v, nil
 }
 
-// sliceField names an error of copoly.SliceAverages the way the JS API does: "mass[3]" and
-// "signal[3]" become "slices[3].mass" and "slices[3].signal"; a field about the table as a
-// whole ("mass", "signal", "bins") becomes "slices".
-func sliceField(err error) error {
-	f := copoly.Field(err)
-	for _, key := range []string{"mass", "signal"} {
-		if rest, ok := strings.CutPrefix(f, key+"["); ok && strings.HasSuffix(rest, "]") {
-			return renameField(err, f, "slices["+rest+"."+key)
-		}
-	}
-	switch f {
-	case "mass", "signal", "bins":
-		return renameField(err, f, "slices")
-	}
-	return err
-}
-
 // library: the built-in monomers and literature ratio pairs, and the table of sources they cite.
 func library(js.Value) (any, error) {
-	ms, ps, ss := copoly.Monomers(), copoly.Pairs(), copoly.Sources()
+	ms, ps, ss := copoly.Library()
 	out := libraryOut{Monomers: make([]monomerOut, len(ms)), Pairs: make([]pairOut, len(ps)), Sources: make([]sourceOut, len(ss))}
 	for i, m := range ms {
 		o := monomerOut{Name: m.Name, Formula: m.Formula, MolarMass: m.MolarMass, Source: m.Source, SourceID: m.SourceID, Hazards: []string{}}
-		if pr, ok := copoly.PropertiesOf(m.Name); ok {
+		if pr := m.Properties; pr != nil {
 			o.State, o.Density, o.DensityTemp = pr.State, pr.Density, pr.DensityTemp
 			o.DensitySource, o.DensitySourceID = pr.DensitySource, pr.DensitySourceID
 			o.Heat, o.HeatSource, o.HeatSourceID = pr.HeatOfPolymerization, pr.HeatSource, pr.HeatSourceID
@@ -499,7 +351,7 @@ func library(js.Value) (any, error) {
 			o.Hydroxyl, o.Acid, o.AcidTotal = pr.Hydroxyl, pr.Acid, pr.AcidTotal
 			o.GroupsSource, o.GroupsSourceID = pr.GroupsSource, pr.GroupsSourceID
 		}
-		if q, ok := copoly.QEOf(m.Name); ok {
+		if q := m.QE; q != nil {
 			o.Q, o.E, o.QESource, o.QESourceID = &q.Q, &q.E, q.Source, q.SourceID
 		}
 		out.Monomers[i] = o
@@ -515,7 +367,7 @@ func library(js.Value) (any, error) {
 
 // demoProject: the invented demo scenario.
 func demoProject(js.Value) (any, error) {
-	return projectResult(project.Demo()), nil
+	return projectResult(project.Demo())
 }
 
 // exampleProject: a published example project by name (project.Example).
@@ -528,7 +380,7 @@ func exampleProject(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	return projectResult(p), nil
+	return projectResult(p)
 }
 
 // checkProject: the project as validated, or the first invalid field.
@@ -537,22 +389,22 @@ func checkProject(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	return projectResult(p), nil
+	return projectResult(p)
 }
 
-// exportProject: the project file text and a file name to save it under.
+// exportProject: the project file text and a file name to save it under (project.Export).
 func exportProject(arg js.Value) (any, error) {
 	p, err := readProject(arg)
 	if err != nil {
 		return nil, err
 	}
-	data, err := project.Marshal(p)
+	data, name, err := project.Export(p)
 	if err != nil {
 		return nil, err
 	}
 	out := object.New()
 	out.Set("json", string(data))
-	out.Set("filename", project.Filename(p.Name))
+	out.Set("filename", name)
 	return out, nil
 }
 
@@ -567,92 +419,82 @@ func importProject(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	return projectResult(p), nil
+	return projectResult(p)
 }
 
 // benchRuns: the runs of a bench table in mole fractions and molar conversion, with an error
-// for each bad row and the data warnings.
+// for each bad row and the data warnings (project.Bench.Runs).
 func benchRuns(arg js.Value) (any, error) {
+	b, err := readBench(arg)
+	if err != nil {
+		return nil, err
+	}
 	var in benchRunsIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	b, err := in.Bench.bench("bench")
+	r, err := b.Runs("bench", orNumber(in.MolarMass1, 0), orNumber(in.MolarMass2, 0)) // 0: not given
 	if err != nil {
 		return nil, err
 	}
-	var mm [2]float64 // 0 = not given; only the forms that weigh need them
-	for i, v := range []*float64{in.MolarMass1, in.MolarMass2} {
-		if v != nil && *v != 0 {
-			if err := copoly.CheckMolarMass(fmt.Sprintf("molarMass%d", i+1), *v); err != nil {
-				return nil, err
-			}
-			mm[i] = *v
-		}
-	}
-	t := b.Table()
-	runs, ok, errs, warnings := t.Runs(mm[0], mm[1])
 	rs, es := array.New(), array.New()
-	for i := range runs {
+	for i := range r.Runs {
 		rs.SetIndex(i, js.Null())
-		if ok[i] {
-			rs.SetIndex(i, toJS(runOut(runs[i])))
+		if r.OK[i] {
+			rs.SetIndex(i, toJS(runOut(r.Runs[i])))
 		}
 		es.SetIndex(i, js.Null())
-		if errs[i] != nil {
-			es.SetIndex(i, errorValue(errs[i]))
+		if r.Errors[i] != nil {
+			es.SetIndex(i, errorValue(r.Errors[i]))
 		}
 	}
-	ws := make([]runWarningOut, len(warnings))
-	for i, w := range warnings {
-		ws[i] = runWarningOut{Row: w.Row, Field: w.Field, Message: w.Message}
+	ws := make([]runWarningOut, len(r.Warnings))
+	for i, w := range r.Warnings {
+		ws[i] = runWarningOut{Row: w.Row, Field: w.Field, Message: w.Message, Code: w.Code}
 	}
 	out := object.New()
-	out.Set("columns", toJS(t.Columns()))
+	out.Set("columns", toJS(r.Columns))
 	out.Set("runs", rs)
 	out.Set("errors", es)
 	out.Set("warnings", toJS(ws))
 	return out, nil
 }
 
-// pasteBench: the bench table with the rows of a pasted block appended. The paste works on a
-// copy, so a block that cannot be read changes nothing: the error names the field "paste".
+// pasteBench: the bench table with the rows of a pasted block appended (project.Bench.Paste). A
+// block that cannot be read changes nothing: the error names the field "paste".
 func pasteBench(arg js.Value) (any, error) {
+	b, err := readBench(arg)
+	if err != nil {
+		return nil, err
+	}
 	var in pasteBenchIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	b, err := in.Bench.bench("bench")
+	pasted, err := b.Paste("bench", in.Text)
 	if err != nil {
 		return nil, err
 	}
-	t := b.Table()
-	if err := t.Paste(in.Text); err != nil {
-		return nil, pasteError(err)
-	}
-	pasted := project.BenchOf(t)
-	// A pasted cell or label can be longer than a project keeps; refuse it here rather than
-	// hand the page a table it cannot save.
-	if err := project.CheckBench("bench", pasted); err != nil {
-		return nil, &copoly.FieldError{Field: "paste", Reason: "the pasted rows cannot be kept: " + err.Error(), Err: err}
+	data, err := json.Marshal(pasted)
+	if err != nil {
+		return nil, err
 	}
 	out := object.New()
-	out.Set("bench", benchValue(pasted))
+	out.Set("bench", fromJSON(data))
 	return out, nil
 }
 
-// pasteError names the field "paste" in an error of BenchTable.Paste (ParseTable names its
-// errors "table").
-func pasteError(err error) error {
-	err = renameField(err, "table", "paste")
-	if copoly.Field(err) != "paste" {
-		return &copoly.FieldError{Field: "paste", Reason: err.Error(), Err: err}
+// readBench reads the {bench} argument with the project file's reader (project.ParseBench).
+func readBench(arg js.Value) (project.Bench, error) {
+	data, err := readJSON(arg, "bench")
+	if err != nil {
+		return project.Bench{}, err
 	}
-	return err
+	return project.ParseBench("bench", data)
 }
 
 // fit: every estimation method on the runs, with the recommended one and the warnings.
-func fit(arg js.Value) (any, error) {
+func fitMethod(arg js.Value) (any, error) {
 	var in fitIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
@@ -665,7 +507,7 @@ func fit(arg js.Value) (any, error) {
 	if in.Level != nil {
 		level = *in.Level
 	}
-	e, err := copoly.Estimate(runs, level)
+	e, err := fit.Estimate(runs, level)
 	if err != nil {
 		return nil, err
 	}
@@ -677,13 +519,13 @@ func fit(arg js.Value) (any, error) {
 // that is not finite, where the d.ts promises one, is left out with a warning of its own;
 // copoly's +Inf standard errors and NaN correlation of a singular fit are the one expected
 // case and become null instead. curves adds the Mayo–Lewis curves.
-func fitValue(e *copoly.Estimates, curves bool) js.Value {
+func fitValue(e *fit.Estimates, curves bool) js.Value {
 	warnings := make([]warningOut, len(e.Warnings))
 	for i, w := range e.Warnings {
-		warnings[i] = warningOut{Method: w.Method, Row: w.Row, Field: w.Field, Message: w.Message}
+		warnings[i] = warningOut{Method: w.Method, Row: w.Row, Field: w.Field, Message: w.Message, Code: w.Code}
 	}
 	notFinite := func(method, path string) {
-		warnings = append(warnings, warningOut{Method: method, Row: -1, Message: fmt.Sprintf("%s gave a value that is not a finite number (%s); it is not shown", method, path)})
+		warnings = append(warnings, warningOut{Method: method, Row: -1, Code: copoly.CodeNotShown, Message: fmt.Sprintf("%s gave a value that is not a finite number (%s); it is not shown", method, path)})
 	}
 	methods := object.New()
 	add := func(name string, dto any, drop ...string) {
@@ -699,13 +541,13 @@ func fitValue(e *copoly.Estimates, curves bool) js.Value {
 	}
 	for _, l := range []struct {
 		name  string
-		fit   *copoly.Linear
+		fit   *fit.Linear
 		alpha bool
 	}{
-		{copoly.MethodFinemanRoss, e.FinemanRoss, false},
-		{copoly.MethodInvertedFinemanRoss, e.InvertedFinemanRoss, false},
-		{copoly.MethodKelenTudos, e.KelenTudos, true},
-		{copoly.MethodExtendedKelenTudos, e.ExtendedKelenTudos, true},
+		{fit.MethodFinemanRoss, e.FinemanRoss, false},
+		{fit.MethodInvertedFinemanRoss, e.InvertedFinemanRoss, false},
+		{fit.MethodKelenTudos, e.KelenTudos, true},
+		{fit.MethodExtendedKelenTudos, e.ExtendedKelenTudos, true},
 	} {
 		if l.fit == nil {
 			continue
@@ -718,26 +560,26 @@ func fitValue(e *copoly.Estimates, curves bool) js.Value {
 	}
 	if e.MayoLewis != nil {
 		if curves {
-			add(copoly.MethodMayoLewis, mayoLewisDTO(e.MayoLewis, true))
+			add(fit.MethodMayoLewis, mayoLewisDTO(e.MayoLewis, true))
 		} else {
-			add(copoly.MethodMayoLewis, mayoLewisDTO(e.MayoLewis, false), "curves")
+			add(fit.MethodMayoLewis, mayoLewisDTO(e.MayoLewis, false), "curves")
 		}
 	}
 	if n := e.Nonlinear; n != nil {
 		if n.Weighted {
-			add(copoly.MethodNonlinear, nonlinearDTO(n))
+			add(fit.MethodNonlinear, nonlinearDTO(n))
 		} else {
-			add(copoly.MethodNonlinear, nonlinearDTO(n), "reducedChi2", "pValue", "sigma")
+			add(fit.MethodNonlinear, nonlinearDTO(n), "reducedChi2", "pValue", "sigma")
 		}
 	}
 	if e.EVM != nil {
-		add(copoly.MethodEVM, evmDTO(e.EVM))
+		add(fit.MethodEVM, evmDTO(e.EVM))
 	}
 	recommended := e.Recommended
-	if recommended == copoly.MethodEVM && methods.Get(copoly.MethodEVM).IsUndefined() {
-		recommended = copoly.MethodNonlinear
+	if recommended == fit.MethodEVM && methods.Get(fit.MethodEVM).IsUndefined() {
+		recommended = fit.MethodNonlinear
 	}
-	trend := func(name string, t copoly.Trend) trendOut {
+	trend := func(name string, t fit.Trend) trendOut {
 		out := trendOut{Slope: t.Slope, PValue: t.PValue, Flagged: t.Flagged}
 		if p := nonFinite(out); p != "" {
 			notFinite(name, p)
@@ -773,7 +615,7 @@ func nextRuns(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	d, err := copoly.NextRuns(in.R1, in.R2, made, in.Conversions)
+	d, err := fit.NextRuns(in.R1, in.R2, made, in.Conversions)
 	if err != nil {
 		return nil, err
 	}
@@ -790,12 +632,11 @@ func nextRuns(arg js.Value) (any, error) {
 	return out, nil
 }
 
-// plan: a recipe and schedule for a target copolymer composition (copoly.MakePlan), with the
-// safety figures and, when the joint confidence region of the ratios is given, the band of
-// outcomes over it (copoly.PlanBand). Monomers named as in the built-in list lend their heats of
-// polymerization (unless heat1 or heat2 is given), their densities for the volumes of the charge
-// and their hazard classes. An empty jcr (or timeTable) counts as not given.
-func plan(arg js.Value) (any, error) {
+// planMethod (plan): a recipe and schedule for a target copolymer composition, with the safety
+// figures, the process data of the monomers named and, when the joint confidence region of the
+// ratios is given, the band of outcomes over it (plan.Make). An empty jcr (or timeTable) counts
+// as not given.
+func planMethod(arg js.Value) (any, error) {
 	var in planIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
@@ -804,55 +645,19 @@ func plan(arg js.Value) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	samples, err := intIn("samples", in.Samples, defaultBandSamples, 1, copoly.MaxBandSamples)
+	p, err := plan.Make(pi)
 	if err != nil {
 		return nil, err
 	}
-	seed, err := intIn("seed", in.Seed, defaultSeed, 0, maxSeed)
-	if err != nil {
-		return nil, err
-	}
-	var lib [2]*copoly.Properties // process data of monomer1 and monomer2, nil when not built in
-	var hazards []hazardsOut
-	var notes []string
-	for i, name := range []*string{in.Monomer1, in.Monomer2} {
-		if name == nil || *name == "" {
-			continue
-		}
-		pr, ok := copoly.PropertiesOf(*name)
-		if !ok {
-			notes = append(notes, fmt.Sprintf("monomer%d %q is not in the built-in list: no density, heat of polymerization or hazards were taken for it.", i+1, *name))
-			continue
-		}
-		lib[i] = &pr
-		hazards = append(hazards, hazardsOut{Monomer: *name, Hazards: orNoTexts(pr.Hazards)})
-	}
-	if in.Heat1 == nil && lib[0] != nil {
-		pi.Heat1 = lib[0].HeatOfPolymerization
-	}
-	if in.Heat2 == nil && lib[1] != nil {
-		pi.Heat2 = lib[1].HeatOfPolymerization
-	}
+	return planValue(p)
+}
 
-	p, err := copoly.MakePlan(pi)
-	if err != nil {
-		return nil, err
-	}
-	out := planDTO(p, millilitres(p.Charge1, lib[0]), millilitres(p.Charge2, lib[1]), hazards)
-	out.Notes = append(out.Notes, notes...)
-	if len(in.JCR) > 0 {
-		region := make([][2]float64, len(in.JCR))
-		for i, pt := range in.JCR {
-			region[i] = [2]float64{pt[0], pt[1]} // decode read each point as a pair
-		}
-		b, err := copoly.PlanBand(pi, p, region, samples, uint64(seed))
-		if err != nil {
-			return nil, err
-		}
-		out.Band = bandDTO(b)
-	}
+// planValue converts a plan to the PlanResult of the d.ts, or refuses one holding a number that
+// is not finite where the d.ts promises one.
+func planValue(p *plan.Recipe) (js.Value, error) {
+	out := planDTO(p)
 	if path := nonFinite(out); path != "" {
-		return nil, fmt.Errorf("copoly: the plan holds a value that is not a finite number (%s); it is not shown", path)
+		return js.Value{}, fmt.Errorf("copoly: the plan holds a value that is not a finite number (%s); it is not shown", path)
 	}
 	v := toJS(out)
 	if out.Band == nil {
@@ -865,11 +670,13 @@ func plan(arg js.Value) (any, error) {
 // default. A 0 given on purpose for an option whose 0 copoly reads as "use the default" is
 // refused rather than silently replaced; where the d.ts gives 0 a meaning (shots, heats, batch
 // mass, rate constant, half-life) it is passed on.
-func (in planIn) planInput() (copoly.PlanInput, error) {
-	pi := copoly.PlanInput{
+func (in planIn) planInput() (plan.Input, error) {
+	pi := plan.Input{
 		Model:    copoly.Terminal{R1: in.R1, R2: in.R2},
 		TargetF1: in.TargetF1, MolarMass1: in.MolarMass1, MolarMass2: in.MolarMass2,
 		PolymerMass: in.PolymerMass, Mode: in.Mode,
+		Monomer1: orText(in.Monomer1), Monomer2: orText(in.Monomer2),
+		Heat1: in.Heat1, Heat2: in.Heat2, // nil: the library's, for a monomer named
 	}
 	for _, o := range []struct {
 		field string
@@ -883,8 +690,6 @@ func (in planIn) planInput() (copoly.PlanInput, error) {
 		{"feedF1", in.FeedF1, &pi.FeedF1, "must be above 0 (leave it out for a stream at the target composition; for M2 alone use the feed \"faster\")"},
 		{"rateConstant", in.RateConstant, &pi.RateConstant, ""},
 		{"halfLife", in.HalfLife, &pi.HalfLife, ""},
-		{"heat1", in.Heat1, &pi.Heat1, ""},
-		{"heat2", in.Heat2, &pi.Heat2, ""},
 		{"batchMass", in.BatchMass, &pi.BatchMass, ""},
 		{"heatCapacity", in.HeatCapacity, &pi.HeatCapacity, "must be above 0, in J/(g·K) (leave it out for the default 2.0)"},
 		{"riseLimit", in.RiseLimit, &pi.RiseLimit, "must be above 0, in K (leave it out for the default 50)"},
@@ -893,40 +698,44 @@ func (in planIn) planInput() (copoly.PlanInput, error) {
 			continue
 		}
 		if *o.v == 0 && o.zero != "" {
-			return copoly.PlanInput{}, &copoly.InputError{Field: o.field, Value: 0, Reason: o.zero, Err: copoly.ErrOutOfRange}
+			return plan.Input{}, &copoly.InputError{Field: o.field, Value: 0, Reason: o.zero, Err: copoly.ErrOutOfRange}
 		}
 		*o.dst = *o.v
 	}
 	if in.Feed != nil {
 		pi.Feed = *in.Feed // "" is copoly's default, "faster"
 	}
-	shots, err := intIn("shots", in.Shots, 0, 0, copoly.MaxShots)
+	shots, err := intIn("shots", in.Shots, 0, 0, plan.MaxShots)
 	if err != nil {
-		return copoly.PlanInput{}, err
+		return plan.Input{}, err
 	}
-	steps, err := intIn("steps", in.Steps, 0, 1, copoly.MaxPlanSteps)
+	steps, err := intIn("steps", in.Steps, 0, 1, plan.MaxSteps)
 	if err != nil {
-		return copoly.PlanInput{}, err
+		return plan.Input{}, err
 	}
-	pi.Shots, pi.Steps = shots, steps
-	if len(in.TimeTable) > 0 {
-		pi.TimeTable = make([][2]float64, len(in.TimeTable))
-		for i, row := range in.TimeTable {
-			pi.TimeTable[i] = [2]float64{row[0], row[1]} // decode read each row as a pair
-		}
+	samples, err := intIn("samples", in.Samples, 0, 1, plan.MaxBandSamples) // 0: plan's default
+	if err != nil {
+		return plan.Input{}, err
 	}
+	seed, err := intIn("seed", in.Seed, defaultSeed, 0, project.MaxSeed)
+	if err != nil {
+		return plan.Input{}, err
+	}
+	pi.Shots, pi.Steps, pi.Samples, pi.Seed = shots, steps, samples, uint64(seed)
+	pi.TimeTable, pi.Region = pairs(in.TimeTable), pairs(in.JCR)
 	return pi, nil
 }
 
-// millilitres is a unit conversion: the volume in mL of mass g of a built-in monomer at its
-// library density, or nil when the monomer is not built in, is not a liquid at room
-// temperature, or has no density.
-func millilitres(mass float64, pr *copoly.Properties) *float64 {
-	if pr == nil || pr.State != copoly.StateLiquid || !(pr.Density > 0) {
+// pairs returns lists decode read as pairs as [2]float64 values; an empty list is none (nil).
+func pairs(rows [][]float64) [][2]float64 {
+	if len(rows) == 0 {
 		return nil
 	}
-	v := mass / pr.Density
-	return &v
+	out := make([][2]float64, len(rows))
+	for i, r := range rows {
+		out[i] = [2]float64{r[0], r[1]}
+	}
+	return out
 }
 
 // starvedFeed: the unreacted inventory of a starved feed at the quasi-steady state.
@@ -935,63 +744,79 @@ func starvedFeed(arg js.Value) (any, error) {
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	inv, f1, err := copoly.Terminal{R1: in.R1, R2: in.R2}.StarvedFeed(in.TargetF1, in.FeedRate, in.RateConstant, in.MolarMass1, in.MolarMass2)
+	inv, f1, err := plan.StarvedFeed(copoly.Terminal{R1: in.R1, R2: in.R2}, in.TargetF1, in.FeedRate, in.RateConstant, in.MolarMass1, in.MolarMass2)
 	if err != nil {
 		return nil, err
 	}
 	return starvedFeedOut{Inventory: inv, F1: f1}, nil
 }
 
-// qe: the screening estimate of the ratios from the built-in Q–e values of two monomers.
+// qe: the screening estimate of the ratios from the built-in Q–e values of two monomers
+// (copoly.QEPairOf).
 func qe(arg js.Value) (any, error) {
 	var in qeIn
 	if err := decode(arg, &in, ""); err != nil {
 		return nil, err
 	}
-	var q [2]copoly.QE
-	for i, name := range []string{in.Monomer1, in.Monomer2} {
-		v, ok := copoly.QEOf(name)
-		if !ok {
-			return nil, &copoly.FieldError{Field: fmt.Sprintf("monomer%d", i+1), Reason: fmt.Sprintf("%q has no built-in Q–e values; those with values are %s", name, qeNames()), Err: copoly.ErrOutOfRange}
-		}
-		q[i] = v
-	}
-	r1, r2, err := copoly.RatiosFromQE(q[0], q[1])
+	q, err := copoly.QEPairOf(in.Monomer1, in.Monomer2)
 	if err != nil {
 		return nil, err
 	}
-	return qeOut{R1: r1, R2: r2, Q1: q[0].Q, E1: q[0].E, Q2: q[1].Q, E2: q[1].E, Source1: q[0].Source, Source2: q[1].Source}, nil
+	return qeOut{R1: q.R1, R2: q.R2, Q1: q.Monomer1.Q, E1: q.Monomer1.E, Q2: q.Monomer2.Q, E2: q.Monomer2.E, Source1: q.Monomer1.Source, Source2: q.Monomer2.Source}, nil
 }
 
-// qeNames lists the built-in monomers that have Q–e values, for an error message.
-func qeNames() string {
-	var names []string
-	for _, m := range copoly.Monomers() {
-		if _, ok := copoly.QEOf(m.Name); ok {
-			names = append(names, fmt.Sprintf("%q", m.Name))
-		}
-	}
-	if len(names) == 0 {
-		return "none"
-	}
-	return strings.Join(names, ", ")
-}
-
-// readProject reads and validates the {project} argument.
+// readProject reads and validates the {project} argument, as JSON text, with project.Parse.
 func readProject(arg js.Value) (project.Project, error) {
-	var in projectIn
-	if err := decode(arg, &in, ""); err != nil {
-		return project.Project{}, err
-	}
-	p, err := in.Project.project()
+	data, err := readJSON(arg, "project")
 	if err != nil {
 		return project.Project{}, err
 	}
-	return p, nil
+	return project.Parse(data)
 }
 
-func projectResult(p project.Project) js.Value {
+// projectValue returns p as the Project of the d.ts: its file text (project.Marshal) read by
+// JSON.parse.
+func projectValue(p project.Project) (js.Value, error) {
+	data, err := project.Marshal(p)
+	if err != nil {
+		return js.Value{}, err
+	}
+	return fromJSON(data), nil
+}
+
+// projectResult is {project}.
+func projectResult(p project.Project) (any, error) {
+	v, err := projectValue(p)
+	if err != nil {
+		return nil, err
+	}
 	out := object.New()
-	out.Set("project", projectValue(p))
-	return out
+	out.Set("project", v)
+	return out, nil
+}
+
+// limitsMethod (limits): every limit of the inputs, by name (project.Limits): one object the
+// page sizes its inputs and messages from.
+func limitsMethod(js.Value) (any, error) {
+	out := object.New()
+	for _, l := range project.Limits() {
+		out.Set(l.Name, l.Value)
+	}
+	return out, nil
+}
+
+// parseNumber: a number as a person types it or a spreadsheet writes it (bench.ParseCell: a
+// decimal comma, a Unicode minus, "35 %"), with errors naming field ("number" when not given).
+func parseNumber(arg js.Value) (any, error) {
+	var in parseNumberIn
+	if err := decode(arg, &in, ""); err != nil {
+		return nil, err
+	}
+	v, err := bench.ParseCell(orText(in.Field, "number"), in.Text)
+	if err != nil {
+		return nil, err
+	}
+	out := object.New()
+	out.Set("value", v)
+	return out, nil
 }

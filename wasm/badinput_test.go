@@ -5,7 +5,7 @@ package main
 // The bad-input sweep. Every method of the copoly object is called with a table of bad inputs
 // (wrong JS types, null and absent values, NaN and infinities, values out of range, huge arrays
 // and counts, texts of ten million characters, deep and cyclic junk, arguments that are not an
-// object) and must answer each with a plain {error, field} object whose field is the input as
+// object) and must answer each with a plain {error, field, code, reason, value?, row?} object whose field is the input as
 // the caller wrote it and whose message names that field and the bad value, without throwing.
 // After the sweep the module must still answer a valid call correctly, and the Go heap must
 // hold no more than before, give or take a generous margin. Nothing here is timed.
@@ -220,7 +220,7 @@ func projectFields(prefix string) []sweepField {
 		f("bench.elementCount", kNumber, true, badNegative...),
 		f("bench.element", kText, true),
 		f("level", kNumber, true, badValue{expr: `1.5`, text: "1.5"}, badValue{expr: `-0.5`, text: "-0.5"}),
-		f("jcr", kPairs, true, badValue{expr: `[[NaN, 1]]`, sub: "[0]", text: "NaN"}, badValue{expr: `[[-1, 1]]`, sub: "[0]", text: "-1"},
+		f("jcr", kPairs, true, badValue{expr: `[[NaN, 1]]`, sub: "[0][0]", text: "NaN"}, badValue{expr: `[[-1, 1]]`, sub: "[0][0]", text: "-1"},
 			badValue{expr: `new Array(4097).fill([1, 1])`, text: "4097"}),
 		f("model", kObject, true),
 		f("model.kind", kText, false, badValue{expr: `"quadratic"`, text: `"quadratic"`}),
@@ -280,9 +280,8 @@ func otherModels(rest string) []sweepBase {
 	}
 }
 
-// sweepMethods are the 26 methods of site/copoly.d.ts with valid arguments and their fields.
-// The fit and triad arguments are made by fitRuns and triadSet (fit_test.go,
-// discriminate_test.go); "project" is the demo project with every optional part filled in.
+// sweepMethods are the 28 methods of site/copoly.d.ts with valid arguments and their fields.
+// The fit and triad arguments are made by fitRuns and triadSet (results_test.go); "project" is the demo project with every optional part filled in.
 func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 	projectArg := `{project: project}`
 	return []sweepMethod{
@@ -488,6 +487,15 @@ func sweepMethods(fitRunsJSON, triadsJSON string) []sweepMethod {
 			{path: "monomer1", kind: kText, extra: []badValue{{expr: `"unobtainium"`, text: `"unobtainium"`}}},
 			{path: "monomer2", kind: kText, extra: []badValue{{expr: `""`, text: `""`}}},
 		}}}},
+		{name: "limits", optional: true},
+		{name: "parseNumber", first: "text", bases: []sweepBase{{arg: `{text: "0,35", field: "runs[0].f10"}`, fields: []sweepField{
+			{path: "text", kind: kText, extra: []badValue{
+				{expr: `"abc"`, field: "runs[0].f10", text: `"abc"`},
+				{expr: `"1,234.5"`, field: "runs[0].f10", text: "both a comma and a point"},
+				{expr: `"x".repeat(401)`, text: "401"},
+			}},
+			{path: "field", kind: kText, optional: true},
+		}}}},
 		{name: "loadProject", async: true, optional: true, bases: []sweepBase{{arg: `{tab: "sweep-tab"}`, fields: []sweepField{
 			{path: "tab", kind: kText, optional: true},
 		}}}},
@@ -540,7 +548,8 @@ var sweepJS = jsEval(`{
 	},
 	isError(v) {
 		return v !== null && typeof v === "object" && Object.getPrototypeOf(v) === Object.prototype &&
-			Object.keys(v).sort().join() === "error,field" && typeof v.error === "string" && typeof v.field === "string";
+			["code,error,field,reason", "code,error,field,reason,value", "code,error,field,reason,row", "code,error,field,reason,row,value"]
+				.includes(Object.keys(v).sort().join()) && typeof v.error === "string" && typeof v.field === "string";
 	},
 	at(v, path) {
 		for (const k of path.match(/[^.[\]]+/g)) v = v == null ? undefined : v[k];
@@ -584,12 +593,12 @@ func (s *sweep) call(t *testing.T, m sweepMethod, name string, args ...any) js.V
 	return v
 }
 
-// wantBad checks that v is a plain {error, field} for field whose message names the field and
-// holds text.
+// wantBad checks that v is a plain {error, field, code, reason, value?, row?} for field whose
+// message names the field and holds text, with its parts (wantParts).
 func wantBad(t *testing.T, v js.Value, field, text string) {
 	t.Helper()
 	if !sweepJS.Call("isError", v).Bool() {
-		t.Fatalf("got %.300s, want a plain {error, field} object for %s", stringify(v), field)
+		t.Fatalf("got %.300s, want a plain {error, field, code, reason, value?, row?} object for %s", stringify(v), field)
 	}
 	msg, got := v.Get("error").String(), v.Get("field").String()
 	if got != field {
@@ -598,6 +607,7 @@ func wantBad(t *testing.T, v js.Value, field, text string) {
 	if msg == "" || !strings.Contains(msg, field) || !strings.Contains(msg, text) {
 		t.Errorf("error %.300q does not name the field %q and the value (%q)", msg, field, text)
 	}
+	wantParts(t, v)
 }
 
 func TestBadInputSweep(t *testing.T) {
@@ -644,7 +654,7 @@ func TestBadInputSweep(t *testing.T) {
 			got = append(got, k)
 		}
 	}
-	if len(names) != 26 || !reflect.DeepEqual(got, names) {
+	if len(names) != 28 || !reflect.DeepEqual(got, names) {
 		t.Fatalf("the sweep covers %d methods %v; the copoly object has %v", len(names), names, got)
 	}
 
@@ -845,7 +855,7 @@ func (s *sweep) sweepField(t *testing.T, m sweepMethod, base js.Value, f sweepFi
 func TestDecodeLimits(t *testing.T) {
 	types := map[string]reflect.Type{}
 	for _, v := range []any{modelIn{}, compositionIn{}, feedIn{}, driftIn{}, sequenceIn{}, chainsIn{}, discriminateIn{},
-		averagesIn{}, importIn{}, benchRunsIn{}, pasteBenchIn{}, fitIn{}, nextRunsIn{}, planIn{}, starvedFeedIn{}, qeIn{}, projectIn{}, exampleIn{}} {
+		averagesIn{}, importIn{}, benchRunsIn{}, pasteBenchIn{}, fitIn{}, nextRunsIn{}, planIn{}, starvedFeedIn{}, qeIn{}, parseNumberIn{}, exampleIn{}} {
 		types[reflect.TypeOf(v).Name()] = reflect.TypeOf(v)
 	}
 	decoded := regexp.MustCompile(`var in (\w+)\n\s*if err := decode\(`)

@@ -15,7 +15,7 @@ import (
 // The export wrapper. Every method of the copoly object is a function of its one argument
 // object that returns a Go value (a DTO or a ready js.Value) or an error. The adapters below
 // check the argument count and type, convert the result with vert, turn an error into
-// {error, field}, and recover from any panic so that no input can stop the module: a Go panic
+// {error, field, code, reason, value?, row?} (copoly.PartsOf), and recover from any panic so that no input can stop the module: a Go panic
 // that reached JavaScript would end the program for the life of the page.
 
 // syncExport is the body of a synchronous method.
@@ -58,7 +58,7 @@ func wrap(name string, policy argPolicy, fn syncExport) js.Func {
 }
 
 // wrapAsync returns the JS function for a method that returns a Promise. The Promise always
-// resolves, to the result or to an {error, field} object; it never rejects. The executor
+// resolves, to the result or to an error object; it never rejects. The executor
 // js.Func is made per call and released once the Promise constructor has run it.
 func wrapAsync(name string, policy argPolicy, fn asyncExport) js.Func {
 	return js.FuncOf(func(_ js.Value, args []js.Value) (result any) {
@@ -115,17 +115,17 @@ func resolved(v js.Value) js.Value { return promise.Call("resolve", v) }
 // whose argument is optional and was left out.
 func oneArgument(args []js.Value, policy argPolicy) (js.Value, error) {
 	if len(args) > 1 {
-		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: fmt.Sprintf("expected one object, got %d arguments", len(args)), Err: errWrongType}
+		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: fmt.Sprintf("expected one object, got %d arguments", len(args)), Err: copoly.ErrWrongType}
 	}
 	if len(args) == 0 || args[0].IsUndefined() {
 		if policy == argOptional {
 			return object.New(), nil
 		}
-		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: "expected one object with the inputs, got nothing", Err: errMissing}
+		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: "expected one object with the inputs, got nothing", Err: copoly.ErrMissing}
 	}
 	a := args[0]
 	if t, ok := typeOf(a); !ok || t != js.TypeObject || isArray(a) {
-		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: "expected one object with the inputs, got " + describe(a), Err: errWrongType}
+		return js.Value{}, &copoly.FieldError{Field: "arguments", Reason: "expected one object with the inputs, got " + describe(a), Err: copoly.ErrWrongType}
 	}
 	return a, nil
 }
@@ -138,12 +138,21 @@ func toJS(out any) js.Value {
 	return vert.ValueOf(out).JSValue()
 }
 
-// errorValue is the CopolyError object of the d.ts: {error, field}. field is "" when the
-// error names no input.
+// errorValue is the CopolyError object of the d.ts, the parts of err (copoly.PartsOf):
+// {error, field, code, reason, value?, row?}. field is "" when the error names no input.
 func errorValue(err error) js.Value {
+	p := copoly.PartsOf(err)
 	v := object.New()
-	v.Set("error", err.Error())
-	v.Set("field", copoly.Field(err))
+	v.Set("error", p.Message)
+	v.Set("field", p.Field)
+	v.Set("code", p.Code)
+	v.Set("reason", p.Reason)
+	if p.HasValue {
+		v.Set("value", p.Value)
+	}
+	if p.HasRow {
+		v.Set("row", p.Row)
+	}
 	return v
 }
 
@@ -157,5 +166,7 @@ func panicValue(name string, r any) js.Value {
 	v := object.New()
 	v.Set("error", msg)
 	v.Set("field", "")
+	v.Set("code", copoly.CodeInternal)
+	v.Set("reason", msg)
 	return v
 }

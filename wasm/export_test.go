@@ -9,12 +9,20 @@ package main
 // The tests call the methods through syscall/js, as a page does.
 
 import (
+	"encoding/json"
+	"fmt"
+	"maps"
+	"reflect"
+	"slices"
 	"strings"
 	"syscall/js"
 	"testing"
 	"time"
 
 	"github.com/hack-pad/hackpadfs/mem"
+	"gonum.org/v1/gonum/floats/scalar"
+
+	"copoly/copoly"
 )
 
 // testAPI returns a copoly object whose storage is a fresh in-memory file system.
@@ -73,6 +81,28 @@ func wantError(t *testing.T, v js.Value, field, text string) {
 	}
 	if msg := v.Get("error").String(); !strings.Contains(msg, text) {
 		t.Errorf("error = %q, want it to contain %q", msg, text)
+	}
+	wantParts(t, v)
+}
+
+// wantParts checks the parts of a CopolyError beside its message: a code of copoly.Codes(),
+// "internal" only for an error naming no field (a panic recovered), the reason that ends the
+// message, the value (when there is one) that the
+// message names, and the row (when there is one) that the field names.
+func wantParts(t *testing.T, v js.Value) {
+	t.Helper()
+	msg, field := v.Get("error").String(), v.Get("field").String()
+	if code := v.Get("code"); code.Type() != js.TypeString || (code.String() == copoly.CodeInternal && field != "") || !slices.Contains(copoly.Codes(), code.String()) {
+		t.Errorf("code = %s, want a code of copoly.Codes() (error %q)", stringify(code), msg)
+	}
+	if r := v.Get("reason"); r.Type() != js.TypeString || r.String() == "" || !strings.HasSuffix(msg, r.String()) {
+		t.Errorf("reason = %s, want the end of the message %q", stringify(r), msg)
+	}
+	if x := v.Get("value"); !x.IsUndefined() && (x.Type() != js.TypeNumber || !strings.HasPrefix(msg, field+" = ")) {
+		t.Errorf("value = %s, want a number the message %q names after %q", stringify(x), msg, field)
+	}
+	if r := v.Get("row"); !r.IsUndefined() && (r.Type() != js.TypeNumber || !strings.Contains(field, fmt.Sprintf("[%d]", r.Int()))) {
+		t.Errorf("row = %s, want the row the field %q names", stringify(r), field)
 	}
 }
 
@@ -191,4 +221,152 @@ func TestUnsupportedJSValues(t *testing.T) {
 	wantError(t, call(api, "composition", jsEval(`{r1: 1n, r2: 1, f1: [0.5]}`)), "r1", "must be a number")
 	wantError(t, call(api, "composition", jsEval(`{r1: 1, r2: 1, f1: [0.5, 2n]}`)), "f1[1]", "must be a number")
 	wantError(t, call(api, "composition", jsEval(`{r1: Symbol("r"), r2: 1, f1: [0.5]}`)), "r1", "a symbol")
+}
+
+// floatsOf reads a JS array of numbers.
+func floatsOf(t *testing.T, v js.Value) []float64 {
+	t.Helper()
+	if v.Type() != js.TypeObject || !isArray(v) {
+		t.Fatalf("got %s, want an array", stringify(v))
+	}
+	out := make([]float64, v.Length())
+	for i := range out {
+		out[i] = v.Index(i).Float()
+	}
+	return out
+}
+
+// edited returns a structured clone of arg changed by the JS statement edit, which sees the
+// clone as a.
+func edited(arg js.Value, edit string) js.Value {
+	return jsEval(`((x) => { const a = structuredClone(x); ` + edit + `; return a; })`).Invoke(arg)
+}
+
+// args returns the union of the maps, later ones winning; a nil value removes the key.
+func args(ms ...map[string]any) map[string]any {
+	a := map[string]any{}
+	for _, m := range ms {
+		for k, v := range m {
+			if v == nil {
+				delete(a, k)
+				continue
+			}
+			a[k] = v
+		}
+	}
+	return a
+}
+
+// jsOf converts a Go value of a test to JS: maps, slices and arrays of any values (nested
+// js.Values kept, nil slices and maps null, as vert converts them), the rest by toJS.
+func jsOf(v any) js.Value {
+	switch x := v.(type) {
+	case nil:
+		return js.Null()
+	case js.Value:
+		return x
+	case map[string]any:
+		o := object.New()
+		for k, e := range x {
+			o.Set(k, jsOf(e))
+		}
+		return o
+	}
+	rv := reflect.ValueOf(v)
+	switch rv.Kind() {
+	case reflect.Slice:
+		if rv.IsNil() {
+			return js.Null()
+		}
+		fallthrough
+	case reflect.Array:
+		a := array.New()
+		for i := range rv.Len() {
+			a.SetIndex(i, jsOf(rv.Index(i).Interface()))
+		}
+		return a
+	}
+	return toJS(v)
+}
+
+var (
+	null   = js.Null()      // a key that must hold null
+	absent = js.Undefined() // a key that must be absent
+)
+
+// near is a number worked by hand, compared within 1e-12 (relative) rather than exactly.
+type near float64
+
+// at returns the value at path in v: keys (or indices) separated by dots, "" for v itself. A
+// note after '#' is ignored, so that one key can be checked against two values.
+func at(v js.Value, path string) js.Value {
+	path, _, _ = strings.Cut(path, "#")
+	if path == "" {
+		return v
+	}
+	for _, k := range strings.Split(path, ".") {
+		if t := v.Type(); t != js.TypeObject && t != js.TypeFunction {
+			return js.Undefined()
+		}
+		v = v.Get(k)
+	}
+	return v
+}
+
+// canonical is the JSON text of a JS value with the keys of every object sorted, "undefined"
+// for undefined (NaN and ±Infinity are null, as in JSON).
+var canonical = jsEval(`(v) => v === undefined ? "undefined" : JSON.stringify(v, (k, x) =>
+	x && typeof x === "object" && !Array.isArray(x) ? Object.fromEntries(Object.entries(x).sort(([a], [b]) => a < b ? -1 : a > b ? 1 : 0)) : x)`)
+
+// wantAt checks the value at each path of v (at) against want: a near within 1e-12, anything
+// else exactly, as the canonical JSON text of jsOf(want).
+func wantAt(t *testing.T, v js.Value, want map[string]any) {
+	t.Helper()
+	for _, path := range slices.Sorted(maps.Keys(want)) {
+		got := at(v, path)
+		if w, ok := want[path].(near); ok {
+			if got.Type() != js.TypeNumber || !scalar.EqualWithinAbsOrRel(got.Float(), float64(w), 1e-12, 1e-12) {
+				t.Errorf("%s = %s, want %v", path, stringify(got), float64(w))
+			}
+			continue
+		}
+		if g, w := canonical.Invoke(got).String(), canonical.Invoke(jsOf(want[path])).String(); g != w {
+			t.Errorf("%s = %.400s, want %.400s", path, g, w)
+		}
+	}
+}
+
+// must returns v, or panics with err: for the direct copoly calls that make the expected
+// values, which cannot fail on the tests' input.
+func must[T any](v T, err error) T {
+	if err != nil {
+		panic(err)
+	}
+	return v
+}
+
+func must2[T, U any](v T, w U, err error) (T, U) {
+	if err != nil {
+		panic(err)
+	}
+	return v, w
+}
+
+// fmtPath joins the parts of a path with dots.
+func fmtPath(parts ...any) string {
+	s := make([]string, len(parts))
+	for i, p := range parts {
+		s[i] = fmt.Sprint(p)
+	}
+	return strings.Join(s, ".")
+}
+
+// mustJSON returns v as JSON text, as encoding/json writes it.
+func mustJSON(t *testing.T, v any) string {
+	t.Helper()
+	b, err := json.Marshal(v)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return string(b)
 }

@@ -37,6 +37,8 @@
 //	             riseLimit?, jcr?, samples?, seed?})
 //	copoly.starvedFeed({r1, r2, targetF1, feedRate, rateConstant, molarMass1, molarMass2})
 //	copoly.qe({monomer1, monomer2})
+//	copoly.limits()                 every limit of the inputs, by name (project.Limits)
+//	copoly.parseNumber({text, field?}) → {value}
 //	copoly.loadProject({tab?, draft?})          → Promise
 //	copoly.saveProject({project, basedOn?})     → Promise
 //	copoly.saveDraft({tab, fields, basedOn?})   → Promise
@@ -47,16 +49,17 @@
 // where ...model is {r1, r2} (the terminal model, also with model: "terminal"),
 // {model: "penultimate", r11, r21, r22, r12} or {model: "implicit", r1, r2, s1, s2}. Some
 // results are worked out for the terminal model only and are null or absent for the others: the
-// azeotrope and classification of composition, the limit and distribution of drift (and its
-// basis "mass"), the runLengths and batch of sequence, and Stockmayer's distribution of chains.
+// azeotrope and classification of composition, the runLengths and batch of sequence, and
+// Stockmayer's distribution of chains (the limit and distribution of drift are any model's).
 //
-// Every method takes one plain object (optional for library, demoProject and loadProject) and
-// returns one plain object. Bad input never throws: the result is then {error, field}, where
-// field names the input at fault ("r1", "f1[3]", "runs[2].F1", "bench.rows[3].cells.f10",
-// "timeTable[2]", "jcr[5][0]", "project.monomer1.molarMass", "project.plan.mode", "arguments").
-// A Go panic inside a method is recovered and reported the same way with an "internal error"
-// message, so the module keeps answering. The storage methods return Promises that always
-// resolve, never reject.
+// Every method takes one plain object (optional for library, demoProject, limits and
+// loadProject) and returns one plain object. Bad input never throws: the result is then
+// {error, field, code, reason, value?, row?} (copoly.PartsOf), where field names the input at
+// fault ("r1", "f1[3]", "runs[2].F1", "bench.rows[3].cells.f10", "timeTable[2]", "jcr[5][0]",
+// "project.monomer1.molarMass", "project.plan.mode", "arguments") and code says what is wrong
+// in a word (copoly.Codes). A Go panic inside a method is recovered and reported the same way
+// with an "internal error" message and the code "internal", so the module keeps answering. The
+// storage methods return Promises that always resolve, never reject.
 //
 // # Storage
 //
@@ -68,8 +71,11 @@
 // # Files
 //
 // main.go registers the object; export.go holds the wrapper (argument check, recover, error
-// object, Promise); dto.go the JS-facing types and the reading of arguments; api.go the
-// methods; storage.go the IndexedDB wiring. The science is all in package copoly.
+// object, Promise); decode.go the reading of arguments into DTOs; dto.go the JS-facing types;
+// jsontext.go the crossing of projects and bench grids as JSON text (read by project.Parse and
+// project.ParseBench, the one schema of the project file, and written by project.Marshal);
+// api.go the methods; storage.go the IndexedDB wiring. The science is all in copoly and its
+// packages.
 package main
 
 import "syscall/js"

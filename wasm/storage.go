@@ -48,11 +48,17 @@ const (
 	notStoredMessage = "the browser did not keep what was written; its storage for this page may be full"
 )
 
-// errNoIndexedDB reports a JS environment without IndexedDB; it will not appear later.
-var errNoIndexedDB = errors.New("this JavaScript environment has no IndexedDB")
-
-// errBusy reports that an earlier storage call of this page did not finish in time.
-var errBusy = errors.New("storage busy")
+// Sentinels of the storage errors, with their codes (copoly.Code).
+var (
+	// errNoIndexedDB reports a JS environment without IndexedDB; it will not appear later.
+	errNoIndexedDB = copoly.NewSentinel(copoly.CodeUnavailable, "this JavaScript environment has no IndexedDB")
+	// errBusy reports that an earlier storage call of this page did not finish in time.
+	errBusy = copoly.NewSentinel(copoly.CodeBusy, "storage busy")
+	// errUnavailable is wrapped by the error of a call that needs storage when it cannot open.
+	errUnavailable = copoly.NewSentinel(copoly.CodeUnavailable, "browser storage unavailable")
+	// errStorageFull is wrapped by the error of a write the browser refused for lack of room.
+	errStorageFull = copoly.NewSentinel(copoly.CodeStorageFull, "browser storage full")
+)
 
 // storage serialises the storage calls of one page and opens the file system on first use.
 type storage struct {
@@ -156,7 +162,7 @@ func (s *storage) store() (project.Store, error) {
 
 // unavailable is the error of a call that needs storage when there is none.
 func unavailable(err error) error {
-	return &copoly.FieldError{Field: "storage", Reason: "browser storage is unavailable, nothing was stored; export the project to a file to keep it (" + err.Error() + ")", Err: err}
+	return &copoly.FieldError{Field: "storage", Reason: "browser storage is unavailable, nothing was stored; export the project to a file to keep it (" + err.Error() + ")", Err: errors.Join(err, errUnavailable)}
 }
 
 // plain returns err with a reason a chemist can read when the browser refused a write for lack
@@ -166,15 +172,15 @@ func plain(err error) error {
 	if err == nil || copoly.Field(err) != "storage" {
 		return err
 	}
-	reason := fullMessage
+	reason, wrapped := fullMessage, errors.Join(errStorageFull, err)
 	switch {
 	case strings.Contains(strings.ToLower(err.Error()), "quota"):
 	case errors.Is(err, project.ErrNotStored):
-		reason = notStoredMessage
+		reason, wrapped = notStoredMessage, err
 	default:
 		return err
 	}
-	return &copoly.FieldError{Field: "storage", Reason: reason + " (" + strings.TrimPrefix(err.Error(), "storage: ") + ")", Err: err}
+	return &copoly.FieldError{Field: "storage", Reason: reason + " (" + strings.TrimPrefix(err.Error(), "storage: ") + ")", Err: wrapped}
 }
 
 // load is the job of loadProject: a StorageLoad, or an error when storage fails while reading.
@@ -202,7 +208,11 @@ func (s *storage) load(tab string, given *project.Draft) (any, error) {
 	if l.Project == nil {
 		out.Set("project", js.Null())
 	} else {
-		out.Set("project", projectValue(*l.Project))
+		v, err := projectValue(*l.Project)
+		if err != nil {
+			return nil, err
+		}
+		out.Set("project", v)
 	}
 	out.Set("storage", "indexeddb")
 	out.Set("revision", revisionValue(l.Revision))
@@ -240,8 +250,12 @@ func (s *storage) save(p project.Project, base project.Revision) (any, error) {
 		out.Set("savedAt", sv.Project.SavedAt)
 		out.Set("revision", revisionValue(sv.Revision))
 		if c := sv.Conflict; c != nil {
+			stored, err := projectValue(c.Stored)
+			if err != nil {
+				return nil, err
+			}
 			other := object.New()
-			other.Set("project", projectValue(c.Stored))
+			other.Set("project", stored)
 			other.Set("revision", revisionValue(c.Revision))
 			out.Set("conflict", other)
 			out.Set("kept", keptValue(c.Copy))
@@ -289,7 +303,9 @@ func (s *storage) keptCopy(name string) (any, error) {
 		js.CopyBytesToJS(bytes, data)
 		out.Set("bytes", bytes)
 		if p, err := project.Parse(data); err == nil {
-			out.Set("project", projectValue(p))
+			if v, err := projectValue(p); err == nil {
+				out.Set("project", v)
+			}
 		}
 		return out, nil
 	})
@@ -416,30 +432,30 @@ func keptArg(arg js.Value, job func(name string) (any, error)) (asyncJob, error)
 type (
 	revisionDTO struct {
 		N      float64 `js:"n"`
-		Writer string  `js:"writer" copoly:"optional" limit:"id"`
+		Writer string  `js:"writer" copoly:"optional" limit:"idLength"`
 	}
 	baseIn struct {
 		BasedOn *revisionDTO `js:"basedOn"`
 	}
 	tabIn struct {
-		Tab *string `js:"tab" limit:"id"`
+		Tab *string `js:"tab" limit:"idLength"`
 	}
 	draftCopyIn struct {
 		Draft *struct {
-			SavedAt string            `js:"savedAt" limit:"id"`
+			SavedAt string            `js:"savedAt" limit:"idLength"`
 			BasedOn *revisionDTO      `js:"basedOn"`
-			Fields  map[string]string `js:"fields" limit:"draftFields" each:"notes"`
+			Fields  map[string]string `js:"fields" limit:"draftFields" each:"notesBytes"`
 		} `js:"draft"`
 	}
 	draftTabIn struct {
-		Tab string `js:"tab" limit:"id"`
+		Tab string `js:"tab" limit:"idLength"`
 	}
 	draftIn struct {
-		Tab    string            `js:"tab" limit:"id"`
-		Fields map[string]string `js:"fields" limit:"draftFields" each:"notes"`
+		Tab    string            `js:"tab" limit:"idLength"`
+		Fields map[string]string `js:"fields" limit:"draftFields" each:"notesBytes"`
 	}
 	keptIn struct {
-		Name string `js:"name" limit:"keptName"`
+		Name string `js:"name" limit:"keptNameLength"`
 	}
 )
 

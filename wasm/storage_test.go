@@ -15,6 +15,7 @@ import (
 	"github.com/hack-pad/hackpadfs"
 	"github.com/hack-pad/hackpadfs/mem"
 
+	"copoly/copoly"
 	"copoly/copoly/project"
 )
 
@@ -78,6 +79,16 @@ func TestProjects(t *testing.T) {
 		{"name too long", "p.name = 'x'.repeat(201)", "project.name", "the limit is 200"},
 		{"notes not text", "p.notes = 5", "project.notes", "must be text"},
 		{"invented not boolean", "p.invented = 'yes'", "project.invented", "true or false"},
+		// What JSON would lose or refuse is reported by field before the text is made.
+		{"r1 infinite", "p.r1 = Infinity", "project.r1", "+Inf"},
+		{"a cell NaN", "p.bench.rows[0].cells.F1 = NaN", "project.bench.rows[0].cells.F1", "NaN"},
+		{"name a function", "p.name = () => 'x'", "project.name", "a function cannot be kept in a project file"},
+		{"notes a symbol", "p.notes = Symbol('n')", "project.notes", "a symbol"},
+		{"level a BigInt", "p.level = 1n", "project.level", "unsupported kind"},
+		{"a model that refers to itself", "p.model.self = p.model", "project.model" + strings.Repeat(".self", 63), "nested more than 64 levels"},
+		{"a getter that throws", "Object.defineProperty(p, 'notes', {get() { throw new Error('no notes') }, enumerable: true})", "project.notes", "no notes"},
+		{"a text too long for any file", "p.ratioSource = 'x'.repeat(2 ** 21)", "project.ratioSource", "2097152 characters"},
+		{"a grid too large for a file", "p.bench.rows = Array.from({length: 1000}, () => ({label: 'x'.repeat(200), cells: Object.fromEntries(['f10', 'F1', 'sF', 'sf', 'conversion'].map((k) => [k, '9'.repeat(200)]))}))", "project.bench.rows", "holds 1000 entries"},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			arg := jsEval(`((d) => { const p = structuredClone(d.project); ` + c.edit + `; return {project: p}; })`).Invoke(demo)
@@ -361,7 +372,9 @@ func TestStorageFull(t *testing.T) {
 
 	f.full = true
 	next := jsEval(`((d, base) => { const p = structuredClone(d.project); p.r1 = 0.5; return {project: p, basedOn: base}; })`).Invoke(demo, first.Get("revision"))
-	wantError(t, await(t, call(api, "saveProject", next)), "storage", fullMessage)
+	full := await(t, call(api, "saveProject", next))
+	wantError(t, full, "storage", fullMessage)
+	wantCode(t, full, copoly.CodeStorageFull)
 	wantError(t, await(t, call(api, "saveDraft", map[string]any{"tab": "t", "fields": map[string]any{"r1": "0.5"}})), "storage", fullMessage)
 	// The last good project is still stored.
 	if r := await(t, call(api, "loadProject")); r.Get("project").Get("r1").Float() != 0.8 || !r.Get("message").IsUndefined() {
@@ -369,7 +382,9 @@ func TestStorageFull(t *testing.T) {
 	}
 	// A write the file system reports done but that does not read back is named too.
 	f.full, f.unseen = false, true
-	wantError(t, await(t, call(api, "saveProject", next)), "storage", notStoredMessage)
+	unseen := await(t, call(api, "saveProject", next))
+	wantError(t, unseen, "storage", notStoredMessage)
+	wantCode(t, unseen, copoly.CodeNotStored)
 	if r := await(t, call(api, "loadProject")); r.Get("project").Get("r1").Float() != 0.8 {
 		t.Errorf("loadProject() after an unseen failed save = %s, want the first save (r1 0.8)", stringify(r))
 	}
@@ -395,7 +410,9 @@ func TestStorageUnavailable(t *testing.T) {
 	if !r.Get("project").IsNull() || r.Get("storage").String() != "unavailable" || !strings.Contains(r.Get("message").String(), "unavailable") {
 		t.Errorf("loadProject() without IndexedDB = %s, want {project: null, storage: \"unavailable\", message}", stringify(r))
 	}
-	wantError(t, await(t, call(api, "saveProject", demoArg(t, api))), "storage", "browser storage is unavailable")
+	none := await(t, call(api, "saveProject", demoArg(t, api)))
+	wantError(t, none, "storage", "browser storage is unavailable")
+	wantCode(t, none, copoly.CodeUnavailable)
 	wantError(t, await(t, call(api, "saveDraft", map[string]any{"tab": "t", "fields": map[string]any{}})), "storage", "browser storage is unavailable")
 	// Without storage the page's own copy of its draft still comes back.
 	r = await(t, call(api, "loadProject", map[string]any{"tab": "t", "draft": map[string]any{"savedAt": "2026-05-06T07:08:09.500Z", "fields": map[string]any{"r1": "0.4x"}}}))
@@ -454,5 +471,13 @@ func TestStorageOpenFailure(t *testing.T) {
 	now = now.Add(retryOpen)
 	if r := await(t, call(api, "loadProject")); r.Get("storage").String() != "indexeddb" || opens != 2 {
 		t.Errorf("loadProject() once the open works = %s after %d opens", stringify(r), opens)
+	}
+}
+
+// wantCode checks the code of a CopolyError.
+func wantCode(t *testing.T, v js.Value, code string) {
+	t.Helper()
+	if got := v.Get("code").String(); got != code {
+		t.Errorf("code = %q, want %q (error %q)", got, code, v.Get("error").String())
 	}
 }

@@ -11,7 +11,7 @@ import (
 	"copoly/copoly"
 )
 
-// TestConversionLimitBinary checks N = 2 against copoly.Terminal.ConversionLimit (the binary
+// TestConversionLimitBinary checks N = 2 against copoly.Batch.ConversionLimit (the binary
 // batch's band on F̄1, bisected to 1e-10) to 1e-9.
 func TestConversionLimitBinary(t *testing.T) {
 	cases := []struct{ r1, r2, f10, tol float64 }{
@@ -22,7 +22,11 @@ func TestConversionLimitBinary(t *testing.T) {
 		{0.52, 0.46, 0.5294, 0.02}, // styrene/MMA near the azeotrope: never leaves the band
 	}
 	for _, c := range cases {
-		want, err := copoly.Terminal{R1: c.r1, R2: c.r2}.ConversionLimit(c.f10, c.tol)
+		bin, err := copoly.NewBatch(copoly.Terminal{R1: c.r1, R2: c.r2}, c.f10)
+		if err != nil {
+			t.Fatal(err)
+		}
+		want, err := bin.ConversionLimit(c.tol)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -85,14 +89,17 @@ func TestConversionLimitBand(t *testing.T) {
 	}
 }
 
-// TestCompositionDistributionBinary checks N = 2 against copoly.Terminal.CompositionDistribution
+// TestCompositionDistributionBinary checks N = 2 against copoly.Batch.Distribution
 // (same slices, same binning): the edges to 1e-12, and the weights to 1e-9 but for at most one
 // slice moving across a bin edge (1/4000 of the polymer; the two drifts differ by ~1e-12).
 func TestCompositionDistributionBinary(t *testing.T) {
-	bin := copoly.Terminal{R1: 0.40, R2: 0.04}
+	bin, err := copoly.NewBatch(copoly.Terminal{R1: 0.40, R2: 0.04}, 0.3)
+	if err != nil {
+		t.Fatal(err)
+	}
 	m := mustNew(t, [][]float64{{1, 0.40}, {0.04, 1}}, nil)
 	for _, masses := range [][2]float64{{0, 0}, {104.152, 53.064}} {
-		want, err := bin.CompositionDistribution(0.3, 0.95, 20, masses[0], masses[1])
+		want, err := bin.Distribution(0.95, 20, masses[0], masses[1])
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -74,8 +74,11 @@ func TestDriftBinary(t *testing.T) {
 // ConversionLimit with a band of 0.5, which the batch never leaves, is that conversion), and a
 // conversion beyond gives an error naming it.
 func TestDriftStops(t *testing.T) {
-	bin := copoly.Terminal{R1: 2, R2: 0}
-	xmax, err := bin.ConversionLimit(0.5, 0.5)
+	bin, err := copoly.NewBatch(copoly.Terminal{R1: 2, R2: 0}, 0.5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	xmax, err := bin.ConversionLimit(0.5)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -87,7 +90,7 @@ func TestDriftStops(t *testing.T) {
 	if !scalar.EqualWithinAbsOrRel(d.Stop, xmax, 1e-9, 1e-9) {
 		t.Errorf("Stop = %.12g, binary %.12g", d.Stop, xmax)
 	}
-	want, _ := bin.Drift(0.5, []float64{0.1, 0.5, 0.7})
+	want, _ := bin.Drift([]float64{0.1, 0.5, 0.7})
 	for k := range d.Conversion {
 		if !scalar.EqualWithinAbsOrRel(d.Feed[k][0], want.Feed[k], 1e-9, 1e-9) {
 			t.Errorf("X = %g: f1 = %.12g, binary %.12g", d.Conversion[k], d.Feed[k][0], want.Feed[k])

@@ -1,76 +1,78 @@
 package project
 
 import (
-	"errors"
 	"fmt"
 	"maps"
 	"math"
 	"slices"
 	"strings"
+	"unicode/utf8"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
+	"copoly/copoly/plan"
 )
 
 // Limits on the bench-data grid of a project. MaxCells and MaxCellLength are design choices of
 // copoly that keep a project file small; the row and label limits are copoly's own
-// (copoly.MaxRuns, copoly.MaxLabelLength), so that every grid a project holds can be converted.
+// (bench.MaxRuns, bench.MaxLabelLength), so that every grid a project holds can be converted.
 const (
-	MaxRows        = copoly.MaxRuns        // rows in the grid
-	MaxCells       = 64                    // cells in one row
-	MaxCellLength  = 200                   // characters in one cell, and in Bench.Element
-	MaxLabelLength = copoly.MaxLabelLength // characters in a row label
-	MaxJCRPoints   = 4096                  // points of Project.JCR
+	MaxRows        = bench.MaxRuns        // rows in the grid
+	MaxCells       = 64                   // cells in one row
+	MaxCellLength  = 200                  // characters in one cell, and in Bench.Element
+	MaxLabelLength = bench.MaxLabelLength // characters in a row label
+	MaxJCRPoints   = plan.MaxRegionPoints // points of Project.JCR
 )
 
 // ErrNotAllowed reports a word that is not among those a field accepts, such as an unknown
 // entry form or cell key.
-var ErrNotAllowed = errors.New("project: value not among those allowed")
+var ErrNotAllowed = copoly.NewSentinel(copoly.CodeNotAllowed, "project: value not among those allowed")
 
-// Bench is the bench-data grid of a project: [copoly.BenchTable] with the keys of the project
+// Bench is the bench-data grid of a project: [bench.Table] with the keys of the project
 // file and of the BenchTable of the JavaScript API. Cells are kept as typed, so a cell that is
-// not (yet) a number is not an error here; [copoly.BenchTable.Runs] reports it when the runs are
+// not (yet) a number is not an error here; [bench.Table.Runs] reports it when the runs are
 // converted.
 type Bench struct {
-	// FeedKind is copoly.FeedFraction, FeedMass, FeedMoles or "" (fraction).
+	// FeedKind is bench.FeedFraction, FeedMass, FeedMoles or "" (fraction).
 	FeedKind string `json:"feedKind"`
-	// ConversionKind is copoly.ConversionNone, ConversionMolar, ConversionMass or "" (none).
+	// ConversionKind is bench.ConversionNone, ConversionMolar, ConversionMass or "" (none).
 	ConversionKind string `json:"conversionKind"`
-	// CompositionKind is copoly.CompositionFraction, CompositionMassFraction, CompositionNMR,
+	// CompositionKind is bench.CompositionFraction, CompositionMassFraction, CompositionNMR,
 	// CompositionElement or "" (fraction).
 	CompositionKind string `json:"compositionKind"`
-	// Element, Carrier and ElementCount describe an elemental analysis as in copoly.RunInput;
+	// Element, Carrier and ElementCount describe an elemental analysis as in bench.RunInput;
 	// Carrier is 1 or 2, or 0 when not chosen, and ElementCount ≥ 0 (0 = not given).
 	Element      string     `json:"element"`
 	Carrier      int        `json:"carrier"`
 	ElementCount float64    `json:"elementCount"`
-	Rows         []BenchRow `json:"rows"`
+	Rows         []BenchRow `json:"rows" project:"required"`
 }
 
 // BenchRow is one row of a Bench: a label and the text of each cell, keyed by column
-// (copoly.ColF10, copoly.ColF1, …).
+// (bench.ColF10, bench.ColF1, …).
 type BenchRow struct {
 	Label string            `json:"label"`
 	Cells map[string]string `json:"cells"`
 }
 
-// Table returns b as a copoly.BenchTable. The rows and cells are copied, so changing the table
-// (copoly.BenchTable.Paste appends rows) leaves b as it was.
-func (b Bench) Table() copoly.BenchTable {
-	t := copoly.BenchTable{
+// Table returns b as a bench.Table. The rows and cells are copied, so changing the table
+// (bench.Table.Paste appends rows) leaves b as it was.
+func (b Bench) Table() bench.Table {
+	t := bench.Table{
 		FeedKind: b.FeedKind, ConversionKind: b.ConversionKind, CompositionKind: b.CompositionKind,
 		Element: b.Element, Carrier: b.Carrier, ElementCount: b.ElementCount,
 	}
 	if b.Rows != nil {
-		t.Rows = make([]copoly.BenchRow, len(b.Rows))
+		t.Rows = make([]bench.Row, len(b.Rows))
 		for i, r := range b.Rows {
-			t.Rows[i] = copoly.BenchRow{Label: r.Label, Cells: maps.Clone(r.Cells)}
+			t.Rows[i] = bench.Row{Label: r.Label, Cells: maps.Clone(r.Cells)}
 		}
 	}
 	return t
 }
 
-// BenchOf returns the copoly.BenchTable t as a Bench, copying its rows and cells.
-func BenchOf(t copoly.BenchTable) Bench {
+// BenchOf returns the bench.Table t as a Bench, copying its rows and cells.
+func BenchOf(t bench.Table) Bench {
 	b := Bench{
 		FeedKind: t.FeedKind, ConversionKind: t.ConversionKind, CompositionKind: t.CompositionKind,
 		Element: t.Element, Carrier: t.Carrier, ElementCount: t.ElementCount,
@@ -86,20 +88,20 @@ func BenchOf(t copoly.BenchTable) Bench {
 
 // Words accepted by the kind fields of a Bench; "" selects the first form of each.
 var (
-	feedKinds        = []string{"", copoly.FeedFraction, copoly.FeedMass, copoly.FeedMoles}
-	conversionKinds  = []string{"", copoly.ConversionNone, copoly.ConversionMolar, copoly.ConversionMass}
-	compositionKinds = []string{"", copoly.CompositionFraction, copoly.CompositionMassFraction, copoly.CompositionNMR, copoly.CompositionElement}
+	feedKinds        = []string{"", bench.FeedFraction, bench.FeedMass, bench.FeedMoles}
+	conversionKinds  = []string{"", bench.ConversionNone, bench.ConversionMolar, bench.ConversionMass}
+	compositionKinds = []string{"", bench.CompositionFraction, bench.CompositionMassFraction, bench.CompositionNMR, bench.CompositionElement}
 )
 
-// cellKeys are the cell keys a row may hold: every column of every form of copoly.BenchTable.
+// cellKeys are the cell keys a row may hold: every column of every form of bench.Table.
 // A row may keep cells of a form the table no longer uses (the chemist switched forms), so the
 // keys are not checked against the table's current columns.
 var cellKeys = map[string]bool{
-	copoly.ColF10: true, copoly.ColMass1: true, copoly.ColMass2: true, copoly.ColMoles1: true, copoly.ColMoles2: true,
-	copoly.ColConversion: true,
-	copoly.ColF1:         true, copoly.ColMassFraction1: true, copoly.ColIntegral1: true, copoly.ColProtons1: true,
-	copoly.ColIntegral2: true, copoly.ColProtons2: true, copoly.ColElementPercent: true,
-	copoly.ColSF: true, copoly.ColSX: true, copoly.ColSf: true,
+	bench.ColF10: true, bench.ColMass1: true, bench.ColMass2: true, bench.ColMoles1: true, bench.ColMoles2: true,
+	bench.ColConversion: true,
+	bench.ColF1:         true, bench.ColMassFraction1: true, bench.ColIntegral1: true, bench.ColProtons1: true,
+	bench.ColIntegral2: true, bench.ColProtons2: true, bench.ColElementPercent: true,
+	bench.ColSF: true, bench.ColSX: true, bench.ColSf: true,
 }
 
 // CheckBench reports the first structural problem of b as a *copoly.InputError or
@@ -107,7 +109,7 @@ var cellKeys = map[string]bool{
 // "project.bench.rows[3].cells.f10"), or nil. It checks the kind words, the carrier (0, 1 or 2),
 // a finite ElementCount ≥ 0, at most MaxRows rows, and in each row a label of at most
 // MaxLabelLength characters and at most MaxCells cells, each keyed by a column of
-// copoly.BenchTable and at most MaxCellLength characters long. What the cells say is not
+// bench.Table and at most MaxCellLength characters long. What the cells say is not
 // checked.
 func CheckBench(field string, b Bench) error {
 	for _, k := range []struct {
@@ -146,6 +148,9 @@ func CheckBench(field string, b Bench) error {
 			return &copoly.InputError{Field: row + ".cells", Value: float64(n), Reason: fmt.Sprintf("at most %d cells in a row", MaxCells), Err: copoly.ErrTooMany}
 		}
 		for _, key := range slices.Sorted(maps.Keys(r.Cells)) {
+			if n := utf8.RuneCountInString(key); n > MaxCellLength {
+				return &copoly.FieldError{Field: row + ".cells", Reason: fmt.Sprintf("has a key %d characters long (%q); the limit is %d", n, abbreviate(key), MaxCellLength), Err: ErrTooLong}
+			}
 			if !cellKeys[key] {
 				return &copoly.FieldError{Field: row + ".cells", Reason: fmt.Sprintf("has a cell keyed %q, which is not a column of the bench table", key), Err: ErrNotAllowed}
 			}
@@ -157,15 +162,16 @@ func CheckBench(field string, b Bench) error {
 	return nil
 }
 
-// checkJCR reports the first point of a joint confidence region that is not a pair of finite
-// ratios ≥ 0, or more than MaxJCRPoints points.
+// checkJCR reports the first ratio of a joint confidence region that is not finite and ≥ 0,
+// naming it field[i][j] (as plan.BandOf and the plan's time table name theirs), or more than
+// MaxJCRPoints points.
 func checkJCR(field string, jcr [][2]float64) error {
 	if n := len(jcr); n > MaxJCRPoints {
 		return &copoly.InputError{Field: field, Value: float64(n), Reason: fmt.Sprintf("at most %d points", MaxJCRPoints), Err: copoly.ErrTooMany}
 	}
 	for i, p := range jcr {
 		for j, v := range p {
-			f := fmt.Sprintf("%s[%d]", field, i)
+			f := fmt.Sprintf("%s[%d][%d]", field, i, j)
 			if math.IsNaN(v) || math.IsInf(v, 0) {
 				return &copoly.InputError{Field: f, Value: v, Reason: fmt.Sprintf("r%d of the point must be a finite number", j+1), Err: copoly.ErrNotFinite}
 			}
@@ -183,4 +189,57 @@ func quoteAll(words []string) string {
 		q[i] = fmt.Sprintf("%q", w)
 	}
 	return strings.Join(q, ", ") + ` or ""`
+}
+
+// BenchRuns is a bench grid converted to runs ([Bench.Runs]).
+type BenchRuns struct {
+	// Columns holds the cell keys the grid's forms use, in display order ([bench.Table.Columns]).
+	Columns []string
+	// Runs, OK and Errors hold, per row, the run, whether the row gave one (a blank row gives
+	// none and no error) and the error of a bad row ([bench.Table.Runs]).
+	Runs   []copoly.Run
+	OK     []bool
+	Errors []error
+	// Warnings are the data warnings of the rows that converted ([copoly.CheckRuns]).
+	Warnings []copoly.RunWarning
+}
+
+// Runs checks the grid's structure ([CheckBench], errors named under field) and converts its
+// rows ([bench.Table.Runs]) with the monomer molar masses in g/mol, 0 when not given (a form
+// that weighs then reports the molar mass it needs); a molar mass given must pass
+// [copoly.CheckMolarMass] (errors naming "molarMass1", "molarMass2").
+func (b Bench) Runs(field string, molarMass1, molarMass2 float64) (*BenchRuns, error) {
+	if err := CheckBench(field, b); err != nil {
+		return nil, err
+	}
+	for i, m := range []float64{molarMass1, molarMass2} {
+		if m != 0 {
+			if err := copoly.CheckMolarMass(fmt.Sprintf("molarMass%d", i+1), m); err != nil {
+				return nil, err
+			}
+		}
+	}
+	t := b.Table()
+	r := &BenchRuns{Columns: t.Columns()}
+	r.Runs, r.OK, r.Errors, r.Warnings = t.Runs(molarMass1, molarMass2)
+	return r, nil
+}
+
+// Paste checks the grid's structure ([CheckBench], errors named under field) and returns it with
+// the rows of a pasted block appended ([bench.Table.Paste]). The grid b is not changed, and a
+// block that cannot be read, or whose rows a project could not keep (a cell or label too long),
+// gives an error naming "paste".
+func (b Bench) Paste(field, text string) (Bench, error) {
+	if err := CheckBench(field, b); err != nil {
+		return Bench{}, err
+	}
+	t := b.Table()
+	if err := t.Paste(text); err != nil {
+		return Bench{}, err
+	}
+	pasted := BenchOf(t)
+	if err := CheckBench(field, pasted); err != nil {
+		return Bench{}, &copoly.FieldError{Field: "paste", Reason: "the pasted rows cannot be kept: " + err.Error(), Err: err}
+	}
+	return pasted, nil
 }

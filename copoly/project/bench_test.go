@@ -1,10 +1,15 @@
 package project
 
 import (
+	"errors"
 	"reflect"
+	"slices"
+	"strings"
 	"testing"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
+	"copoly/copoly/fit"
 )
 
 func TestBenchTableRoundTrip(t *testing.T) {
@@ -39,7 +44,7 @@ func TestBenchTableRoundTrip(t *testing.T) {
 }
 
 // TestDemoBenchFits checks the invented demo runs against what demoBench documents: every row
-// converts without error, and the weighted nonlinear fit (copoly.Estimate) places r1 = 0.80,
+// converts without error, and the weighted nonlinear fit (fit.Estimate) places r1 = 0.80,
 // r2 = 0.15, the values the runs were generated from, inside its 95 % joint confidence region.
 func TestDemoBenchFits(t *testing.T) {
 	p := Demo()
@@ -52,7 +57,7 @@ func TestDemoBenchFits(t *testing.T) {
 			t.Errorf("demo bench row %d = %+v, want sF 0.01 and a conversion", i, runs[i])
 		}
 	}
-	e, err := copoly.Estimate(runs, 0)
+	e, err := fit.Estimate(runs, 0)
 	if err != nil {
 		t.Fatalf("Estimate(demo runs) = %v", err)
 	}
@@ -79,4 +84,47 @@ func inPolygon(x, y float64, pts [][2]float64) bool {
 		}
 	}
 	return in
+}
+
+// TestBenchRuns: Runs checks the grid and converts it as bench.Table.Runs does; a molar mass
+// given must be one.
+func TestBenchRuns(t *testing.T) {
+	b := Demo().Bench
+	r, err := b.Runs("bench", 0, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	runs, ok, errs, warnings := b.Table().Runs(0, 0)
+	if !slices.Equal(r.Columns, b.Table().Columns()) || !slices.Equal(r.Runs, runs) || !slices.Equal(r.OK, ok) ||
+		len(r.Errors) != len(errs) || !slices.Equal(r.Warnings, warnings) {
+		t.Errorf("Runs = %+v, want %v %v %v %v", r, runs, ok, errs, warnings)
+	}
+	bad := *b
+	bad.FeedKind = "litres"
+	if _, err := bad.Runs("bench", 0, 0); copoly.Field(err) != "bench.feedKind" || !errors.Is(err, ErrNotAllowed) {
+		t.Errorf("feed kind litres: error %v, want one naming bench.feedKind", err)
+	}
+	if _, err := b.Runs("bench", 104.152, -1); copoly.Field(err) != "molarMass2" {
+		t.Errorf("molar mass -1: error %v, want one naming molarMass2", err)
+	}
+}
+
+// TestBenchPaste: Paste appends the rows of a block to a copy and leaves the grid as it was; a
+// block that cannot be read, or whose rows a project could not keep, gives an error naming
+// "paste".
+func TestBenchPaste(t *testing.T) {
+	b := *Demo().Bench
+	n := len(b.Rows)
+	got, err := b.Paste("bench", "f10\tX\tF1\n0,25\t0,1\t0,4\n")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(got.Rows) != n+1 || got.Rows[n].Cells[bench.ColF10] != "0,25" || len(b.Rows) != n {
+		t.Errorf("pasted %d rows (last %+v), grid now %d rows; want %d, %d", len(got.Rows), got.Rows[len(got.Rows)-1], len(b.Rows), n+1, n)
+	}
+	for _, text := range []string{`"unclosed`, "foo\tbar\n1\t2", "label\tF1\n" + strings.Repeat("x", MaxLabelLength+1) + "\t0.5\n"} {
+		if _, err := b.Paste("bench", text); copoly.Field(err) != "paste" {
+			t.Errorf("Paste(%.30q) error %v, want one naming paste", text, err)
+		}
+	}
 }

@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
 )
 
 // Names of the published example projects ([Example]).
@@ -65,15 +66,15 @@ func Example(name string) (Project, error) {
 	if !ok {
 		return Project{}, &copoly.FieldError{Field: "name", Reason: fmt.Sprintf("%q is not a published example; the examples are %s", name, strings.Join(quoted(ExampleNames()), " and ")), Err: ErrNotAllowed}
 	}
-	bench := Bench{
-		FeedKind:        copoly.FeedFraction,
-		ConversionKind:  copoly.ConversionMass,
-		CompositionKind: copoly.CompositionFraction,
+	tab := Bench{
+		FeedKind:        bench.FeedFraction,
+		ConversionKind:  bench.ConversionMass,
+		CompositionKind: bench.CompositionFraction,
 		Rows:            make([]BenchRow, len(g.runs)),
 	}
 	for i, r := range g.runs {
-		bench.Rows[i] = BenchRow{Label: fmt.Sprintf("Table 1, %s, run %d", g.solvent, i+1), Cells: map[string]string{
-			copoly.ColF10: r[0], copoly.ColF1: r[1], copoly.ColConversion: r[2] + " %",
+		tab.Rows[i] = BenchRow{Label: fmt.Sprintf("Table 1, %s, run %d", g.solvent, i+1), Cells: map[string]string{
+			bench.ColF10: r[0], bench.ColF1: r[1], bench.ColConversion: r[2] + " %",
 		}}
 	}
 	return Project{
@@ -104,7 +105,7 @@ func Example(name string) (Project, error) {
 			"safety data sheets, local codes and licensed practice.\n\n"+
 			"Source: %s", g.solvent, g.r1, g.r2, georgiev1995Citation),
 		Citation: georgiev1995Citation,
-		Bench:    &bench,
+		Bench:    &tab,
 		Model:    &Model{Kind: ModelTerminal},
 	}, nil
 }

@@ -12,6 +12,7 @@ import (
 	"testing"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
 )
 
 // georgievPath is the reference the published examples must agree with: Table 1 of
@@ -86,8 +87,8 @@ func TestExamplesMatchPublishedTable(t *testing.T) {
 		if p.Bench == nil || len(p.Bench.Rows) != len(want) || len(want) != 7 {
 			t.Fatalf("Example(%q) bench %+v, want the 7 rows of %s in %s", name, p.Bench, solvent, georgievPath)
 		}
-		if p.Bench.ConversionKind != copoly.ConversionMass {
-			t.Errorf("Example(%q) conversion kind %q, want %q (Table 1 gives the conversion by weight)", name, p.Bench.ConversionKind, copoly.ConversionMass)
+		if p.Bench.ConversionKind != bench.ConversionMass {
+			t.Errorf("Example(%q) conversion kind %q, want %q (Table 1 gives the conversion by weight)", name, p.Bench.ConversionKind, bench.ConversionMass)
 		}
 		for i, w := range want {
 			c := p.Bench.Rows[i].Cells

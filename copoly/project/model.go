@@ -26,7 +26,7 @@ var ModelKinds = []string{ModelTerminal, ModelPenultimate, ModelImplicit}
 // number ≥ 0; whether the ratios make a model is for copoly to say when it is used.
 type Model struct {
 	// Kind is ModelTerminal, ModelPenultimate or ModelImplicit.
-	Kind string `json:"kind"`
+	Kind string `json:"kind" project:"required"`
 	// R11, R21, R22 and R12 are the monomer reactivity ratios of the explicit penultimate model,
 	// r11 = k111/k112, r21 = k211/k212, r22 = k222/k221, r12 = k122/k121 (copoly.Penultimate).
 	R11 *float64 `json:"r11,omitempty"`

@@ -8,6 +8,8 @@ import (
 	"testing"
 
 	"copoly/copoly"
+	"copoly/copoly/fit"
+	"copoly/copoly/molarmass"
 )
 
 // Tests of the sequences and chain-size panels' sections of a project: model, triads and
@@ -136,10 +138,10 @@ func TestParsePanels(t *testing.T) {
 	}{
 		{"model a list", `"model":[]`, "project.model", ErrWrongType, "an object"},
 		{"model kind unknown", `"model":{"kind":"ultimate"}`, "project.model.kind", ErrNotAllowed, `"ultimate"`},
-		{"model without kind", `"model":{"r11":1}`, "project.model.kind", ErrNotAllowed, `""`},
+		{"model without kind", `"model":{"r11":1}`, "project.model.kind", ErrMissing, "is missing"},
 		{"model ratio text", `"model":{"kind":"implicit","s1":"1.2"}`, "project.model.s1", ErrWrongType, "a number"},
 		{"triads an object", `"triads":{"f10":0.5}`, "project.triads", ErrWrongType, "a list"},
-		{"triad value text", `"triads":[{"f10":0.5,"A112":"0,4"}]`, "project.triads.A112", ErrWrongType, "a number"},
+		{"triad value text", `"triads":[{"f10":0.5,"A112":"0,4"}]`, "project.triads[0].A112", ErrWrongType, `must be a number, not the text "0,4"`},
 		{"triad value out of range", `"triads":[{"f10":0.5},{"f10":0.5,"A112":1.4}]`, "project.triads[1].A112", copoly.ErrOutOfRange, "not measured"},
 		{"size bin negative", `"sizeBins":[{"low":-5,"high":10}]`, "project.sizeBins[0].low", copoly.ErrOutOfRange, "negative"},
 		{"size bins a number", `"sizeBins":3`, "project.sizeBins", ErrWrongType, "a list"},
@@ -160,15 +162,15 @@ func TestParsePanels(t *testing.T) {
 }
 
 func TestTriadRowRun(t *testing.T) {
-	// Absent and NotMeasured both become a value below 0, which copoly.TriadRun reads as not
+	// Absent and NotMeasured both become a value below 0, which fit.TriadRun reads as not
 	// measured (its doc comment).
 	r := TriadRow{F10: 0.4, F1: num(0.5), A121: num(NotMeasured)}.Run()
-	want := copoly.TriadRun{F10: 0.4, F1: 0.5, A111: -1, A112: -1, A212: -1, A222: -1, A221: -1, A121: -1}
+	want := fit.TriadRun{F10: 0.4, F1: 0.5, A111: -1, A112: -1, A212: -1, A222: -1, A221: -1, A121: -1}
 	if r != want {
 		t.Errorf("Run() = %+v, want %+v", r, want)
 	}
 	b := SizeBin{Low: 1, High: 2, NumberFraction: 3, WeightFraction: 4}.Bin()
-	if b != (copoly.Bin{Low: 1, High: 2, Number: 3, Weight: 4}) {
+	if b != (molarmass.Bin{Low: 1, High: 2, Number: 3, Weight: 4}) {
 		t.Errorf("Bin() = %+v, want the same four numbers", b)
 	}
 }

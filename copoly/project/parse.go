@@ -3,9 +3,8 @@ package project
 import (
 	"bytes"
 	"encoding/json"
-	"errors"
 	"fmt"
-	"io"
+	"math"
 	"reflect"
 	"strings"
 
@@ -16,18 +15,18 @@ import (
 // notes are limited to MaxNotesBytes); the limit stops a wrong file from using up memory.
 const MaxFileBytes = 1 << 20
 
-// required lists the keys a project file must hold (with a non-null value). The text fields
-// and the optional flags default to "" and false.
-var required = []string{"format", "version", "monomer1", "monomer2", "r1", "r2", "f10", "conversion", "tolerance"}
-
 // Parse reads one project file and validates it.
 //
-// The data must be a single JSON object (surrounding white space allowed, nothing after it)
-// whose "format" is Format. Anything else, including valid JSON of another kind, gives an
-// error wrapping ErrNotProject. A "version" above Version gives an error wrapping
-// ErrNewerVersion. A required key that is missing or null gives ErrMissing, a value of the
-// wrong JSON type ErrWrongType; both name the key ("project.monomer1.molarMass"). Keys this
-// version does not know are ignored. Finally the project must pass Project.Validate.
+// The data must be a single JSON object (surrounding white space allowed, nothing after it). A
+// file that is not a JSON object, or an object holding neither "format" nor any other key a
+// project requires, gives an error with field "project" wrapping ErrNotProject; a "format" other
+// than Format one naming "project.format" wrapping ErrNotProject. A "version" above Version
+// gives an error wrapping ErrNewerVersion. The rest is read by the schema of Project: a required
+// key that is missing or null gives ErrMissing, a value of the wrong JSON type ErrWrongType;
+// both name the key by its whole path ("project.bench.rows[3].cells.f10") and the wrong value
+// ("the text \"0.5\""). Keys are matched exactly; keys this version does not know are ignored.
+// Finally the project must pass Project.Validate. The bridge in wasm/ reads the page's project
+// objects with Parse too, as JSON text.
 func Parse(data []byte) (Project, error) {
 	if len(data) > MaxFileBytes {
 		return Project{}, notProject(fmt.Sprintf("the file holds %d bytes, more than the %d a project can have", len(data), MaxFileBytes))
@@ -35,80 +34,52 @@ func Parse(data []byte) (Project, error) {
 	if len(bytes.TrimSpace(data)) == 0 {
 		return Project{}, notProject("the file is empty")
 	}
-
-	// First pass: the top-level object only, to tell a foreign file from a damaged project.
-	dec := json.NewDecoder(bytes.NewReader(data))
-	var head map[string]json.RawMessage
-	if err := dec.Decode(&head); err != nil {
-		var typeErr *json.UnmarshalTypeError
-		if errors.As(err, &typeErr) {
-			return Project{}, notProject(fmt.Sprintf("the file holds a JSON %s, not an object", typeErr.Value))
+	x, err := decodeJSON(data)
+	if err != nil {
+		if err == errTrailing {
+			return Project{}, notProject(err.Error())
 		}
 		return Project{}, notProject("the file is not valid JSON (" + err.Error() + ")")
 	}
-	if head == nil { // the literal null
-		return Project{}, notProject("the file holds a JSON null, not an object")
+	head, ok := x.(map[string]any)
+	if !ok {
+		return Project{}, notProject(fmt.Sprintf("the file holds a JSON %s, not an object", jsonKind(x)))
 	}
-	if _, err := dec.Token(); err != io.EOF {
-		return Project{}, notProject("unexpected data after the end of the project object")
-	}
-
-	var format string
-	if raw, ok := head["format"]; !ok || json.Unmarshal(raw, &format) != nil || format != Format {
+	if format := head["format"]; format == nil {
+		for _, key := range requiredKeys {
+			if head[key] != nil {
+				return Project{}, &copoly.FieldError{Field: "project.format", Reason: "is missing", Err: ErrMissing}
+			}
+		}
 		return Project{}, notProject(`it has no "format": "` + Format + `" entry`)
+	} else if s, ok := format.(string); !ok {
+		return Project{}, wrongType("project.format", "text", format)
+	} else if s != Format {
+		return Project{}, &copoly.FieldError{Field: "project.format", Reason: fmt.Sprintf("is %q, not %q: not a copoly project", s, Format), Err: ErrNotProject}
 	}
-	var version float64
-	if raw := head["version"]; isNull(raw) {
-		return Project{}, missing("project.version")
-	} else if err := json.Unmarshal(raw, &version); err != nil {
-		return Project{}, &copoly.FieldError{Field: "project.version", Reason: "must be a whole number", Err: ErrWrongType}
-	}
-	if err := checkVersion(version); err != nil {
-		// A newer file may be laid out differently: stop before reading the rest.
-		return Project{}, err
-	}
-	for _, key := range required {
-		if isNull(head[key]) {
-			return Project{}, missing("project." + key)
+	switch version := head["version"].(type) {
+	case nil:
+		return Project{}, &copoly.FieldError{Field: "project.version", Reason: "is missing", Err: ErrMissing}
+	case float64:
+		if version != math.Trunc(version) {
+			return Project{}, wrongType("project.version", "a whole number", version)
 		}
+		if err := checkVersion(version); err != nil {
+			// A newer file may be laid out differently: stop before reading the rest.
+			return Project{}, err
+		}
+	default:
+		return Project{}, wrongType("project.version", "a whole number", version)
 	}
-
-	// encoding/json fills a short JSON array into a [2]float64 with zeros and drops the extra
-	// elements of a long one; a JCR point and a row of the plan's time table must be exactly
-	// pairs. (encoding/json also matches keys regardless of case, hence EqualFold.)
-	for key, raw := range head {
-		if strings.EqualFold(key, "jcr") {
-			if err := checkPairs("project.jcr", raw, "[r1, r2]"); err != nil {
-				return Project{}, err
-			}
-		}
-		var plan map[string]json.RawMessage
-		if !strings.EqualFold(key, "plan") || json.Unmarshal(raw, &plan) != nil {
-			continue
-		}
-		for k, rows := range plan {
-			if strings.EqualFold(k, "timeTable") {
-				if err := checkPairs("project.plan.timeTable", rows, "[time, conversion]"); err != nil {
-					return Project{}, err
-				}
-			}
-		}
-	}
-
 	var p Project
-	if err := json.Unmarshal(data, &p); err != nil {
-		var typeErr *json.UnmarshalTypeError
-		if errors.As(err, &typeErr) {
-			return Project{}, &copoly.FieldError{
-				Field:  "project." + typeErr.Field,
-				Reason: fmt.Sprintf("must be %s, not a JSON %s", kindName(typeErr.Type), typeErr.Value),
-				Err:    ErrWrongType,
-			}
-		}
-		return Project{}, notProject("the file is not valid JSON (" + err.Error() + ")")
+	if err := readValue("project", head, reflect.ValueOf(&p).Elem(), ""); err != nil {
+		return Project{}, err
 	}
 	if len(p.JCR) == 0 {
 		p.JCR = nil // "jcr": [] is no region, as Marshal writes it (by leaving the key out)
+	}
+	if p.Bench != nil {
+		p.Bench.tidy()
 	}
 	if p.Plan != nil && len(p.Plan.TimeTable) == 0 {
 		p.Plan.TimeTable = nil // likewise "timeTable": [] is no table
@@ -134,23 +105,26 @@ func Parse(data []byte) (Project, error) {
 	return p, nil
 }
 
-// checkPairs reports the first entry of the JSON list raw that is a list of other than two
-// values, naming it field[i]; anything else is left for json.Unmarshal to report.
-func checkPairs(field string, raw json.RawMessage, pair string) error {
-	if isNull(raw) {
-		return nil
+// requiredKeys are the keys of a project file, besides "format", that must hold a value; an
+// object with none of them is not a project at all.
+var requiredKeys = []string{"version", "monomer1", "monomer2", "r1", "r2", "f10", "conversion", "tolerance"}
+
+// jsonKind names the kind of a decoded JSON value as JSON does: array, string, number, bool,
+// null or object.
+func jsonKind(x any) string {
+	switch x.(type) {
+	case []any:
+		return "array"
+	case string:
+		return "string"
+	case float64:
+		return "number"
+	case bool:
+		return "bool"
+	case nil:
+		return "null"
 	}
-	var entries []json.RawMessage
-	if json.Unmarshal(raw, &entries) != nil {
-		return nil
-	}
-	for i, e := range entries {
-		var xy []json.RawMessage
-		if json.Unmarshal(e, &xy) == nil && len(xy) != 2 {
-			return &copoly.FieldError{Field: fmt.Sprintf("%s[%d]", field, i), Reason: fmt.Sprintf("must be a pair %s, not a list of %d values", pair, len(xy)), Err: ErrWrongType}
-		}
-	}
-	return nil
+	return "object"
 }
 
 // Marshal validates p and returns it as an indented project file ending in a newline, ready to
@@ -172,6 +146,14 @@ func Marshal(p Project) ([]byte, error) {
 		return nil, &copoly.FieldError{Field: "project", Reason: fmt.Sprintf("the project file would take %d bytes, more than the %d a project can have; shorten the notes or the bench data", buf.Len(), MaxFileBytes), Err: ErrTooLong}
 	}
 	return buf.Bytes(), nil
+}
+
+// Export returns p as a project file ([Marshal]) and a file name to save it under ([Filename]).
+func Export(p Project) (data []byte, filename string, err error) {
+	if data, err = Marshal(p); err != nil {
+		return nil, "", err
+	}
+	return data, Filename(p.Name), nil
 }
 
 // Filename returns a file name for exporting a project called name: ASCII letters and digits
@@ -207,33 +189,4 @@ func Filename(name string) string {
 
 func notProject(why string) error {
 	return &copoly.FieldError{Field: "project", Reason: "not a copoly project file: " + why, Err: ErrNotProject}
-}
-
-func missing(field string) error {
-	return &copoly.FieldError{Field: field, Reason: "is missing", Err: ErrMissing}
-}
-
-// isNull reports whether a raw JSON value is absent or the literal null.
-func isNull(raw json.RawMessage) bool {
-	return len(raw) == 0 || string(bytes.TrimSpace(raw)) == "null"
-}
-
-// kindName names a Go type as the JSON a user would have to write.
-func kindName(t reflect.Type) string {
-	switch t.Kind() {
-	case reflect.Float64, reflect.Float32:
-		return "a number"
-	case reflect.Int, reflect.Int64, reflect.Int32:
-		return "a whole number"
-	case reflect.String:
-		return "text in quotes"
-	case reflect.Bool:
-		return "true or false"
-	case reflect.Struct, reflect.Map:
-		return "an object"
-	case reflect.Slice, reflect.Array:
-		return "a list"
-	default:
-		return "a " + t.String()
-	}
 }

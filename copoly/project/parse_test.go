@@ -2,6 +2,7 @@ package project
 
 import (
 	"bytes"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -10,6 +11,7 @@ import (
 	"testing"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
 )
 
 // minimal is a hand-written project file with every required key and nothing else; the keys
@@ -106,7 +108,7 @@ func TestValidateRefusesInvalidUTF8(t *testing.T) {
 		{"name", func(p *Project) { p.Name = "run \xff" }, "project.name"},
 		{"monomer name", func(p *Project) { p.Monomer2.Name = "\xed\xa0\x80" }, "project.monomer2.name"},
 		{"notes", func(p *Project) { p.Notes = "ok\xc1" }, "project.notes"},
-		{"bench cell", func(p *Project) { p.Bench.Rows[0].Cells[copoly.ColF1] = "\xc1" }, "project.bench.rows[0].cells.F1"},
+		{"bench cell", func(p *Project) { p.Bench.Rows[0].Cells[bench.ColF1] = "\xc1" }, "project.bench.rows[0].cells.F1"},
 		{"bench label", func(p *Project) { p.Bench.Rows[2].Label = "\x80" }, "project.bench.rows[2].label"},
 		{"hazard", func(p *Project) { p.UserMonomers = []UserMonomer{{Name: "X", Hazards: []string{"\xfe"}}} }, "project.userMonomers[0].hazards[0]"},
 	}
@@ -154,8 +156,9 @@ func TestParseErrors(t *testing.T) {
 		{name: "string", data: `"copoly-project"`, field: "project", err: ErrNotProject, text: "string"},
 		{name: "null", data: `null`, field: "project", err: ErrNotProject, text: "null"},
 		{name: "foreign object", data: `{"name":"package","dependencies":{}}`, field: "project", err: ErrNotProject, text: "not a copoly project file"},
-		{name: "other format", data: replace(`"copoly-project"`, `"something-else"`), field: "project", err: ErrNotProject, text: "format"},
-		{name: "format not text", data: replace(`"copoly-project"`, `7`), field: "project", err: ErrNotProject, text: "format"},
+		{name: "other format", data: replace(`"copoly-project"`, `"something-else"`), field: "project.format", err: ErrNotProject, text: "something-else"},
+		{name: "format not text", data: replace(`"copoly-project"`, `7`), field: "project.format", err: ErrWrongType, text: "must be text, not the number 7"},
+		{name: "format missing", data: replace(`"format":"copoly-project",`, ``), field: "project.format", err: ErrMissing, text: "missing"},
 		{name: "trailing garbage", data: minimal + ` x`, field: "project", err: ErrNotProject, text: "after the end"},
 		{name: "two objects", data: minimal + minimal, field: "project", err: ErrNotProject, text: "after the end"},
 		{name: "truncated", data: minimal[:len(minimal)-10], field: "project", err: ErrNotProject, text: "not valid JSON"},
@@ -191,17 +194,22 @@ func TestParseErrors(t *testing.T) {
 		// Optional keys: bench, level, jcr.
 		{name: "bench a list", data: replace(`"r1":0.5`, `"bench":[],"r1":0.5`), field: "project.bench", err: ErrWrongType, text: "object"},
 		{name: "bench carrier fractional", data: replace(`"r1":0.5`, `"bench":{"carrier":1.5,"rows":[]},"r1":0.5`), field: "project.bench.carrier", err: ErrWrongType, text: "whole number"},
-		{name: "bench cell a number", data: replace(`"r1":0.5`, `"bench":{"rows":[{"label":"a","cells":{"f10":0.5}}]},"r1":0.5`), field: "project.bench.rows.cells", err: ErrWrongType, text: "text"},
+		{name: "bench cell a number", data: replace(`"r1":0.5`, `"bench":{"rows":[{"label":"a","cells":{"f10":0.5}}]},"r1":0.5`), field: "project.bench.rows[0].cells.f10", err: ErrWrongType, text: "must be text, not the number 0.5"},
 		{name: "bench kind unknown", data: replace(`"r1":0.5`, `"bench":{"feedKind":"litres","rows":[]},"r1":0.5`), field: "project.bench.feedKind", err: ErrNotAllowed, text: "litres"},
 		{name: "bench cell key unknown", data: replace(`"r1":0.5`, `"bench":{"rows":[{"label":"a","cells":{"f10":"0.5"}},{"label":"b","cells":{"colour":"red"}}]},"r1":0.5`), field: "project.bench.rows[1].cells", err: ErrNotAllowed, text: "colour"},
+		{name: "bench without rows", data: replace(`"r1":0.5`, `"bench":{"feedKind":"mass"},"r1":0.5`), field: "project.bench.rows", err: ErrMissing, text: "missing"},
+		{name: "bench row null", data: replace(`"r1":0.5`, `"bench":{"rows":[null]},"r1":0.5`), field: "project.bench.rows[0]", err: ErrWrongType, text: "must be an object, not null"},
+		{name: "bench cell key too long", data: replace(`"r1":0.5`, `"bench":{"rows":[{"cells":{"`+strings.Repeat("k", MaxCellLength+1)+`":"1"}}]},"r1":0.5`), field: "project.bench.rows[0].cells", err: ErrTooLong, text: fmt.Sprintf("%d characters", MaxCellLength+1)},
+		{name: "bench carrier huge", data: replace(`"r1":0.5`, `"bench":{"carrier":1e300,"rows":[]},"r1":0.5`), field: "project.bench.carrier", err: ErrWrongType, text: "1e+300"},
+		{name: "triad without feed", data: replace(`"r1":0.5`, `"triads":[{"F1":0.5}],"r1":0.5`), field: "project.triads[0].f10", err: ErrMissing, text: "missing"},
+		{name: "size class without high", data: replace(`"r1":0.5`, `"sizeBins":[{"low":1e4}],"r1":0.5`), field: "project.sizeBins[0].high", err: ErrMissing, text: "missing"},
 		{name: "level text", data: replace(`"r1":0.5`, `"level":"95%","r1":0.5`), field: "project.level", err: ErrWrongType},
 		{name: "level percent", data: replace(`"r1":0.5`, `"level":95,"r1":0.5`), field: "project.level", err: copoly.ErrOutOfRange},
 		{name: "jcr a number", data: replace(`"r1":0.5`, `"jcr":5,"r1":0.5`), field: "project.jcr", err: ErrWrongType, text: "a list"},
 		{name: "jcr point short", data: replace(`"r1":0.5`, `"jcr":[[0.5,0.2],[0.5]],"r1":0.5`), field: "project.jcr[1]", err: ErrWrongType, text: "pair"},
 		{name: "jcr point long", data: replace(`"r1":0.5`, `"jcr":[[0.5,0.2,0.1]],"r1":0.5`), field: "project.jcr[0]", err: ErrWrongType, text: "pair"},
-		{name: "jcr in capitals, point short", data: replace(`"r1":0.5`, `"JCR":[[0.5]],"r1":0.5`), field: "project.jcr[0]", err: ErrWrongType, text: "pair"},
-		{name: "jcr point text", data: replace(`"r1":0.5`, `"jcr":[["0.5",0.2]],"r1":0.5`), field: "project.jcr", err: ErrWrongType, text: "number"},
-		{name: "jcr point negative", data: replace(`"r1":0.5`, `"jcr":[[0.5,0.2],[-0.1,0.2]],"r1":0.5`), field: "project.jcr[1]", err: copoly.ErrOutOfRange},
+		{name: "jcr point text", data: replace(`"r1":0.5`, `"jcr":[["0.5",0.2]],"r1":0.5`), field: "project.jcr[0][0]", err: ErrWrongType, text: `must be a number, not the text "0.5"`},
+		{name: "jcr point negative", data: replace(`"r1":0.5`, `"jcr":[[0.5,0.2],[-0.1,0.2]],"r1":0.5`), field: "project.jcr[1][0]", err: copoly.ErrOutOfRange},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -222,6 +230,40 @@ func TestParseErrors(t *testing.T) {
 				t.Errorf("Parse() = %q, want a message containing %q", err, tt.text)
 			}
 		})
+	}
+}
+
+// TestParseBench: a grid read on its own names its keys under the field given and is checked as
+// a project's is.
+func TestParseBench(t *testing.T) {
+	want := *Demo().Bench
+	data, err := json.Marshal(want)
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, err := ParseBench("bench", data)
+	if err != nil || !reflect.DeepEqual(got, want) {
+		t.Errorf("ParseBench(Marshal(demo grid)) = %+v, %v; want %+v", got, err, want)
+	}
+	for _, c := range []struct{ data, field, text string }{
+		{`{"rows":[{"label":5}]}`, "bench.rows[0].label", "must be text, not the number 5"},
+		{`{"feedKind":"litres","rows":[]}`, "bench.feedKind", `"litres"`},
+		{`{}`, "bench.rows", "missing"},
+		{`[]`, "bench", "must be an object, not a list"},
+		{`{"rows":[]} x`, "bench", "not valid JSON"},
+	} {
+		if _, err := ParseBench("bench", []byte(c.data)); copoly.Field(err) != c.field || !strings.Contains(err.Error(), c.text) {
+			t.Errorf("ParseBench(%s) error %v, want one naming %s and saying %q", c.data, err, c.field, c.text)
+		}
+	}
+}
+
+// TestParseKeysAreExact: keys are matched exactly, so "JCR" is an unknown key, ignored like any
+// other, even when it holds what "jcr" could not.
+func TestParseKeysAreExact(t *testing.T) {
+	p, err := Parse([]byte(strings.Replace(minimal, `"r1":0.5`, `"JCR":[[0.5]],"r1":0.5`, 1)))
+	if err != nil || p.JCR != nil {
+		t.Errorf("Parse(minimal with \"JCR\") = jcr %v, %v; want no region and no error", p.JCR, err)
 	}
 }
 
@@ -364,9 +406,9 @@ func FuzzProjectRoundTrip(f *testing.F) {
 	f.Add("\xff", "a\x00b", "\xed\xa0\x80", "\u2028", "\"", uint8(7), -0.0, 1e4+1, 1.0, 0.0, 0.0, -1.0, 1.0, -0.0, math.NaN(), math.Inf(1), 1001.0, -1.0, 1.5, "Batch", " ", "2026-13-01")
 	f.Add(strings.Repeat("é", MaxNameLength), strings.Repeat("\u00e9", MaxNotesBytes/2), "s", strings.Repeat("x", MaxLabelLength+1), strings.Repeat("9", MaxCellLength),
 		uint8(15), 5e-324, math.MaxFloat64, 0.999999999, 1e-300, 0.49999, 999999.9, 1e-10, 1e308, 1e-308, 1e-7, 999.999, 1e15, 1.0, "shots", strings.Repeat("h", MaxHazardLength+1), "2026-01-02T03:04:05.123456789+14:00")
-	keys := []string{copoly.ColF10, copoly.ColMass1, copoly.ColMass2, copoly.ColMoles1, copoly.ColMoles2, copoly.ColConversion, copoly.ColF1,
-		copoly.ColMassFraction1, copoly.ColIntegral1, copoly.ColProtons1, copoly.ColIntegral2, copoly.ColProtons2,
-		copoly.ColElementPercent, copoly.ColSF, copoly.ColSX, copoly.ColSf, "label", "F", ""}
+	keys := []string{bench.ColF10, bench.ColMass1, bench.ColMass2, bench.ColMoles1, bench.ColMoles2, bench.ColConversion, bench.ColF1,
+		bench.ColMassFraction1, bench.ColIntegral1, bench.ColProtons1, bench.ColIntegral2, bench.ColProtons2,
+		bench.ColElementPercent, bench.ColSF, bench.ColSX, bench.ColSf, "label", "F", ""}
 	f.Fuzz(func(t *testing.T, name, notes, source, label, cell string, key uint8, r1, r2, f10, conv, tol, mm, level, j1, j2, r11, heat, tt0, tt1 float64,
 		mode, hazard, savedAt string) {
 		p := Demo()
@@ -418,4 +460,19 @@ func FuzzProjectRoundTrip(f *testing.F) {
 			data = again
 		}
 	})
+}
+
+// TestExport: the file is Marshal's and the name Filename's; an invalid project gives
+// Marshal's error.
+func TestExport(t *testing.T) {
+	p := Demo()
+	data, name, err := Export(p)
+	want, _ := Marshal(p)
+	if err != nil || string(data) != string(want) || name != Filename(p.Name) {
+		t.Errorf("Export = %d bytes, %q, %v; want Marshal's %d bytes and %q", len(data), name, err, len(want), Filename(p.Name))
+	}
+	p.R1 = -1
+	if _, _, err := Export(p); copoly.Field(err) != "project.r1" {
+		t.Errorf("r1 = -1: error %v, want one naming project.r1", err)
+	}
 }

@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"copoly/copoly"
+	"copoly/copoly/plan"
 )
 
 // MaxPlanWordLength is the longest text a Plan's Mode or Feed may hold, in characters; every
@@ -13,12 +14,12 @@ import (
 const MaxPlanWordLength = 32
 
 // Plan is the state of the feed-planning panel as the user left it: the inputs of a plan as
-// in copoly.PlanInput, with the keys of the plan of the JavaScript API (site/copoly.d.ts). Every
-// field is optional: 0 and "" mean "not given" (as in copoly.PlanInput, where 0 selects the
+// in plan.Input, with the keys of the plan of the JavaScript API (site/copoly.d.ts). Every
+// field is optional: 0 and "" mean "not given" (as in plan.Input, where 0 selects the
 // default) and are left out of the file. The values are stored as typed, within the loose
-// limits of CheckPlan; whether they make a plan is for copoly.MakePlan to say.
+// limits of CheckPlan; whether they make a plan is for plan.Make to say.
 type Plan struct {
-	// Mode is copoly.PlanBatch, PlanSemibatch, PlanShots or "".
+	// Mode is plan.ModeBatch, PlanSemibatch, PlanShots or "".
 	Mode string `json:"mode,omitempty"`
 	// TargetF1 is the wanted mole fraction of M1 in the copolymer.
 	TargetF1 float64 `json:"targetF1,omitempty"`
@@ -30,7 +31,7 @@ type Plan struct {
 	// at the end of a semi-batch or shot plan.
 	StopConversion  float64 `json:"stopConversion,omitempty"`
 	FinalConversion float64 `json:"finalConversion,omitempty"`
-	// Feed is copoly.FeedFaster, FeedMixture or ""; FeedF1 the mole fraction of M1 in a metered
+	// Feed is plan.FeedFaster, FeedMixture or ""; FeedF1 the mole fraction of M1 in a metered
 	// mixture.
 	Feed   string  `json:"feed,omitempty"`
 	FeedF1 float64 `json:"feedF1,omitempty"`
@@ -43,8 +44,8 @@ type Plan struct {
 	RateConstant float64 `json:"rateConstant,omitempty"`
 	HalfLife     float64 `json:"halfLife,omitempty"`
 	// TimeTable is a measured conversion–time table, rows [time in min, conversion], as in
-	// copoly.PlanInput; nil when none.
-	TimeTable [][2]float64 `json:"timeTable,omitempty"`
+	// plan.Input; nil when none.
+	TimeTable [][2]float64 `json:"timeTable,omitempty" pair:"time, conversion"`
 	// Heat1 and Heat2 are the user's heats of polymerization −ΔHp of M1 and M2 in kJ/mol,
 	// in place of the library's (0: not given).
 	Heat1 float64 `json:"heat1,omitempty"`
@@ -64,13 +65,13 @@ const (
 )
 
 // MaxPlanHeat is the largest heat of polymerization a Plan holds, in kJ/mol: the limit of
-// copoly.MakePlan.
+// plan.Make.
 const MaxPlanHeat = 1000
 
 // Words accepted by the text fields of a Plan; "" means not given.
 var (
-	planModes    = []string{"", copoly.PlanBatch, copoly.PlanSemibatch, copoly.PlanShots}
-	planFeeds    = []string{"", copoly.FeedFaster, copoly.FeedMixture}
+	planModes    = []string{"", plan.ModeBatch, plan.ModeSemibatch, plan.ModeShots}
+	planFeeds    = []string{"", plan.FeedFaster, plan.FeedMixture}
 	planRateLaws = []string{"", RateNone, RateConstant, RateHalfLife, RateTable}
 )
 
@@ -78,7 +79,7 @@ var (
 // whose field starts with field ("project.plan.mode"), or nil. Mode, Feed and RateLaw must be
 // at most MaxPlanWordLength characters and among the allowed words or empty; every number must
 // be finite and ≥ 0, Shots ≥ 0, Heat1 and Heat2 at most MaxPlanHeat. TimeTable holds at most
-// copoly.MaxTimeRows rows of finite numbers, as copoly.MakePlan takes them: time ≥ 0 and
+// plan.MaxTimeRows rows of finite numbers, as plan.Make takes them: time ≥ 0 and
 // increasing, conversion in [0, 1] and not decreasing. Nothing else is checked: a panel may be
 // saved half filled in.
 func CheckPlan(field string, pl Plan) error {
@@ -125,8 +126,8 @@ func CheckPlan(field string, pl Plan) error {
 
 // checkTimeTable checks a conversion–time table as CheckPlan documents.
 func checkTimeTable(field string, rows [][2]float64) error {
-	if len(rows) > copoly.MaxTimeRows {
-		return &copoly.InputError{Field: field, Value: float64(len(rows)), Reason: fmt.Sprintf("at most %d rows", copoly.MaxTimeRows), Err: copoly.ErrTooMany}
+	if len(rows) > plan.MaxTimeRows {
+		return &copoly.InputError{Field: field, Value: float64(len(rows)), Reason: fmt.Sprintf("at most %d rows", plan.MaxTimeRows), Err: copoly.ErrTooMany}
 	}
 	for i, row := range rows {
 		f := fmt.Sprintf("%s[%d]", field, i)

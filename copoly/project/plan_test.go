@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"copoly/copoly"
+	"copoly/copoly/plan"
 )
 
 // The expected field names below are the keys of Project.plan in site/copoly.d.ts with the
@@ -22,24 +23,24 @@ func TestCheckPlan(t *testing.T) {
 	}{
 		{name: "demo", edit: func(pl *Plan) {}},
 		{name: "empty", edit: func(pl *Plan) { *pl = Plan{} }},
-		{name: "batch", edit: func(pl *Plan) { pl.Mode, pl.StopConversion = copoly.PlanBatch, 0.6 }},
-		{name: "shots", edit: func(pl *Plan) { pl.Mode, pl.Shots = copoly.PlanShots, 12 }},
-		{name: "mixture", edit: func(pl *Plan) { pl.Feed, pl.FeedF1 = copoly.FeedMixture, 0.7 }},
-		{name: "faster", edit: func(pl *Plan) { pl.Feed = copoly.FeedFaster }},
+		{name: "batch", edit: func(pl *Plan) { pl.Mode, pl.StopConversion = plan.ModeBatch, 0.6 }},
+		{name: "shots", edit: func(pl *Plan) { pl.Mode, pl.Shots = plan.ModeShots, 12 }},
+		{name: "mixture", edit: func(pl *Plan) { pl.Feed, pl.FeedF1 = plan.FeedMixture, 0.7 }},
+		{name: "faster", edit: func(pl *Plan) { pl.Feed = plan.FeedFaster }},
 		{name: "half-life", edit: func(pl *Plan) { pl.RateConstant, pl.HalfLife = 0, 60 }},
 		{name: "rate law half-life", edit: func(pl *Plan) { pl.RateLaw, pl.HalfLife = RateHalfLife, 60 }},
 		{name: "rate law none", edit: func(pl *Plan) { pl.RateLaw = RateNone }},
-		// A measured table in the form copoly.MakePlan takes; a flat stretch of conversion is allowed.
+		// A measured table in the form plan.Make takes; a flat stretch of conversion is allowed.
 		{name: "time table", edit: func(pl *Plan) {
 			pl.RateLaw, pl.TimeTable = RateTable, [][2]float64{{0, 0}, {30, 0.22}, {60, 0.22}, {90, 1}}
 		}},
 		{name: "table at the row limit", edit: func(pl *Plan) {
-			pl.TimeTable = make([][2]float64, copoly.MaxTimeRows)
+			pl.TimeTable = make([][2]float64, plan.MaxTimeRows)
 			for i := range pl.TimeTable {
 				pl.TimeTable[i] = [2]float64{float64(i), 0.5}
 			}
 		}},
-		// 1000 kJ/mol is copoly.MakePlan's limit on a heat of polymerization.
+		// 1000 kJ/mol is plan.Make's limit on a heat of polymerization.
 		{name: "heats", edit: func(pl *Plan) { pl.Heat1, pl.Heat2 = 69.9, MaxPlanHeat }},
 		// Stored as typed: out of a plan's range, but not negative.
 		{name: "target above one kept", edit: func(pl *Plan) { pl.TargetF1 = 1.5 }},
@@ -67,7 +68,7 @@ func TestCheckPlan(t *testing.T) {
 		{name: "heat2 NaN", edit: func(pl *Plan) { pl.Heat2 = math.NaN() }, field: "project.plan.heat2", err: copoly.ErrNotFinite},
 		{name: "heat2 above the limit", edit: func(pl *Plan) { pl.Heat2 = MaxPlanHeat + 1 }, field: "project.plan.heat2", err: copoly.ErrOutOfRange},
 		{name: "table too long", edit: func(pl *Plan) {
-			pl.TimeTable = make([][2]float64, copoly.MaxTimeRows+1)
+			pl.TimeTable = make([][2]float64, plan.MaxTimeRows+1)
 			for i := range pl.TimeTable {
 				pl.TimeTable[i] = [2]float64{float64(i), 0.5}
 			}
@@ -97,15 +98,15 @@ func TestDemoPlanRuns(t *testing.T) {
 	if pl == nil {
 		t.Fatal("Demo() has no plan section")
 	}
-	in := copoly.PlanInput{
+	in := plan.Input{
 		Model: copoly.Terminal{R1: p.R1, R2: p.R2}, TargetF1: pl.TargetF1,
 		MolarMass1: p.Monomer1.MolarMass, MolarMass2: p.Monomer2.MolarMass,
 		PolymerMass: pl.PolymerMass, Mode: pl.Mode, Tolerance: pl.Tolerance,
 		RateConstant: pl.RateConstant, BatchMass: pl.BatchMass, HeatCapacity: pl.HeatCapacity, RiseLimit: pl.RiseLimit,
 	}
-	plan, err := copoly.MakePlan(in)
+	plan, err := plan.Make(in)
 	if err != nil {
-		t.Fatalf("copoly.MakePlan(demo plan) error %v", err)
+		t.Fatalf("plan.Make(demo plan) error %v", err)
 	}
 	if last := plan.Schedule[len(plan.Schedule)-1]; !(math.Abs(last.Polymer-pl.PolymerMass) <= 1e-9*pl.PolymerMass) {
 		t.Errorf("demo plan ends with %v g of polymer, want %v", last.Polymer, pl.PolymerMass)
@@ -157,7 +158,7 @@ func TestParsePlan(t *testing.T) {
 		text              string
 	}{
 		{"not an object", `[1]`, "project.plan", ErrWrongType, "an object"},
-		{"mode a number", `{"mode":1}`, "project.plan.mode", ErrWrongType, "text in quotes"},
+		{"mode a number", `{"mode":1}`, "project.plan.mode", ErrWrongType, "must be text, not the number 1"},
 		{"mode unknown", `{"mode":"fast"}`, "project.plan.mode", ErrNotAllowed, `"fast"`},
 		{"shots fractional", `{"shots":2.5}`, "project.plan.shots", ErrWrongType, "whole number"},
 		{"shots negative", `{"shots":-1}`, "project.plan.shots", copoly.ErrOutOfRange, "negative"},

@@ -68,13 +68,14 @@
 package project
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"time"
 	"unicode/utf8"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
+	"copoly/copoly/plan"
 )
 
 // Format is the value of the "format" key of every project file.
@@ -97,17 +98,18 @@ const (
 // Sentinel errors wrapped by the errors of this package; test for them with errors.Is.
 var (
 	// ErrNotProject reports data that is not a copoly project file at all.
-	ErrNotProject = errors.New("project: not a copoly project file")
+	ErrNotProject = copoly.NewSentinel(copoly.CodeNotAProject, "project: not a copoly project file")
 	// ErrNewerVersion reports a project file written by a newer copoly.
-	ErrNewerVersion = errors.New("project: made by a newer copoly")
-	// ErrMissing reports a required key that is absent or null.
-	ErrMissing = errors.New("project: required value missing")
-	// ErrWrongType reports a value of the wrong JSON type, such as text where a number belongs.
-	ErrWrongType = errors.New("project: value has the wrong type")
-	// ErrTooLong reports a text field above its length limit.
-	ErrTooLong = errors.New("project: text too long")
+	ErrNewerVersion = copoly.NewSentinel(copoly.CodeNewerVersion, "project: made by a newer copoly")
+	// ErrMissing reports a required key that is absent or null; it is copoly.ErrMissing.
+	ErrMissing = copoly.ErrMissing
+	// ErrWrongType reports a value of the wrong JSON type, such as text where a number belongs;
+	// it is copoly.ErrWrongType.
+	ErrWrongType = copoly.ErrWrongType
+	// ErrTooLong reports a text field above its length limit; it is copoly.ErrTooLong.
+	ErrTooLong = copoly.ErrTooLong
 	// ErrDamaged reports stored projects that can no longer be read.
-	ErrDamaged = errors.New("project: stored project damaged")
+	ErrDamaged = copoly.NewSentinel(copoly.CodeDamaged, "project: stored project damaged")
 )
 
 // Monomer names one monomer of a project.
@@ -124,20 +126,20 @@ type Project struct {
 	Format   string  `json:"format"`  // always Format
 	Version  int     `json:"version"` // always Version when written by this package
 	Name     string  `json:"name"`
-	Monomer1 Monomer `json:"monomer1"`
-	Monomer2 Monomer `json:"monomer2"`
+	Monomer1 Monomer `json:"monomer1" project:"required"`
+	Monomer2 Monomer `json:"monomer2" project:"required"`
 	// R1 and R2 are the terminal-model reactivity ratios, r1 = k11/k12 and r2 = k22/k21.
-	R1 float64 `json:"r1"`
-	R2 float64 `json:"r2"`
+	R1 float64 `json:"r1" project:"required"`
+	R2 float64 `json:"r2" project:"required"`
 	// RatioSource says where R1 and R2 come from (free text).
 	RatioSource string `json:"ratioSource"`
 	// F10 is the initial mole fraction of monomer 1 in the feed, 0 < F10 < 1.
-	F10 float64 `json:"f10"`
+	F10 float64 `json:"f10" project:"required"`
 	// Conversion is the last overall molar conversion of the drift view, 0 < Conversion ≤ 1.
-	Conversion float64 `json:"conversion"`
+	Conversion float64 `json:"conversion" project:"required"`
 	// Tolerance is the ± tolerance on the cumulative copolymer composition (mole fraction) that
 	// sets the conversion limit, 0 < Tolerance ≤ 0.5.
-	Tolerance float64 `json:"tolerance"`
+	Tolerance float64 `json:"tolerance" project:"required"`
 	Notes     string  `json:"notes"`
 	// Invented is true for the built-in demo scenario, whose lab and runs do not exist.
 	Invented bool `json:"invented,omitempty"`
@@ -155,7 +157,7 @@ type Project struct {
 	Level float64 `json:"level,omitempty"`
 	// JCR is the joint confidence region of R1 and R2 as a closed polygon of (r1, r2) points,
 	// when the ratios in use came from a fit; at most MaxJCRPoints points, each finite and ≥ 0.
-	JCR [][2]float64 `json:"jcr,omitempty"`
+	JCR [][2]float64 `json:"jcr,omitempty" pair:"r1, r2"`
 	// Model is the model of the sequences panel, or nil when none was chosen.
 	Model *Model `json:"model,omitempty"`
 	// Triads are the measured triad fractions as entered, at most MaxTriadRows rows, or nil
@@ -345,7 +347,7 @@ func Demo() Project {
 		// semi-batch making 1 kg of a 50:50 (mol) copolymer, an assumed first-order rate
 		// constant, and an assumed 2.5 kg reactor charge for the adiabatic-rise check.
 		Plan: &Plan{
-			Mode:         copoly.PlanSemibatch,
+			Mode:         plan.ModeSemibatch,
 			TargetF1:     0.5,
 			PolymerMass:  1000,
 			Tolerance:    0.02,
@@ -374,14 +376,14 @@ func demoBench() Bench {
 		{"HL-08 (invented)", "0.850", "0.080", "0.841"},
 	}
 	b := Bench{
-		FeedKind:        copoly.FeedFraction,
-		ConversionKind:  copoly.ConversionMolar,
-		CompositionKind: copoly.CompositionFraction,
+		FeedKind:        bench.FeedFraction,
+		ConversionKind:  bench.ConversionMolar,
+		CompositionKind: bench.CompositionFraction,
 		Rows:            make([]BenchRow, len(rows)),
 	}
 	for i, r := range rows {
 		b.Rows[i] = BenchRow{Label: r.label, Cells: map[string]string{
-			copoly.ColF10: r.f10, copoly.ColConversion: r.x, copoly.ColF1: r.F1, copoly.ColSF: "0.010",
+			bench.ColF10: r.f10, bench.ColConversion: r.x, bench.ColF1: r.F1, bench.ColSF: "0.010",
 		}}
 	}
 	return b

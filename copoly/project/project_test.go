@@ -145,9 +145,9 @@ func TestValidate(t *testing.T) {
 		{name: "jcr on an axis", edit: func(p *Project) { p.JCR = [][2]float64{{0, 0.1}, {0.9, 0}} }},
 		{name: "jcr at limit", edit: func(p *Project) { p.JCR = make([][2]float64, MaxJCRPoints) }},
 		{name: "jcr too many", edit: func(p *Project) { p.JCR = make([][2]float64, MaxJCRPoints+1) }, field: "project.jcr", err: copoly.ErrTooMany},
-		{name: "jcr negative", edit: func(p *Project) { p.JCR = [][2]float64{{0.7, 0.1}, {0.9, -0.01}} }, field: "project.jcr[1]", err: copoly.ErrOutOfRange},
-		{name: "jcr infinite", edit: func(p *Project) { p.JCR = [][2]float64{{math.Inf(1), 0.1}} }, field: "project.jcr[0]", err: copoly.ErrNotFinite},
-		{name: "jcr NaN", edit: func(p *Project) { p.JCR = [][2]float64{{0.7, 0.1}, {0.8, 0.1}, {0.9, math.NaN()}} }, field: "project.jcr[2]", err: copoly.ErrNotFinite},
+		{name: "jcr negative", edit: func(p *Project) { p.JCR = [][2]float64{{0.7, 0.1}, {0.9, -0.01}} }, field: "project.jcr[1][1]", err: copoly.ErrOutOfRange},
+		{name: "jcr infinite", edit: func(p *Project) { p.JCR = [][2]float64{{math.Inf(1), 0.1}} }, field: "project.jcr[0][0]", err: copoly.ErrNotFinite},
+		{name: "jcr NaN", edit: func(p *Project) { p.JCR = [][2]float64{{0.7, 0.1}, {0.8, 0.1}, {0.9, math.NaN()}} }, field: "project.jcr[2][1]", err: copoly.ErrNotFinite},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {

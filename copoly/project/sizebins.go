@@ -4,26 +4,27 @@ import (
 	"fmt"
 
 	"copoly/copoly"
+	"copoly/copoly/molarmass"
 )
 
 // MaxSizeBins is the largest number of rows of Project.SizeBins: copoly's own limit
-// (copoly.MaxAverageRows), so that every table a project holds can be averaged.
-const MaxSizeBins = copoly.MaxAverageRows
+// (molarmass.MaxAverageRows), so that every table a project holds can be averaged.
+const MaxSizeBins = molarmass.MaxAverageRows
 
 // SizeBin is one row of the chain-size panel as entered: a class Low–High of molar mass in
-// g/mol with its number fraction or its weight fraction (0 = not given), as copoly.Bin. It is
+// g/mol with its number fraction or its weight fraction (0 = not given), as molarmass.Bin. It is
 // one entry of the sizeBins of the JavaScript API. Every number must be finite and ≥ 0; whether
-// the table makes a distribution is for copoly.BinAverages to say.
+// the table makes a distribution is for molarmass.BinAverages to say.
 type SizeBin struct {
-	Low            float64 `json:"low"`
-	High           float64 `json:"high"`
+	Low            float64 `json:"low" project:"required"`
+	High           float64 `json:"high" project:"required"`
 	NumberFraction float64 `json:"numberFraction,omitempty"`
 	WeightFraction float64 `json:"weightFraction,omitempty"`
 }
 
-// Bin returns the row as a copoly.Bin.
-func (b SizeBin) Bin() copoly.Bin {
-	return copoly.Bin{Low: b.Low, High: b.High, Number: b.NumberFraction, Weight: b.WeightFraction}
+// Bin returns the row as a molarmass.Bin.
+func (b SizeBin) Bin() molarmass.Bin {
+	return molarmass.Bin{Low: b.Low, High: b.High, Number: b.NumberFraction, Weight: b.WeightFraction}
 }
 
 // checkSizeBins reports the first invalid row of bins as an error whose field starts with field

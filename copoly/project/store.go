@@ -38,8 +38,9 @@ const (
 // holds exactly.
 const MaxRevision = 1<<53 - 1
 
-// maxIDLength is the longest name of a page (Store.Writer, the tab of a draft).
-const maxIDLength = 64
+// MaxIDLength is the longest name of a page (Store.Writer, the tab of a draft), in ASCII
+// characters.
+const MaxIDLength = 64
 
 // Revision identifies one save of the stored project: N counts the saves and Writer names the
 // page that made it, so two pages that both saved on top of revision {4, A} make {5, B} and
@@ -71,8 +72,8 @@ func CheckRevision(field string, r Revision) error {
 // CheckID reports a name of a page (a writer or a tab) that is empty, longer than 64 characters
 // or holds anything but ASCII letters, digits, '-' and '_'; such names become file names.
 func CheckID(field, id string) error {
-	if id == "" || len(id) > maxIDLength {
-		return &copoly.FieldError{Field: field, Reason: fmt.Sprintf("must be 1 to %d letters, digits, '-' or '_'", maxIDLength), Err: ErrWrongType}
+	if id == "" || len(id) > MaxIDLength {
+		return &copoly.FieldError{Field: field, Reason: fmt.Sprintf("must be 1 to %d letters, digits, '-' or '_'", MaxIDLength), Err: ErrWrongType}
 	}
 	for _, r := range id {
 		if !('a' <= r && r <= 'z' || 'A' <= r && r <= 'Z' || '0' <= r && r <= '9' || r == '-' || r == '_') {
@@ -415,7 +416,11 @@ func (s Store) tidy(now time.Time, top listing) {
 
 // ErrNotStored reports a write that the file system reported done but that did not read back
 // (see writeFile); in a browser the likely cause is a full storage.
-var ErrNotStored = errors.New("project: what was written did not read back")
+var ErrNotStored = copoly.NewSentinel(copoly.CodeNotStored, "project: what was written did not read back")
+
+// ErrStorage is wrapped, with the error of the file system, by every error of a failed read or
+// write of the store.
+var ErrStorage = copoly.NewSentinel(copoly.CodeStorage, "project: storage failed")
 
 // writeFile writes data to name through a temporary file renamed into place, so that name holds
 // either its old content or data, never a part of data, and reads it back.
@@ -482,5 +487,5 @@ func dirNames(fsys hackpadfs.FS, dir string) ([]string, error) {
 }
 
 func storageError(what string, err error) error {
-	return &copoly.FieldError{Field: "storage", Reason: what + " (" + err.Error() + ")", Err: err}
+	return &copoly.FieldError{Field: "storage", Reason: what + " (" + err.Error() + ")", Err: errors.Join(err, ErrStorage)}
 }

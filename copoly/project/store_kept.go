@@ -21,7 +21,7 @@ const (
 )
 
 // ErrNoKept reports a kept copy that does not exist (or a name no kept copy can have).
-var ErrNoKept = errors.New("project: no such kept copy")
+var ErrNoKept = copoly.NewSentinel(copoly.CodeNoCopy, "project: no such kept copy")
 
 // Kept is one copy set aside in KeptDir. Damaged copies are never replaced; a page's conflict
 // copy is replaced by that page's next refused save. Only DropKept removes either.
@@ -73,6 +73,10 @@ func keptBefore(a, b Kept) bool {
 	}
 	return a.Name < b.Name
 }
+
+// MaxKeptNameLength bounds the name of a kept copy a caller may give: longer than any the store
+// makes (a kind, "-", a name of at most MaxIDLength characters and ".json" take at most 79).
+const MaxKeptNameLength = 100
 
 // ReadKept returns the kept copy called name and its bytes. A name that is not a kept copy
 // gives an error wrapping ErrNoKept, with field "name".

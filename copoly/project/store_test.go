@@ -13,6 +13,7 @@ import (
 	"github.com/hack-pad/hackpadfs/mem"
 
 	"copoly/copoly"
+	"copoly/copoly/bench"
 )
 
 // Times used as "now" in the tests; any fixed instants would do.
@@ -417,7 +418,7 @@ func TestSaveOversizedRefused(t *testing.T) {
 	// revision it would not: the store refuses it rather than write a file Load could not read.
 	p := Demo()
 	p.Notes = ""
-	p.Bench = &Bench{FeedKind: copoly.FeedFraction, ConversionKind: copoly.ConversionMolar, CompositionKind: copoly.CompositionFraction}
+	p.Bench = &Bench{FeedKind: bench.FeedFraction, ConversionKind: bench.ConversionMolar, CompositionKind: bench.CompositionFraction}
 	size := func() int {
 		data, err := Marshal(p)
 		if err != nil {

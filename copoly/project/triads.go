@@ -5,24 +5,30 @@ import (
 	"math"
 
 	"copoly/copoly"
+	"copoly/copoly/fit"
 )
 
 // MaxTriadRows is the largest number of rows of Project.Triads: copoly's own limit
-// (copoly.MaxTriadRuns), so that every table a project holds can be compared.
-const MaxTriadRows = copoly.MaxTriadRuns
+// (fit.MaxTriadRuns), so that every table a project holds can be compared.
+const MaxTriadRows = fit.MaxTriadRuns
+
+// TriadSumTolerance is how far from 1 a family of measured triad fractions (A111 + A112 +
+// A212, or A222 + A221 + A121) may sum before the page points it out: 0.01 (common practice, no
+// source).
+const TriadSumTolerance = 0.01
 
 // NotMeasured is the value that marks a measurement of a TriadRow as not made, as an
-// alternative to leaving it out (copoly.TriadRun reads any value below 0 so).
+// alternative to leaving it out (fit.TriadRun reads any value below 0 so).
 const NotMeasured = -1
 
 // TriadRow is one row of the measured-triads table as entered: a low-conversion copolymer
 // made from feed F10, with its composition F1 and its monomer-centred triad fractions (¹³C NMR)
-// in the convention of copoly.TriadRun (A112 counts 112 and 211, A221 counts 221 and 122). It is
+// in the convention of fit.TriadRun (A112 counts 112 and 211, A221 counts 221 and 122). It is
 // the TriadRow of the JavaScript API. A measurement left out (nil) or equal to NotMeasured was
 // not made; the values are kept as typed, so the family sums are not checked here.
 type TriadRow struct {
 	// F10 is the mole fraction of M1 in the feed, in [0, 1].
-	F10 float64 `json:"f10"`
+	F10 float64 `json:"f10" project:"required"`
 	// F1 is the mole fraction of M1 in the copolymer; A… are the triad fractions. Each is in
 	// [0, 1], NotMeasured, or nil.
 	F1   *float64 `json:"F1,omitempty"`
@@ -34,15 +40,15 @@ type TriadRow struct {
 	A121 *float64 `json:"A121,omitempty"`
 }
 
-// Run returns the row as a copoly.TriadRun, with NotMeasured for each measurement left out.
-func (r TriadRow) Run() copoly.TriadRun {
+// Run returns the row as a fit.TriadRun, with NotMeasured for each measurement left out.
+func (r TriadRow) Run() fit.TriadRun {
 	v := func(p *float64) float64 {
 		if p == nil {
 			return NotMeasured
 		}
 		return *p
 	}
-	return copoly.TriadRun{F10: r.F10, F1: v(r.F1),
+	return fit.TriadRun{F10: r.F10, F1: v(r.F1),
 		A111: v(r.A111), A112: v(r.A112), A212: v(r.A212),
 		A222: v(r.A222), A221: v(r.A221), A121: v(r.A121)}
 }
@@ -75,4 +81,17 @@ func CheckTriads(field string, rows []TriadRow) error {
 		}
 	}
 	return nil
+}
+
+// Discriminate checks the rows ([CheckTriads], errors named under field) and compares the
+// terminal and the penultimate model on them ([fit.Discriminate]).
+func Discriminate(field string, rows []TriadRow) (*fit.Discrimination, error) {
+	if err := CheckTriads(field, rows); err != nil {
+		return nil, err
+	}
+	runs := make([]fit.TriadRun, len(rows))
+	for i, r := range rows {
+		runs[i] = r.Run()
+	}
+	return fit.Discriminate(runs)
 }

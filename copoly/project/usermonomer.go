@@ -15,8 +15,8 @@ const (
 	MaxUserMonomers    = 100  // entries of Project.UserMonomers
 	MaxHazards         = 20   // hazards of one user monomer
 	MaxHazardLength    = 100  // characters in one hazard
-	MaxUserDensity     = 25   // g/mL: the largest density copoly.MakePlan takes
-	MaxUserHeat        = 1000 // kJ/mol: the largest heat of polymerization copoly.MakePlan takes
+	MaxUserDensity     = 25   // g/mL: the largest density plan.Make takes
+	MaxUserHeat        = 1000 // kJ/mol: the largest heat of polymerization plan.Make takes
 	MaxUserDensityTemp = 1000 // °C
 )
 
@@ -27,7 +27,7 @@ const (
 type UserMonomer struct {
 	// Name is required, at most MaxNameLength characters, and differs (ignoring case and
 	// surrounding spaces) from the name of every other user monomer of the project.
-	Name string `json:"name"`
+	Name string `json:"name" project:"required"`
 	// MolarMass in g/mol; when given it must pass copoly.CheckMolarMass.
 	MolarMass float64 `json:"molarMass"`
 	// Density in g/mL (at most MaxUserDensity) at DensityTemp °C (at most MaxUserDensityTemp).
@@ -42,7 +42,7 @@ type UserMonomer struct {
 	E float64 `json:"e"`
 	// Hazards are copoly's hazard words (copoly.HazardFlammable, …) or the user's own, each at
 	// most MaxHazardLength characters and not blank; at most MaxHazards of them.
-	Hazards []string `json:"hazards,omitempty"`
+	Hazards []string `json:"hazards"`
 	// Note is free text (where the values come from), at most MaxSourceLength characters.
 	Note string `json:"note"`
 }

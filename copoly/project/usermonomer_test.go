@@ -179,10 +179,10 @@ func TestParseUserMonomers(t *testing.T) {
 		text              string
 	}{
 		{"not a list", `{"name":"X"}`, "project.userMonomers", ErrWrongType, "a list"},
-		{"name a number", `[{"name":5}]`, "project.userMonomers.name", ErrWrongType, "text in quotes"},
-		{"no name", `[{"molarMass":100}]`, "project.userMonomers[0].name", ErrMissing, "needs a name"},
-		{"density text", `[{"name":"X","density":"0,9"}]`, "project.userMonomers.density", ErrWrongType, "a number"},
-		{"hazards text", `[{"name":"X","hazards":"toxic"}]`, "project.userMonomers.hazards", ErrWrongType, "a list"},
+		{"name a number", `[{"name":5}]`, "project.userMonomers[0].name", ErrWrongType, "must be text, not the number 5"},
+		{"no name", `[{"molarMass":100}]`, "project.userMonomers[0].name", ErrMissing, "is missing"},
+		{"density text", `[{"name":"X","density":"0,9"}]`, "project.userMonomers[0].density", ErrWrongType, "a number"},
+		{"hazards text", `[{"name":"X","hazards":"toxic"}]`, "project.userMonomers[0].hazards", ErrWrongType, "a list"},
 		{"state unknown", `[{"name":"X","state":"plasma"}]`, "project.userMonomers[0].state", ErrNotAllowed, `"plasma"`},
 		{"names repeated", `[{"name":"X"},{"name":"x"}]`, "project.userMonomers[1].name", ErrNotAllowed, "already"},
 		{"heat negative", `[{"name":"X","heat":-70}]`, "project.userMonomers[0].heat", copoly.ErrOutOfRange, "negative"},
