@@ -83,6 +83,16 @@ export function isError(r) {
 }
 
 /**
+ * pageError is an error of the page's own making in the shape of the module's errors.
+ * @param {import("../copoly").ErrorCode} code
+ * @param {string} sentence
+ * @returns {import("../copoly").CopolyError}
+ */
+function pageError(code, sentence) {
+  return { error: sentence, code, reason: sentence };
+}
+
+/**
  * call runs one method of the module with one plain-object argument. It never rejects: invalid
  * input, a module that is not running and a failed storage call all come back as a
  * CopolyError. A method that throws means the module has exited: onStop's handlers run.
@@ -92,7 +102,7 @@ export function isError(r) {
  * @returns {Promise<ResultOf<M>>}
  */
 export async function call(method, arg) {
-  if (!api || stopped) return { error: "The calculation engine is not running." };
+  if (!api || stopped) return /** @type {ResultOf<M>} */ (pageError("unavailable", "The calculation engine is not running."));
   /** @type {unknown} */
   let r;
   try {
@@ -101,16 +111,16 @@ export async function call(method, arg) {
     r = /** @type {(a: unknown) => unknown} */ (api[method]).call(api, arg || {});
   } catch (e) {
     stop();
-    return { error: "The calculation engine stopped." };
+    return /** @type {ResultOf<M>} */ (pageError("internal", "The calculation engine stopped."));
   }
   if (typeof r === "object" && r !== null && typeof (/** @type {{then?: unknown}} */ (r)).then === "function") {
     try {
       r = await /** @type {Promise<unknown>} */ (r); // a thenable: the storage methods' Promise
     } catch (e) {
-      return { error: String((e instanceof Error && e.message) || e) };
+      return /** @type {ResultOf<M>} */ (pageError("internal", String((e instanceof Error && e.message) || e)));
     }
   }
-  if (r === undefined || r === null) return { error: `No answer from ${method}.` };
+  if (r === undefined || r === null) return /** @type {ResultOf<M>} */ (pageError("internal", `No answer from ${method}.`));
   // The module answers each method as copoly.d.ts says (site/contract checks the bridge's DTOs against it).
   return /** @type {ResultOf<M>} */ (r);
 }
